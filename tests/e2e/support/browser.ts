@@ -1,0 +1,58 @@
+// Chromium for the e2e suite: one browser per test file, a fresh tablet-sized context per test,
+// sign-in and screenshot helpers. Screenshots go to screenshots/ (gitignored) for people to look at.
+import { mkdirSync } from "node:fs";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
+import { assertChromiumInstalled, CHROMIUM_ARGS } from "./chromium";
+import { DEMO_PASSWORD } from "./demo-users";
+import { OverviewPage, SignInPage } from "./pages";
+
+const ROOT = fileURLToPath(new URL("../../../", import.meta.url));
+export const SCREENSHOT_DIR = join(ROOT, "screenshots");
+
+/** A 10-inch tablet in landscape, the device the technicians carry. */
+export const TABLET_VIEWPORT = { width: 1024, height: 768 } as const;
+
+export async function launchBrowser(): Promise<Browser> {
+  const executablePath = assertChromiumInstalled();
+  // `launch` gives every run a fresh temporary profile (user-data dir) of its own.
+  return chromium.launch({ executablePath, headless: true, args: CHROMIUM_ARGS });
+}
+
+export async function newTabletContext(browser: Browser, baseURL: string): Promise<BrowserContext> {
+  const context = await browser.newContext({
+    baseURL,
+    viewport: TABLET_VIEWPORT,
+    hasTouch: true,
+    locale: "en-GB",
+  });
+  context.setDefaultTimeout(15_000);
+  context.setDefaultNavigationTimeout(30_000);
+  return context;
+}
+
+/** Collects uncaught exceptions in the page, so a test can insist there were none. */
+export function trackPageErrors(page: Page): string[] {
+  const errors: string[] = [];
+  page.on("pageerror", (error) => errors.push(`${error.name}: ${error.message}`));
+  return errors;
+}
+
+/** Signs in through the real form and waits for the overview. */
+export async function signIn(page: Page, email: string, password: string = DEMO_PASSWORD): Promise<OverviewPage> {
+  const form = new SignInPage(page);
+  await form.goto();
+  await form.submit(email, password);
+  await page.waitForURL((url) => url.pathname === "/");
+  const overview = new OverviewPage(page);
+  await overview.heading.waitFor({ state: "visible" });
+  return overview;
+}
+
+export async function screenshot(page: Page, name: string): Promise<string> {
+  mkdirSync(SCREENSHOT_DIR, { recursive: true });
+  const path = join(SCREENSHOT_DIR, `${name.replace(/[^a-z0-9._-]+/gi, "-")}.png`);
+  await page.screenshot({ path, fullPage: true });
+  return path;
+}

@@ -1,0 +1,21 @@
+// Browser (e2e) suite: one production server and one Chromium for the whole run, so test files
+// run one after another. The server is started by tests/e2e/global-setup.ts.
+import { fileURLToPath } from "node:url";
+import { defineConfig } from "vitest/config";
+
+export default defineConfig({
+  resolve: {
+    alias: { "@": fileURLToPath(new URL("./", import.meta.url)) },
+  },
+  test: {
+    include: ["tests/e2e/**/*.e2e.ts"],
+    environment: "node",
+    globalSetup: ["tests/e2e/global-setup.ts"],
+    fileParallelism: false,
+    maxWorkers: 1,
+    pool: "forks",
+    testTimeout: 90_000,
+    hookTimeout: 120_000,
+    teardownTimeout: 30_000,
+  },
+});
