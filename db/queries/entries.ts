@@ -1,0 +1,185 @@
+// The append-only log: applying a pushed batch (idempotent, one transaction, hash-chained per
+// cryostat), reading a cryostat's logbook page, and pulling what changed since a cursor.
+import { and, desc, eq, gt, inArray, lt, notInArray, sql } from "drizzle-orm";
+import type { Db } from "@/db/client";
+import { chainHeads, cryostats, devices, entries } from "@/db/schema";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { mayRead, mayWrite, maySign, readableKindsExcluded } from "@/lib/auth/permissions";
+import type { EntryInput } from "@/lib/schemas/entry";
+import { chainOf, genesisHash, linkHash, recordHash } from "@/lib/sync/hash";
+import { runProjectors, validateAgainstLog } from "./projections";
+import { toStoredRow } from "./stored";
+
+export type Accepted = { id: string; seq: number; hash: string };
+export type Rejected = { id: string; code: string; message: string };
+export type PushResult = { accepted: Accepted[]; rejected: Rejected[] };
+
+export const toStored = toStoredRow;
+
+/**
+ * Apply a batch of parsed entries for one signed-in user. The whole batch commits in one
+ * transaction; an entry already stored with the same content is answered as accepted again
+ * (a retried push changes nothing); a bad entry is rejected without blocking the others.
+ */
+export async function appendEntries(db: Db, user: SessionUser, batch: EntryInput[]): Promise<PushResult> {
+  return db.transaction(async (tx) => {
+    const t = tx as unknown as Db;
+    const accepted: Accepted[] = [];
+    const rejected: Rejected[] = [];
+    if (batch.length === 0) return { accepted, rejected };
+
+    const ids = batch.map((e) => e.id);
+    const existing = await t.select().from(entries).where(inArray(entries.id, ids));
+    const existingById = new Map(existing.map((r) => [r.id, r]));
+
+    const deviceIds = [...new Set(batch.map((e) => e.deviceId))];
+    const revoked = new Set(
+      (await t.select({ id: devices.id, revokedAt: devices.revokedAt }).from(devices).where(inArray(devices.id, deviceIds)))
+        .filter((d) => d.revokedAt)
+        .map((d) => d.id),
+    );
+    const knownCryostats = new Set((await t.select({ id: cryostats.id }).from(cryostats)).map((c) => c.id));
+
+    const [{ maxSeq } = { maxSeq: 0 }] = await t.select({ maxSeq: sql<number>`coalesce(max(${entries.seq}), 0)::int` }).from(entries);
+    let seq = Number(maxSeq);
+    const heads = new Map((await t.select().from(chainHeads)).map((h) => [h.chain, h.hash]));
+    const touched = new Map<string, { seq: number; hash: string }>();
+    const rows: (typeof entries.$inferInsert)[] = [];
+    const seenInBatch = new Map<string, EntryInput>();
+    const receivedAt = new Date();
+
+    for (const e of batch) {
+      const reject = (code: string, message: string) => rejected.push({ id: e.id, code, message });
+      const stored = existingById.get(e.id);
+      if (stored) {
+        if (recordHash(toStored(stored)) === recordHash(e)) accepted.push({ id: e.id, seq: stored.seq, hash: stored.hash });
+        else reject("conflict:entry", "Another entry with this id is already stored with different content.");
+        continue;
+      }
+      const dup = seenInBatch.get(e.id);
+      if (dup) {
+        if (recordHash(dup) !== recordHash(e)) reject("conflict:entry", "The batch holds two different entries with this id.");
+        continue; // answered with the first copy below
+      }
+      if (e.authorId !== user.id) {
+        reject("forbidden:author", "This entry was written by another user; it can only be sent from that user's session.");
+        continue;
+      }
+      if (revoked.has(e.deviceId)) {
+        reject("forbidden:device", "This tablet has been withdrawn by the facility admin; its entries are not accepted.");
+        continue;
+      }
+      if (!mayWrite(user.role, e.kind)) {
+        reject("forbidden:kind", `A ${user.role.replace("_", " ")} may not record entries of kind "${e.kind}".`);
+        continue;
+      }
+      if (e.cryostatId !== null && !knownCryostats.has(e.cryostatId)) {
+        reject("bad_request:cryostat", `Unknown cryostat "${e.cryostatId}".`);
+        continue;
+      }
+      if (e.kind === "signature") {
+        const meaning = (e.payload as { meaning: Parameters<typeof maySign>[1] }).meaning;
+        if (!maySign(user.role, meaning)) {
+          reject("forbidden:signature", `A ${user.role.replace("_", " ")} may not sign as "${meaning}".`);
+          continue;
+        }
+      }
+      const problem = await validateAgainstLog(t, e, seenInBatch, user);
+      if (problem) {
+        reject(problem.code, problem.message);
+        continue;
+      }
+
+      seq += 1;
+      const chain = chainOf(e.cryostatId);
+      const prevHash = touched.get(chain)?.hash ?? heads.get(chain) ?? genesisHash(chain);
+      const at = receivedAt.toISOString();
+      const hash = linkHash(prevHash, e, seq, at);
+      touched.set(chain, { seq, hash });
+      seenInBatch.set(e.id, e);
+      rows.push({
+        id: e.id,
+        chain,
+        cryostatId: e.cryostatId,
+        runId: e.runId,
+        kind: e.kind,
+        payload: e.payload,
+        authorId: e.authorId,
+        deviceId: e.deviceId,
+        recordedAt: new Date(e.recordedAt),
+        supersedes: e.supersedes,
+        reason: e.reason,
+        seq,
+        receivedAt,
+        prevHash,
+        hash,
+      });
+      accepted.push({ id: e.id, seq, hash });
+    }
+
+    // Bounded multi-row inserts: one statement per few hundred rows.
+    for (let i = 0; i < rows.length; i += 200) {
+      await t.insert(entries).values(rows.slice(i, i + 200)).onConflictDoNothing({ target: entries.id });
+    }
+    for (const [chain, head] of touched) {
+      await t
+        .insert(chainHeads)
+        .values({ chain, ...head })
+        .onConflictDoUpdate({ target: chainHeads.chain, set: head });
+    }
+    if (rows.length) await runProjectors(t, rows);
+    for (const d of deviceIds) {
+      await t
+        .insert(devices)
+        .values({ id: d, userId: user.id })
+        .onConflictDoUpdate({ target: devices.id, set: { lastSeenAt: receivedAt } });
+    }
+    return { accepted, rejected };
+  });
+}
+
+/** A cryostat's logbook, newest first, paged by seq. */
+export async function listCryostatEntries(
+  db: Db,
+  { cryostatId, role, cursor, limit = 30 }: { cryostatId: string; role: SessionUser["role"]; cursor?: number; limit?: number },
+) {
+  const hidden = readableKindsExcluded(role);
+  const rows = await db
+    .select()
+    .from(entries)
+    .where(
+      and(
+        eq(entries.cryostatId, cryostatId),
+        cursor ? lt(entries.seq, cursor) : undefined,
+        hidden.length ? notInArray(entries.kind, hidden) : undefined,
+      ),
+    )
+    .orderBy(desc(entries.seq))
+    .limit(limit + 1);
+  const page = rows.slice(0, limit).map(toStored);
+  const last = page.at(-1);
+  return { entries: page, nextCursor: rows.length > limit && last ? last.seq : null };
+}
+
+/** Entries after a cursor, oldest first, filtered to what the role may read. */
+export async function pullEntries(db: Db, { since, role, limit = 500 }: { since: number; role: SessionUser["role"]; limit?: number }) {
+  const rows = await db.select().from(entries).where(gt(entries.seq, since)).orderBy(entries.seq).limit(limit + 1);
+  const page = rows.slice(0, limit);
+  const last = page.at(-1);
+  return {
+    // The cursor moves past hidden entries too, so it only ever moves forward.
+    entries: page.filter((r) => mayRead(role, r.kind)).map(toStored),
+    cursor: last ? last.seq : since,
+    hasMore: rows.length > limit,
+  };
+}
+
+/** Every entry of one chain in order, for verification. */
+export async function chainEntries(db: Db, chain: string) {
+  return (await db.select().from(entries).where(eq(entries.chain, chain)).orderBy(entries.seq)).map(toStored);
+}
+
+export async function getEntry(db: Db, id: string) {
+  const [row] = await db.select().from(entries).where(eq(entries.id, id));
+  return row ? toStored(row) : undefined;
+}

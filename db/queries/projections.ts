@@ -1,0 +1,76 @@
+// Checks an entry must pass against the stored log (signature binding, corrections), and the
+// projections updated in the same transaction as the entries they derive from.
+// Feature modules register their own checks and projectors here.
+import { eq } from "drizzle-orm";
+import type { Db } from "@/db/client";
+import { entries, signatures, type EntryRow } from "@/db/schema";
+import type { SessionUser } from "@/lib/auth/session-user";
+import type { EntryInput } from "@/lib/schemas/entry";
+import { recordHash } from "@/lib/sync/hash";
+import { toStoredRow } from "./stored";
+
+export type Problem = { code: string; message: string };
+type Check = (db: Db, e: EntryInput, batch: Map<string, EntryInput>, user: SessionUser) => Promise<Problem | null>;
+type Projector = (db: Db, rows: (typeof entries.$inferInsert)[]) => Promise<void>;
+
+async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Promise<EntryInput | undefined> {
+  const inBatch = batch.get(id);
+  if (inBatch) return inBatch;
+  const [row] = await db.select().from(entries).where(eq(entries.id, id));
+  return row ? toStoredRow(row as EntryRow) : undefined;
+}
+
+/** A signature must name a stored record and carry the hash of exactly that record's content. */
+const signatureBinding: Check = async (db, e, batch, user) => {
+  if (e.kind !== "signature") return null;
+  const p = e.payload as { signedEntryId: string; signedHash: string; signerRole: string };
+  if (p.signerRole !== user.role) return { code: "forbidden:signature", message: "The signer's role does not match the signed-in user's role." };
+  const target = await findEntry(db, p.signedEntryId, batch);
+  if (!target) return { code: "bad_request:signature", message: "The signed record is not on the server; send it first (or together)." };
+  if (recordHash(target) !== p.signedHash) {
+    return { code: "conflict:signature", message: "The signature does not match the record's content: the record was changed after signing." };
+  }
+  return null;
+};
+
+/** A correction must name a stored record of the same cryostat. */
+const correctionTarget: Check = async (db, e, batch) => {
+  if (!e.supersedes) return null;
+  const target = await findEntry(db, e.supersedes, batch);
+  if (!target) return { code: "bad_request:supersedes", message: "The corrected entry is not on the server." };
+  if (target.cryostatId !== e.cryostatId) return { code: "bad_request:supersedes", message: "A correction must belong to the same cryostat as the entry it corrects." };
+  return null;
+};
+
+const checks: Check[] = [signatureBinding, correctionTarget];
+const projectors: Projector[] = [
+  async (db, rows) => {
+    const sigs = rows.filter((r) => r.kind === "signature");
+    for (const r of sigs) {
+      const p = r.payload as { signedEntryId: string; meaning: string; signedHash: string };
+      await db
+        .insert(signatures)
+        .values({ entryId: r.id, signedEntryId: p.signedEntryId, signerId: r.authorId, meaning: p.meaning, signedHash: p.signedHash, signedAt: r.recordedAt.toISOString() })
+        .onConflictDoNothing();
+    }
+  },
+];
+
+export function registerCheck(check: Check): void {
+  checks.push(check);
+}
+export function registerProjector(projector: Projector): void {
+  projectors.push(projector);
+}
+
+export async function validateAgainstLog(db: Db, e: EntryInput, batch: Map<string, EntryInput>, user: SessionUser): Promise<Problem | null> {
+  for (const check of checks) {
+    const problem = await check(db, e, batch, user);
+    if (problem) return problem;
+  }
+  return null;
+}
+
+export async function runProjectors(db: Db, rows: (typeof entries.$inferInsert)[]): Promise<void> {
+  for (const p of projectors) await p(db, rows);
+}

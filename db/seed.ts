@@ -1,0 +1,294 @@
+// The demo lab (an invented facility, people and devices): users of all four roles, three
+// cryostats, the facility rules, the default procedure templates and four weeks of history,
+// written through the same append path as a tablet push. Runs only on an empty database.
+import { randomUUID } from "node:crypto";
+import bcrypt from "bcryptjs";
+import { count } from "drizzle-orm";
+import type { Db } from "./client";
+import { cryostats, facilityRules, procedureTemplates, users, type Role } from "./schema";
+import { appendEntries } from "./queries/entries";
+import { DEFAULT_TEMPLATES } from "./seed-templates";
+import type { CryostatConfig } from "@/lib/schemas/cryostat";
+import type { FacilityRulesValues } from "@/lib/schemas/rules";
+import type { EntryInput, EntryKind } from "@/lib/schemas/entry";
+import { recordHash } from "@/lib/sync/hash";
+
+export const DEMO_PASSWORD = "cold-hall-demo";
+
+export const DEMO_USERS: { id: string; email: string; name: string; role: Role }[] = [
+  { id: "u-ines", email: "ines@larchmere.example", name: "Ines Vartanian", role: "facility_admin" },
+  { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" },
+  { id: "u-priya", email: "priya@larchmere.example", name: "Priya Lindqvist", role: "technician" },
+  { id: "u-mateo", email: "mateo@larchmere.example", name: "Dr. Mateo Brandt", role: "researcher" },
+  { id: "u-yuki", email: "yuki@larchmere.example", name: "Yuki Hallström", role: "researcher" },
+  { id: "u-grace", email: "grace@larchmere.example", name: "Dr. Grace Oyelaran", role: "safety_officer" },
+];
+
+const HERON: CryostatConfig = {
+  description: "Dry dilution refrigerator, pulse-tube pre-cooled, 9 T solenoid, bottom-loading probe.",
+  stages: [
+    { key: "pt1", label: "50 K plate", nominalK: 45 },
+    { key: "pt2", label: "4 K plate", nominalK: 3.5 },
+    { key: "still", label: "Still", nominalK: 0.8 },
+    { key: "cold", label: "Cold plate", nominalK: 0.07 },
+    { key: "mxc", label: "Mixing chamber", nominalK: 0.012 },
+  ],
+  magnet: { coilConstantTPerA: 0.09, maxCurrentA: 100, inductanceH: 20, rampLimitTPerMin: 0.15, persistentSwitch: true, dipoleMomentAm2: 2.0e4 },
+  mixture: { tankVolumeLitres: 40 },
+};
+
+const PLOVER: CryostatConfig = {
+  description: "Wet helium-bath cryostat, 14 T magnet, variable-temperature insert (1.5–300 K).",
+  stages: [
+    { key: "bath", label: "Helium bath", nominalK: 4.2 },
+    { key: "vti", label: "VTI sample", nominalK: 1.6 },
+  ],
+  reservoir: {
+    capacityLitres: 90,
+    minimumPercent: 25,
+    calibration: {
+      kind: "table",
+      points: [
+        { percent: 0, litres: 0 },
+        { percent: 10, litres: 8.5 },
+        { percent: 90, litres: 88.5 },
+        { percent: 100, litres: 90 },
+      ],
+    },
+  },
+  magnet: { coilConstantTPerA: 0.12, maxCurrentA: 120, inductanceH: 60, rampLimitTPerMin: 0.2, persistentSwitch: true, dipoleMomentAm2: 3.5e4 },
+  vapourPressureStage: "vti",
+};
+
+const WREN: CryostatConfig = {
+  description: "Helium-4 bath test dewar for quick sensor tests; no magnet.",
+  stages: [{ key: "bath", label: "Helium bath", nominalK: 4.2 }],
+  reservoir: { capacityLitres: 60, minimumPercent: 20, calibration: { kind: "linear", litresPerPercent: 0.6, offsetLitres: 0 } },
+};
+
+export const DEMO_RULES: FacilityRulesValues = {
+  facilityName: "Low-Temperature Hall B-014, Larchmere Institute for Quantum Matter",
+  oxygenAlarmPercent: 19.5,
+  oxygenEvacuatePercent: 18,
+  twoPersonTransfer: true,
+  ppe: ["Face shield", "Cryogenic gloves", "Lab coat with long sleeves", "Closed shoes"],
+  minHeliumPercent: { plover: 25, wren: 20 },
+  maxRampTPerMin: { heron: 0.15, plover: 0.2 },
+  controlledAreaMilliTesla: 0.5,
+  controlledAreaNote: "The 0.5 mT line around Heron and Plover is marked on the floor. No pacemakers or active implants beyond it; no loose steel tools.",
+  forecastWarnDays: 3,
+  contacts: [
+    { name: "Dr. Grace Oyelaran", role: "Safety officer", phone: "+00 555 0142" },
+    { name: "Institute emergency desk", role: "Emergencies (24 h)", phone: "+00 555 0100" },
+    { name: "Ines Vartanian", role: "Facility admin", phone: "+00 555 0177" },
+  ],
+};
+
+/** Deterministic noise so that the demo looks the same on every machine. */
+function rng(seed: number) {
+  let a = seed;
+  return () => {
+    a = (a + 0x6d2b79f5) | 0;
+    let t = Math.imul(a ^ (a >>> 15), 1 | a);
+    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+type Draft = { at: number; cryostatId: string | null; kind: EntryKind; payload: Record<string, unknown>; author: string; runId?: string };
+
+const HOUR = 3_600_000;
+const DAY = 24 * HOUR;
+
+/** Four weeks of plausible history ending at `now`. */
+export function demoHistory(now: number): Draft[] {
+  const rand = rng(7);
+  const noise = (scale: number) => (rand() - 0.5) * 2 * scale;
+  const out: Draft[] = [];
+  const push = (d: Draft) => out.push(d);
+  const start = now - 28 * DAY;
+
+  // Heron: warmup at day 0–1 (mixture recovered), cooldown from day 7 over ~60 h, cold since.
+  push({ at: start + 2 * HOUR, cryostatId: "heron", kind: "state", payload: { state: "warming", comment: "Warmup for probe rewiring; circulation stopped." }, author: "u-tomasz" });
+  push({ at: start + 3 * HOUR, cryostatId: "heron", kind: "reading", payload: { quantity: "Mixture tank pressure", value: 812, unit: "mbar", comment: "All mixture recovered to the tank, 295 K." }, author: "u-tomasz" });
+  push({ at: start + 1.5 * DAY, cryostatId: "heron", kind: "state", payload: { state: "maintenance", comment: "Vented with dry nitrogen at room temperature; probe out." }, author: "u-tomasz" });
+  const coolStart = start + 7 * DAY;
+  push({ at: coolStart - 2 * HOUR, cryostatId: "heron", kind: "reading", payload: { quantity: "Mixture tank pressure", value: 806, unit: "mbar", comment: "Before condensing, 295 K." }, author: "u-priya" });
+  push({ at: coolStart, cryostatId: "heron", kind: "state", payload: { state: "cooling", comment: "Pulse tube on after leak check." }, author: "u-priya" });
+  const targets: Record<string, { base: number; tau: number; delay: number }> = {
+    pt1: { base: 44, tau: 9, delay: 0 },
+    pt2: { base: 3.4, tau: 14, delay: 0 },
+    still: { base: 0.78, tau: 16, delay: 40 },
+    cold: { base: 0.065, tau: 14, delay: 44 },
+    mxc: { base: 0.011, tau: 12, delay: 46 },
+  };
+  for (let h = 0; h <= 72; h += 3) {
+    for (const [stage, t] of Object.entries(targets)) {
+      const warmTrack = Math.max(t.base, 3.6, 295 * Math.exp(-h / 11) + (stage === "pt1" ? 44 : 3.4));
+      const cold = h > t.delay ? t.base + (warmTrack - t.base) * Math.exp(-(h - t.delay) / (t.tau / 6)) : warmTrack;
+      const valueK = Math.max(t.base, stage === "pt1" ? 295 * Math.exp(-h / t.tau) + t.base : cold) * (1 + noise(0.02));
+      push({
+        at: coolStart + h * HOUR,
+        cryostatId: "heron",
+        kind: "reading",
+        payload: valueK < 1 ? { quantity: "Temperature", stage, value: round(valueK * 1000, 2), unit: "mK" } : { quantity: "Temperature", stage, value: round(valueK, 3), unit: "K" },
+        author: h % 12 < 6 ? "u-tomasz" : "u-priya",
+      });
+    }
+  }
+  push({ at: coolStart + 60 * HOUR, cryostatId: "heron", kind: "state", payload: { state: "cold", comment: "Base temperature reached." }, author: "u-priya" });
+  // Cold: a daily base-temperature reading and the magnet ramped for the ring sample.
+  for (let d = 10; d < 28; d++) {
+    for (const [stage, t] of Object.entries(targets)) {
+      const v = t.base * (1 + noise(0.05));
+      push({ at: start + d * DAY + 9 * HOUR, cryostatId: "heron", kind: "reading", payload: v < 1 ? { quantity: "Temperature", stage, value: round(v * 1000, 2), unit: "mK" } : { quantity: "Temperature", stage, value: round(v, 3), unit: "K" }, author: "u-tomasz" });
+    }
+  }
+  push({ at: start + 12 * DAY + 10 * HOUR, cryostatId: "heron", kind: "field.setting", payload: { currentA: 0.5, fieldT: 0.045, persistent: false, rampRateTPerMin: 0.01, comment: "Ring sample LK-7: field sweep around zero." }, author: "u-mateo" });
+  push({ at: start + 16 * DAY + 10 * HOUR, cryostatId: "heron", kind: "field.setting", payload: { currentA: 22.2, fieldT: 2.0, persistent: true, rampRateTPerMin: 0.1, comment: "2 T, persistent mode, switch heater off." }, author: "u-yuki" });
+  push({ at: start + 23 * DAY + 10 * HOUR, cryostatId: "heron", kind: "field.setting", payload: { currentA: 0, fieldT: 0, persistent: false, rampRateTPerMin: 0.1, comment: "Ramped to zero for gate sweeps." }, author: "u-yuki" });
+
+  // Plover: cold all month; ~5 L/day boil-off; transfers twice a week; one quench.
+  push({ at: start + HOUR, cryostatId: "plover", kind: "state", payload: { state: "cold" }, author: "u-tomasz" });
+  let level = 62;
+  let dayOfWeek = 0;
+  for (let d = 0; d < 28; d++) {
+    const t0 = start + d * DAY + 8 * HOUR;
+    level -= 5.2 + noise(0.6);
+    if (d === 19) {
+      // Quench at 9.5 T during a ramp: about 30 L lost.
+      const before = level;
+      level -= 31;
+      push({ at: t0 + 5 * HOUR, cryostatId: "plover", kind: "quench", payload: { at: new Date(t0 + 5 * HOUR).toISOString(), fieldT: 9.5, currentA: 79.2, levelBeforePercent: round(before, 1), levelAfterPercent: round(level, 1), heliumLostLitres: 31, oxygenLowestPercent: 20.4, actions: "Room cleared until the monitors read above 20.5 %. Magnet power supply off. Recovery line checked." }, author: "u-priya" });
+    }
+    push({ at: t0, cryostatId: "plover", kind: "helium.level", payload: { percent: round(level, 1) }, author: d % 2 ? "u-priya" : "u-tomasz" });
+    dayOfWeek = d % 7;
+    if ((dayOfWeek === 1 || dayOfWeek === 4) && level < 60) {
+      const before = level;
+      const gained = round(48 + noise(4), 1);
+      const supplied = round(gained / (0.72 + noise(0.06)), 1);
+      level = Math.min(92, before + gained);
+      const single = d === 11;
+      const noOxygen = d === 15;
+      push({
+        at: t0 + 2 * HOUR,
+        cryostatId: "plover",
+        kind: "transfer",
+        payload: {
+          supplyDewar: d % 3 ? "D-250-A" : "D-250-B",
+          peoplePresent: single ? ["u-tomasz"] : ["u-tomasz", "u-priya"],
+          ppeConfirmed: true,
+          oxygenMonitorChecked: !noOxygen,
+          ...(noOxygen ? {} : { oxygenLowestPercent: round(20.6 + noise(0.2), 1) }),
+          levelBeforePercent: round(before, 1),
+          levelAfterPercent: round(level, 1),
+          pressureBeforeMbar: round(1012 + noise(5), 0),
+          pressureAfterMbar: round(1025 + noise(5), 0),
+          suppliedLitres: supplied,
+          suppliedBy: "level",
+          gainedLitres: gained,
+          durationMin: round(35 + noise(8), 0),
+          anomalies: single ? "Second person called away; finished alone." : "",
+        },
+        author: "u-tomasz",
+      });
+    }
+  }
+  push({ at: start + 5 * DAY + 11 * HOUR, cryostatId: "plover", kind: "field.setting", payload: { currentA: 41.7, fieldT: 5.0, persistent: true, rampRateTPerMin: 0.15 }, author: "u-mateo" });
+  push({ at: start + 19 * DAY + 12 * HOUR, cryostatId: "plover", kind: "field.setting", payload: { currentA: 0, fieldT: 0, persistent: false, comment: "After the quench; supply off." }, author: "u-priya" });
+  push({ at: start + 21 * DAY + 11 * HOUR, cryostatId: "plover", kind: "field.setting", payload: { currentA: 25, fieldT: 3.0, persistent: true, rampRateTPerMin: 0.1 }, author: "u-mateo" });
+
+  // Wren: a cold week of sensor tests.
+  push({ at: start + 14 * DAY, cryostatId: "wren", kind: "state", payload: { state: "cold", comment: "Filled for diode calibration runs." }, author: "u-priya" });
+  let wren = 88;
+  for (let d = 14; d < 28; d++) {
+    wren -= 4 + noise(0.5);
+    push({ at: start + d * DAY + 10 * HOUR, cryostatId: "wren", kind: "helium.level", payload: { percent: round(wren, 1) }, author: "u-priya" });
+  }
+  push({ at: start + 20 * DAY, cryostatId: "wren", kind: "note", payload: { text: "Diode batch SD-14 mounted; four-wire leads checked at 4.2 K." }, author: "u-priya" });
+
+  // Daily handovers, day shift → evening shift, on Heron and Plover.
+  for (let d = 1; d < 28; d++) {
+    for (const c of ["heron", "plover"]) {
+      push({
+        at: start + d * DAY + 15 * HOUR,
+        cryostatId: c,
+        kind: "handover",
+        payload: { summary: { openRuns: [], openIssues: [] }, note: c === "heron" ? "Fridge steady. No alarms." : "Level checked; next transfer as planned.", toUserId: "u-priya" },
+        author: "u-tomasz",
+      });
+    }
+  }
+  return out.sort((a, b) => a.at - b.at);
+}
+
+function round(x: number, digits: number) {
+  const f = 10 ** digits;
+  return Math.round(x * f) / f;
+}
+
+function toEntry(d: Draft): EntryInput {
+  return {
+    id: randomUUID(),
+    cryostatId: d.cryostatId,
+    runId: d.runId ?? null,
+    kind: d.kind,
+    payload: d.payload,
+    authorId: d.author,
+    deviceId: "demo-tablet-b014",
+    recordedAt: new Date(Math.round(d.at)).toISOString(),
+    supersedes: null,
+    reason: null,
+  };
+}
+
+/** Handover signatures: handed over by the author, accepted by the recipient, minutes later. */
+function withSignatures(list: EntryInput[]): EntryInput[] {
+  const out: EntryInput[] = [];
+  for (const e of list) {
+    out.push(e);
+    if (e.kind !== "handover") continue;
+    const to = (e.payload as { toUserId?: string }).toUserId;
+    for (const [signer, meaning, delay] of [
+      [e.authorId, "handed_over", 60_000],
+      [to, "accepted", 300_000],
+    ] as const) {
+      const u = DEMO_USERS.find((x) => x.id === signer);
+      if (!u) continue;
+      out.push({
+        ...toEntry({ at: Date.parse(e.recordedAt) + delay, cryostatId: e.cryostatId, kind: "signature", author: u.id, payload: {} }),
+        payload: { signedEntryId: e.id, meaning, signerName: u.name, signerRole: u.role, signedHash: recordHash(e) },
+      });
+    }
+  }
+  return out;
+}
+
+export async function seedIfEmpty(db: Db, now = Date.now()): Promise<boolean> {
+  const [{ n } = { n: 0 }] = await db.select({ n: count() }).from(users);
+  if (n > 0) return false;
+  const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
+  await db.insert(users).values(DEMO_USERS.map((u) => ({ ...u, passwordHash })));
+  await db.insert(cryostats).values([
+    { id: "heron", name: "Heron", kind: "dry_dilution", location: "B-014, bay 1", config: HERON },
+    { id: "plover", name: "Plover", kind: "wet_bath", location: "B-014, bay 2", config: PLOVER },
+    { id: "wren", name: "Wren", kind: "test_dewar", location: "B-014, bench 3", config: WREN },
+  ]);
+  await db.insert(facilityRules).values({ version: 1, values: DEMO_RULES, changedBy: "u-ines" });
+  if (DEFAULT_TEMPLATES.length) {
+    await db.insert(procedureTemplates).values(DEFAULT_TEMPLATES.map((t) => ({ ...t, id: randomUUID(), version: 1, createdBy: "u-ines" })));
+  }
+  const all = withSignatures(demoHistory(now).map(toEntry));
+  // Written through the normal append path, as each author's tablet would have pushed them.
+  let i = 0;
+  while (i < all.length) {
+    const author = all[i]!.authorId;
+    let j = i;
+    while (j < all.length && all[j]!.authorId === author) j++;
+    const u = DEMO_USERS.find((x) => x.id === author)!;
+    const res = await appendEntries(db, u, all.slice(i, j));
+    if (res.rejected.length) throw new Error(`Demo seed rejected: ${JSON.stringify(res.rejected.slice(0, 3))}`);
+    i = j;
+  }
+  return true;
+}

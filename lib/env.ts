@@ -1,0 +1,26 @@
+// Environment variables, validated once. Everything else reads settings from here.
+import { z } from "zod";
+
+const envSchema = z.object({
+  RIMELOG_DATA_DIR: z.string().min(1).default("./.data/db"),
+  RIMELOG_KEY_DIR: z.string().min(1).default("./.data/keys"),
+  RIMELOG_STORAGE_DIR: z.string().min(1).default("./.data/files"),
+  RIMELOG_MAIL: z.enum(["fake", "smtp"]).default("fake"),
+  RIMELOG_SEED: z.enum(["demo", "none"]).default("demo"),
+  SMTP_URL: z.string().optional(),
+  MAIL_FROM: z.string().default("Rimelog <rimelog@larchmere.example>"),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+let cached: Env | undefined;
+export function env(): Env {
+  if (!cached) {
+    const parsed = envSchema.safeParse(process.env);
+    if (!parsed.success) {
+      throw new Error(`Bad environment: ${parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);
+    }
+    cached = parsed.data;
+  }
+  return cached;
+}

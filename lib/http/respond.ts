@@ -1,0 +1,57 @@
+// Mapping typed results and AppErrors to HTTP responses (Web Response, no framework import),
+// and the checks every state-changing route handler makes on its request.
+import { AppError } from "@/lib/errors";
+
+const NO_STORE = { "Cache-Control": "no-store" };
+
+export function json(body: unknown, status = 200): Response {
+  return Response.json(body, { status, headers: NO_STORE });
+}
+
+export function errorResponse(e: unknown): Response {
+  if (e instanceof AppError) {
+    return json({ error: { code: e.code, message: e.message, details: e.details ?? [] } }, e.status);
+  }
+  console.error("[rimelog] unexpected error", e);
+  return json({ error: { code: "internal", message: "Something went wrong on the server. Nothing was changed; try again." } }, 500);
+}
+
+/** Run a handler body and turn any thrown AppError into its response. */
+export async function handle(fn: () => Promise<Response>): Promise<Response> {
+  try {
+    return await fn();
+  } catch (e) {
+    return errorResponse(e);
+  }
+}
+
+/**
+ * CSRF defence for state changes: a JSON content type and, when the browser sends one, an
+ * Origin equal to the server's own. Returns the parsed body, bounded in bytes.
+ */
+export async function readJson(req: Request, maxBytes = 1_000_000): Promise<unknown> {
+  const type = req.headers.get("content-type") ?? "";
+  if (!type.toLowerCase().startsWith("application/json")) {
+    throw new AppError("unsupported", "request", "Send the request as application/json.");
+  }
+  const origin = req.headers.get("origin");
+  if (origin) {
+    const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
+    let originHost = "";
+    try {
+      originHost = new URL(origin).host;
+    } catch {
+      /* malformed origin: refused below */
+    }
+    if (!host || originHost !== host) throw new AppError("forbidden", "origin", "Cross-origin requests may not change data.");
+  }
+  const declared = Number(req.headers.get("content-length") ?? "0");
+  if (declared > maxBytes) throw new AppError("too_large", "request", `The request is ${declared} bytes; the limit is ${maxBytes} bytes. Send fewer entries at a time.`);
+  const text = await req.text();
+  if (text.length > maxBytes) throw new AppError("too_large", "request", `The request is over ${maxBytes} bytes. Send fewer entries at a time.`);
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw new AppError("bad_request", "request", "The request body is not valid JSON.");
+  }
+}

@@ -1,0 +1,163 @@
+// Log entries: the envelope every fact travels in, and one payload schema per entry kind.
+// The same schemas validate on the tablet (before the outbox), on the server (push) and in Dexie.
+import { z } from "zod";
+import { CRYOSTAT_STATES } from "./cryostat";
+import { UNITS } from "./units";
+
+const text = (max: number) => z.string().trim().min(1).max(max);
+const finite = z.number().refine(Number.isFinite, "must be a finite number");
+
+export const notePayload = z.object({ text: text(4000) });
+
+export const readingPayload = z.object({
+  quantity: text(80),
+  /** Thermometer stage key from the cryostat's config, when the reading belongs to one. */
+  stage: z.string().max(40).optional(),
+  value: finite,
+  unit: z.enum(UNITS),
+  comment: z.string().max(1000).optional(),
+});
+
+export const heliumLevelPayload = z.object({
+  percent: finite.min(0).max(100),
+  litres: finite.min(0).optional(),
+});
+
+export const fieldSettingPayload = z.object({
+  currentA: finite,
+  fieldT: finite,
+  persistent: z.boolean(),
+  rampRateTPerMin: finite.positive().optional(),
+  comment: z.string().max(1000).optional(),
+});
+
+export const statePayload = z.object({ state: z.enum(CRYOSTAT_STATES), comment: z.string().max(1000).optional() });
+
+export const handoverPayload = z.object({
+  summary: z.object({
+    state: z.enum(CRYOSTAT_STATES).optional(),
+    stages: z.array(z.object({ stage: z.string(), valueK: finite, at: z.string() })).default([]),
+    heliumPercent: finite.optional(),
+    heliumLitres: finite.optional(),
+    forecastDays: finite.optional(),
+    fieldT: finite.optional(),
+    persistent: z.boolean().optional(),
+    openRuns: z.array(z.string()).default([]),
+    openIssues: z.array(z.string()).default([]),
+  }),
+  note: z.string().max(4000),
+  toUserId: z.string().min(1).optional(),
+});
+
+export const transferPayload = z.object({
+  supplyDewar: text(40),
+  peoplePresent: z.array(z.string().min(1)).min(1),
+  ppeConfirmed: z.boolean(),
+  oxygenMonitorChecked: z.boolean(),
+  /** Lowest oxygen reading during the transfer (percent), if read. */
+  oxygenLowestPercent: finite.min(0).max(25).optional(),
+  levelBeforePercent: finite.min(0).max(100),
+  levelAfterPercent: finite.min(0).max(100),
+  pressureBeforeMbar: finite.optional(),
+  pressureAfterMbar: finite.optional(),
+  /** Litres taken from the supply, by level difference or by weight. */
+  suppliedLitres: finite.min(0),
+  suppliedBy: z.enum(["level", "weight"]),
+  supplyMassBeforeKg: finite.optional(),
+  supplyMassAfterKg: finite.optional(),
+  gainedLitres: finite.min(0),
+  durationMin: finite.min(0),
+  anomalies: z.string().max(2000).default(""),
+});
+
+export const quenchPayload = z.object({
+  at: z.string(),
+  fieldT: finite,
+  currentA: finite.optional(),
+  levelBeforePercent: finite.min(0).max(100).optional(),
+  levelAfterPercent: finite.min(0).max(100).optional(),
+  heliumLostLitres: finite.min(0).optional(),
+  oxygenLowestPercent: finite.min(0).max(25).optional(),
+  actions: z.string().max(4000),
+});
+
+export const incidentPayload = z.object({ title: text(200), description: z.string().max(4000), actions: z.string().max(4000) });
+
+export const SIGNATURE_MEANINGS = ["performed", "verified", "handed_over", "accepted", "audited"] as const;
+export type SignatureMeaning = (typeof SIGNATURE_MEANINGS)[number];
+
+export const signaturePayload = z.object({
+  signedEntryId: z.uuid(),
+  meaning: z.enum(SIGNATURE_MEANINGS),
+  signerName: text(120),
+  signerRole: z.enum(["technician", "researcher", "safety_officer", "facility_admin"]),
+  /** SHA-256 of the RFC 8785 canonical JSON of the signed record (see lib/sync/hash.ts). */
+  signedHash: z.string().regex(/^[0-9a-f]{64}$/),
+  /** Stylus image as a PNG data URL: the mark, not the signature itself. */
+  image: z.string().startsWith("data:image/png;base64,").max(400_000).optional(),
+});
+
+export const auditFindingPayload = z.object({
+  targetEntryId: z.uuid(),
+  verdict: z.enum(["acceptable", "needs_action"]),
+  findings: z.string().max(4000),
+  flags: z.array(z.string()).default([]),
+});
+
+/** Payload schema per entry kind. Feature modules add their kinds here. */
+export const payloadSchemas = {
+  note: notePayload,
+  reading: readingPayload,
+  "helium.level": heliumLevelPayload,
+  "field.setting": fieldSettingPayload,
+  state: statePayload,
+  handover: handoverPayload,
+  transfer: transferPayload,
+  quench: quenchPayload,
+  incident: incidentPayload,
+  signature: signaturePayload,
+  "audit.finding": auditFindingPayload,
+} as const;
+export type EntryKind = keyof typeof payloadSchemas;
+export const ENTRY_KINDS = Object.keys(payloadSchemas) as EntryKind[];
+
+/** What a tablet sends: the entry as it was written locally. */
+export const entryInputSchema = z.object({
+  id: z.uuid(),
+  cryostatId: z.string().min(1).max(60).nullable(),
+  runId: z.uuid().nullable().default(null),
+  kind: z.enum(ENTRY_KINDS as [EntryKind, ...EntryKind[]]),
+  payload: z.record(z.string(), z.unknown()),
+  authorId: z.string().min(1).max(60),
+  deviceId: z.string().min(1).max(80),
+  recordedAt: z.iso
+    .datetime()
+    .refine((s) => new Date(s).toISOString() === s, "must be a UTC time as toISOString() writes it"),
+  supersedes: z.uuid().nullable().default(null),
+  reason: z.string().max(1000).nullable().default(null),
+});
+export type EntryInput = z.infer<typeof entryInputSchema>;
+
+/** An entry as stored by the server. */
+export type StoredEntry = EntryInput & { seq: number; receivedAt: string; prevHash: string; hash: string; chain: string };
+
+/**
+ * Validate the envelope and the kind's payload together. Returns the parsed entry or a list of
+ * human-readable problems (path: message).
+ */
+export function parseEntry(raw: unknown): { ok: true; entry: EntryInput } | { ok: false; problems: string[] } {
+  const env = entryInputSchema.safeParse(raw);
+  if (!env.success) return { ok: false, problems: formatIssues(env.error) };
+  const schema = payloadSchemas[env.data.kind];
+  const body = schema.safeParse(env.data.payload);
+  if (!body.success) return { ok: false, problems: formatIssues(body.error, "payload") };
+  if (env.data.supersedes && !env.data.reason) return { ok: false, problems: ["reason: a correction needs a reason"] };
+  return { ok: true, entry: { ...env.data, payload: body.data as Record<string, unknown> } };
+}
+
+export function formatIssues(error: z.ZodError, prefix?: string): string[] {
+  return error.issues.map((i) => {
+    const path = [prefix, ...i.path.map(String)].filter(Boolean).join(".");
+    return path ? `${path}: ${i.message}` : i.message;
+  });
+}

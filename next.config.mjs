@@ -1,0 +1,58 @@
+// Next.js configuration: PGlite stays a server external (its wasm is traced at run time),
+// Serwist compiles sw/sw.ts into public/sw.js, and security headers are set for every route.
+import { randomUUID } from "node:crypto";
+import withSerwistInit from "@serwist/next";
+
+// Pages a technician needs with no network; they are precached with the build's revision.
+const revision = process.env.RIMELOG_BUILD_ID ?? randomUUID();
+const offlinePages = ["/", "/signin", "/offline", "/calc", "/manifest.webmanifest"];
+
+const withSerwist = withSerwistInit({
+  swSrc: "sw/sw.ts",
+  swDest: "public/sw.js",
+  register: false,
+  disable: process.env.NODE_ENV === "development",
+  additionalPrecacheEntries: offlinePages.map((url) => ({ url, revision })),
+});
+
+const csp = [
+  "default-src 'self'",
+  "script-src 'self' 'unsafe-inline'",
+  "style-src 'self' 'unsafe-inline'",
+  "img-src 'self' data: blob:",
+  "font-src 'self'",
+  "connect-src 'self'",
+  "worker-src 'self'",
+  "manifest-src 'self'",
+  "object-src 'none'",
+  "base-uri 'none'",
+  "frame-ancestors 'none'",
+  "form-action 'self'",
+].join("; ");
+
+/** @type {import('next').NextConfig} */
+const nextConfig = {
+  distDir: process.env.NEXT_DIST_DIR || ".next",
+  serverExternalPackages: ["@electric-sql/pglite"],
+  outputFileTracingIncludes: { "/**": ["./db/migrations/**/*"] },
+  poweredByHeader: false,
+  async headers() {
+    return [
+      {
+        source: "/:path*",
+        headers: [
+          { key: "Content-Security-Policy", value: csp },
+          { key: "X-Content-Type-Options", value: "nosniff" },
+          { key: "Referrer-Policy", value: "same-origin" },
+          { key: "Permissions-Policy", value: "camera=(self), microphone=(), geolocation=()" },
+        ],
+      },
+      {
+        source: "/api/:path*",
+        headers: [{ key: "Cache-Control", value: "no-store" }],
+      },
+    ];
+  },
+};
+
+export default withSerwist(nextConfig);
