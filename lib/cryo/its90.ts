@@ -90,13 +90,18 @@ function checkPressure(isotope: string, pPa: number, range: VapourPressureRange)
   });
 }
 
-function checkTemperature(isotope: string, tK: number, range: VapourPressureRange): void {
+// A forward result at a range end can land 1e-16 K outside it by rounding; a nanokelvin is far
+// below the scale's own uncertainty, so such values are taken as the end itself.
+const END_SLACK_K = 1e-9;
+
+function checkTemperature(isotope: string, tK: number, range: VapourPressureRange): number {
   requireInRange(`${isotope} temperature`, tK, {
-    min: range.temperatureMinK,
-    max: range.temperatureMaxK,
+    min: range.temperatureMinK - END_SLACK_K,
+    max: range.temperatureMaxK + END_SLACK_K,
     unit: "K",
     text: rangeText(range),
   });
+  return Math.min(Math.max(tK, range.temperatureMinK), range.temperatureMaxK);
 }
 
 /** T90 in K from the saturated vapour pressure of 4He (1.25–5.0 K). */
@@ -114,14 +119,14 @@ export function he3TemperatureFromPressure(pressurePa: number): number {
 
 /** Saturated vapour pressure of 4He in Pa at T90 (1.25–5.0 K), by inverting the scale. */
 export function he4PressureFromTemperature(temperatureK: number): number {
-  checkTemperature("4He", temperatureK, HE4_RANGE);
-  return temperatureK <= HE4_LAMBDA_TEMPERATURE_K
-    ? branchPressurePa(HE4_LOWER, temperatureK, ...HE4_LOWER_BRACKET_PA)
-    : branchPressurePa(HE4_UPPER, temperatureK, ...HE4_UPPER_BRACKET_PA);
+  const tK = checkTemperature("4He", temperatureK, HE4_RANGE);
+  return tK <= HE4_LAMBDA_TEMPERATURE_K
+    ? branchPressurePa(HE4_LOWER, tK, ...HE4_LOWER_BRACKET_PA)
+    : branchPressurePa(HE4_UPPER, tK, ...HE4_UPPER_BRACKET_PA);
 }
 
 /** Saturated vapour pressure of 3He in Pa at T90 (0.65–3.2 K), by inverting the scale. */
 export function he3PressureFromTemperature(temperatureK: number): number {
-  checkTemperature("3He", temperatureK, HE3_RANGE);
-  return branchPressurePa(HE3, temperatureK, ...HE3_BRACKET_PA);
+  const tK = checkTemperature("3He", temperatureK, HE3_RANGE);
+  return branchPressurePa(HE3, tK, ...HE3_BRACKET_PA);
 }
