@@ -4,7 +4,7 @@
 export * from "./calibration";
 export * from "./constants";
 export * from "./cryogens";
-export * from "./errors";
+export { CryoInputError } from "./errors";
 export * from "./gas";
 export * from "./helium";
 export * from "./its90";

@@ -1,0 +1,190 @@
+// Liquid-helium bookkeeping against the CoolProp values in cryogens-eos.json ([eos]), the
+// REFERENCES.md table, simple-statistics (linear regression) and mathjs (matrix inverse for the
+// slope's standard error). Rules of thumb are marked as common practice.
+import * as math from "mathjs";
+import * as ss from "simple-statistics";
+import { describe, expect, it } from "vitest";
+import {
+  boilOffFromHeatLoad,
+  boilOffRate,
+  CryoInputError,
+  forecastMinimumLevel,
+  gasLitresFromLiquid,
+  HELIUM_LIQUID_DENSITY_KG_PER_L,
+  type LevelReading,
+  litresFromLevel,
+  litresFromMass,
+  transferEfficiency,
+} from "@/lib/cryo";
+
+const DAY_MS = 86_400_000;
+const T0 = Date.UTC(2025, 2, 3, 8, 0, 0);
+
+describe("litresFromLevel", () => {
+  it("linear calibration: offset + litres per %", () => {
+    expect(litresFromLevel(50, { kind: "linear", litresPerPercent: 0.9, offsetLitres: 2 })).toBeCloseTo(47, 12);
+  });
+
+  it("table calibration interpolates linearly between rows (neck of the Plover demo reservoir)", () => {
+    const cal = {
+      kind: "table" as const,
+      points: [
+        { percent: 0, litres: 0 },
+        { percent: 80, litres: 80 },
+        { percent: 100, litres: 90 },
+      ],
+    };
+    expect(litresFromLevel(90, cal)).toBeCloseTo(85, 12);
+    expect(litresFromLevel(40, cal)).toBeCloseTo(40, 12);
+    expect(() => litresFromLevel(101, cal)).toThrow(/above the level table's range \(0–100 %\)/);
+  });
+
+  it("refuses impossible readings and broken tables", () => {
+    const linear = { kind: "linear" as const, litresPerPercent: 1, offsetLitres: 0 };
+    expect(() => litresFromLevel(-1, linear)).toThrow(/below the level meter's range \(0–100 %\)/);
+    expect(() => litresFromLevel(Number.NaN, linear)).toThrow(RangeError);
+    const bad = { kind: "table" as const, points: [{ percent: 0, litres: 0 }, { percent: 0, litres: 5 }] };
+    expect(() => litresFromLevel(0, bad)).toThrow(CryoInputError);
+  });
+});
+
+describe("litresFromMass", () => {
+  it("uses the liquid density at NBP, 124.67 kg/m³ (cryogens-eos.json [eos])", () => {
+    expect(HELIUM_LIQUID_DENSITY_KG_PER_L).toBeCloseTo(0.12467, 5);
+    expect(litresFromMass(12.467)).toBeCloseTo(100, 2);
+  });
+
+  it("a density override (≈ 0.125 kg/L, common practice) is honoured", () => {
+    expect(litresFromMass(25, 0.125)).toBeCloseTo(200, 12);
+    expect(() => litresFromMass(-1)).toThrow(RangeError);
+    expect(() => litresFromMass(1, 0)).toThrow(RangeError);
+  });
+});
+
+describe("gasLitresFromLiquid", () => {
+  it.each([
+    ["15C_1atm", 736.8],
+    ["20C_1atm", 749.6],
+  ] as const)("1 L liquid → gas at %s 1 : %d (REFERENCES.md table [eos])", (ref, ratio) => {
+    const gas = gasLitresFromLiquid(1, ref);
+    expect(gas.gasLitres).toBeCloseTo(ratio, 1);
+    expect(gas.reference).toBe(ref);
+  });
+
+  it("the ratio rises with the reference temperature; helium 1:745–757 is often quoted (common practice)", () => {
+    const r = ["0C_1atm", "15C_1atm", "20C_1atm", "21.11C_1atm", "25C_1atm"] as const;
+    const ratios = r.map((ref) => gasLitresFromLiquid(1, ref).expansionRatio);
+    expect([...ratios].sort((a, b) => a - b)).toEqual(ratios);
+    expect(gasLitresFromLiquid(1, "21.11C_1atm").expansionRatio).toBeGreaterThan(745);
+    expect(gasLitresFromLiquid(1, "21.11C_1atm").expansionRatio).toBeLessThan(757);
+  });
+
+  it("nitrogen 1 : 692.0 at 20 °C (REFERENCES.md [eos])", () => {
+    expect(gasLitresFromLiquid(10, "20C_1atm", "nitrogen").gasLitres).toBeCloseTo(6920, -1);
+  });
+
+  it("refuses an unknown reference condition", () => {
+    expect(() => gasLitresFromLiquid(1, "STP" as never)).toThrow(/known: 0C_1atm/);
+  });
+});
+
+/** Readings every 8 h on a straight line with a small, fixed ripple (meter noise). */
+function history(ratePerDay: number, startLitres: number, n: number): LevelReading[] {
+  return Array.from({ length: n }, (_, i) => ({
+    timeMs: T0 + i * (DAY_MS / 3),
+    litres: startLitres - (ratePerDay * i) / 3 + 0.2 * Math.sin(i * 1.7),
+  }));
+}
+
+describe("boilOffRate", () => {
+  const readings = history(5, 80, 12);
+  const fit = boilOffRate(readings);
+
+  it("slope agrees with simple-statistics linearRegression", () => {
+    const days = readings.map((r) => [(r.timeMs - T0) / DAY_MS, r.litres]);
+    const reference = ss.linearRegression(days);
+    expect(fit.litresPerDay).toBeCloseTo(-reference.m, 10);
+    expect(fit.litresPerDay).toBeGreaterThan(4.5);
+    expect(fit.litresPerDay).toBeLessThan(5.5);
+  });
+
+  it("standard error agrees with s²(XᵀX)⁻¹ computed by mathjs", () => {
+    const x = readings.map((r) => [1, (r.timeMs - T0) / DAY_MS]);
+    const y = readings.map((r) => r.litres);
+    const xtxInv = math.inv(math.multiply(math.transpose(x), x)) as number[][];
+    const beta = math.multiply(xtxInv, math.multiply(math.transpose(x), y)) as number[];
+    const residuals = y.map((v, i) => v - ((beta[0] ?? 0) + (beta[1] ?? 0) * (x[i]?.[1] ?? 0)));
+    const s2 = residuals.reduce((s, r) => s + r * r, 0) / (y.length - 2);
+    expect(fit.standardErrorLitresPerDay).toBeCloseTo(Math.sqrt(s2 * (xtxInv[1]?.[1] ?? NaN)), 10);
+  });
+
+  it("needs at least 3 readings", () => {
+    expect(() => boilOffRate(readings.slice(0, 2))).toThrow(/at least 3 readings/);
+  });
+
+  it("refuses a history that contains a transfer (a rise), naming the reading", () => {
+    const withTransfer = [...readings.slice(0, 4), { timeMs: T0 + 2 * DAY_MS, litres: 85 }, ...readings.slice(7)];
+    expect(() => boilOffRate(withTransfer)).toThrow(/Reading 5 rises by .* a transfer lies inside/);
+  });
+
+  it("refuses readings out of time order", () => {
+    expect(() => boilOffRate([readings[1]!, readings[0]!, readings[2]!])).toThrow(/not later/);
+  });
+});
+
+describe("forecastMinimumLevel", () => {
+  it("a clean line at 5 L/day from 80 L reaches 25 L after 11 days", () => {
+    const clean = Array.from({ length: 5 }, (_, i) => ({ timeMs: T0 + i * DAY_MS, litres: 80 - 5 * i + (i % 2) * 1e-9 }));
+    const f = forecastMinimumLevel(boilOffRate(clean), 25, T0);
+    expect(f.forecast).toBe(true);
+    if (!f.forecast) return;
+    expect(f.daysLeft).toBeCloseTo(11, 6);
+    expect(f.reachDate.getTime()).toBeCloseTo(T0 + 11 * DAY_MS, -3);
+  });
+
+  it("the band widens with noise and brackets the central date", () => {
+    const f = forecastMinimumLevel(boilOffRate(history(5, 80, 12)), 25, T0 + 4 * DAY_MS, { coverageFactor: 2 });
+    if (!f.forecast) throw new Error("expected a forecast");
+    expect(f.earliestMs).toBeLessThan(f.reachMs);
+    expect(f.latestMs).not.toBeNull();
+    expect(f.latestMs!).toBeGreaterThan(f.reachMs);
+    expect(f.daysLeftEarliest).toBeLessThan(f.daysLeft);
+  });
+
+  it("no forecast when the level is not falling", () => {
+    const flat = [0, 1, 2, 3].map((i) => ({ timeMs: T0 + i * DAY_MS, litres: 50 + 0.1 * i }));
+    expect(forecastMinimumLevel(boilOffRate(flat), 25, T0).forecast).toBe(false);
+  });
+});
+
+describe("transferEfficiency", () => {
+  it("60 L gained from 90 L taken → 66.7 % (losses of 20–40 % are usual, common practice)", () => {
+    const e = transferEfficiency(60, 90);
+    expect(e.efficiency).toBeCloseTo(2 / 3, 12);
+    expect(e.lossLitres).toBe(30);
+    expect(e.exceedsSupply).toBe(false);
+  });
+
+  it("flags a gain above the taken volume and refuses taken ≤ 0", () => {
+    expect(transferEfficiency(50, 40).exceedsSupply).toBe(true);
+    expect(() => transferEfficiency(10, 0)).toThrow(/greater than 0/);
+  });
+});
+
+describe("boilOffFromHeatLoad", () => {
+  it("1 W → 1.40 L/h of liquid helium ([eos]); the older rule of thumb is 1.38 L/h (common practice)", () => {
+    const { litresPerHour } = boilOffFromHeatLoad(1);
+    expect(litresPerHour).toBeCloseTo(1.4, 2);
+    expect(Math.abs(litresPerHour / 1.38 - 1)).toBeLessThan(0.02);
+  });
+
+  it("liquid nitrogen ≈ 0.0224 L/h per W ([eos])", () => {
+    expect(boilOffFromHeatLoad(1, "nitrogen").litresPerHour).toBeCloseTo(0.0224, 4);
+  });
+
+  it("agrees with Q/(ρL) converted by mathjs units", () => {
+    const perW = math.unit(1 / (124.6692678654977 * 20564.394565990526), "m^3/J");
+    const lPerH = math.multiply(math.multiply(perW, math.unit(1, "W")), math.unit(1, "h")) as math.Unit;
+    expect(boilOffFromHeatLoad(1).litresPerHour).toBeCloseTo(lPerH.toNumber("L"), 10);
+  });
+});
