@@ -2,7 +2,7 @@
 // cryostat), reading a cryostat's logbook page, and pulling what changed since a cursor.
 import { and, desc, eq, gt, inArray, lt, notInArray, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { chainHeads, cryostats, devices, entries } from "@/db/schema";
+import { chainHeads, cryostats, devices, entries, users } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { mayRead, mayWrite, maySign, readableKindsExcluded } from "@/lib/auth/permissions";
 import type { EntryInput } from "@/lib/schemas/entry";
@@ -158,7 +158,9 @@ export async function listCryostatEntries(
     .limit(limit + 1);
   const page = rows.slice(0, limit).map(toStored);
   const last = page.at(-1);
-  return { entries: page, nextCursor: rows.length > limit && last ? last.seq : null };
+  const authorIds = [...new Set(page.map((e) => e.authorId))];
+  const names = authorIds.length ? await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, authorIds)) : [];
+  return { entries: page, names: Object.fromEntries(names.map((n) => [n.id, n.name])), nextCursor: rows.length > limit && last ? last.seq : null };
 }
 
 /** Entries after a cursor, oldest first, filtered to what the role may read. */

@@ -1,0 +1,8 @@
+import { CryostatLogbook } from "@/components/logbook/cryostat-logbook";
+
+export const metadata = { title: "Logbook" };
+
+export default async function CryostatPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  return <CryostatLogbook cryostatId={id} />;
+}

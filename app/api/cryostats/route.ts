@@ -1,0 +1,13 @@
+import { getDb } from "@/db";
+import { roomOverview } from "@/db/queries/cryostats";
+import { requireUser } from "@/lib/auth/require";
+import { handle, json } from "@/lib/http/respond";
+
+export const dynamic = "force-dynamic";
+
+export async function GET() {
+  return handle(async () => {
+    await requireUser();
+    return json({ cryostats: await roomOverview(await getDb()) });
+  });
+}

@@ -1,0 +1,107 @@
+"use client";
+// The facility admin's list of people with their roles, and the form to add one.
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useCallback, useEffect, useState } from "react";
+import { useForm } from "react-hook-form";
+import { Button } from "@/components/ui/button";
+import { SelectField, TextField } from "@/components/ui/field";
+import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import type { AdminUser } from "@/db/queries/users";
+import { ROLE_LABEL } from "@/lib/auth/permissions";
+import { newUserSchema, type NewUser } from "@/lib/schemas/user";
+
+export function UsersAdmin() {
+  const [users, setUsers] = useState<AdminUser[] | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const refresh = useCallback(async () => {
+    const r = await fetch("/api/users", { cache: "no-store" });
+    const body = await r.json();
+    if (!r.ok) setError(body?.error?.message ?? "Could not load the people list.");
+    else setUsers(body.users);
+  }, []);
+  useEffect(() => {
+    void refresh().catch(() => setError("No connection to the server."));
+  }, [refresh]);
+
+  return (
+    <div className="grid gap-4 lg:grid-cols-[1fr_22rem]">
+      <Panel className="p-0">
+        {error && <Notice tone="danger" title={error} role="alert" />}
+        {!users && !error && <Loading />}
+        {users && (
+          <table className="w-full text-left">
+            <caption className="sr-only">People with access to Rimelog</caption>
+            <thead>
+              <tr className="text-sm text-muted">
+                <th className="px-5 py-3">Name</th>
+                <th className="px-5 py-3">Email</th>
+                <th className="px-5 py-3">Role</th>
+              </tr>
+            </thead>
+            <tbody>
+              {users.map((u) => (
+                <tr key={u.id} className="border-t border-line">
+                  <td className="px-5 py-3 font-semibold">{u.name}</td>
+                  <td className="px-5 py-3">{u.email}</td>
+                  <td className="px-5 py-3">
+                    <Tag tone={u.role === "facility_admin" ? "accent" : "neutral"}>{ROLE_LABEL[u.role]}</Tag>
+                    {!u.active && <Tag tone="danger">disabled</Tag>}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </Panel>
+      <AddUserForm onAdded={refresh} />
+    </div>
+  );
+}
+
+function AddUserForm({ onAdded }: { onAdded: () => Promise<void> }) {
+  const [message, setMessage] = useState<{ tone: "ok" | "danger"; text: string } | null>(null);
+  const {
+    register,
+    handleSubmit,
+    reset,
+    formState: { errors, isSubmitting },
+  } = useForm<NewUser>({ resolver: zodResolver(newUserSchema), defaultValues: { role: "technician" } });
+
+  const submit = handleSubmit(async (data) => {
+    setMessage(null);
+    try {
+      const r = await fetch("/api/users", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(data) });
+      const body = await r.json();
+      if (!r.ok) {
+        setMessage({ tone: "danger", text: [body.error?.message, ...(body.error?.details ?? [])].join(" ") });
+        return;
+      }
+      setMessage({ tone: "ok", text: `${body.user.name} can now sign in.` });
+      reset({ role: data.role, name: "", email: "", password: "" });
+      await onAdded();
+    } catch {
+      setMessage({ tone: "danger", text: "No connection to the server: the person was not added." });
+    }
+  });
+
+  return (
+    <Panel>
+      <h2 className="mb-3 text-xl font-bold">Add a person</h2>
+      <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
+        <TextField label="Full name" {...register("name")} error={errors.name?.message} autoComplete="off" />
+        <TextField label="Email address" type="email" {...register("email")} error={errors.email?.message} autoComplete="off" />
+        <SelectField
+          label="Role"
+          {...register("role")}
+          error={errors.role?.message}
+          options={Object.entries(ROLE_LABEL).map(([value, label]) => ({ value, label }))}
+        />
+        <TextField label="First password" type="password" {...register("password")} error={errors.password?.message} hint="At least 10 characters; they can change it later." autoComplete="new-password" />
+        {message && <Notice tone={message.tone} title={message.text} role={message.tone === "danger" ? "alert" : "status"} />}
+        <Button type="submit" variant="primary" disabled={isSubmitting}>
+          {isSubmitting ? "Adding…" : "Add person"}
+        </Button>
+      </form>
+    </Panel>
+  );
+}

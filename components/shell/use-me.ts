@@ -1,0 +1,54 @@
+"use client";
+// The signed-in user for the client. The page HTML is the same for everyone (so the service
+// worker can cache it); who is signed in comes from /api/me, remembered for offline use.
+import { useEffect, useState } from "react";
+import type { SessionUser } from "@/lib/auth/session-user";
+
+const KEY = "rimelog-me";
+
+function remembered(): SessionUser | null {
+  try {
+    const raw = localStorage.getItem(KEY);
+    return raw ? (JSON.parse(raw) as SessionUser) : null;
+  } catch {
+    return null;
+  }
+}
+
+export function forgetMe(): void {
+  try {
+    localStorage.removeItem(KEY);
+  } catch {
+    /* nothing stored */
+  }
+}
+
+export function useMe(): { me: SessionUser | null; loading: boolean } {
+  const [me, setMe] = useState<SessionUser | null>(null);
+  const [loading, setLoading] = useState(true);
+  useEffect(() => {
+    setMe(remembered());
+    let cancelled = false;
+    fetch("/api/me", { cache: "no-store" })
+      .then(async (r) => {
+        if (cancelled) return;
+        if (r.ok) {
+          const { user } = (await r.json()) as { user: SessionUser };
+          setMe(user);
+          localStorage.setItem(KEY, JSON.stringify(user));
+        } else if (r.status === 401) {
+          forgetMe();
+          setMe(null);
+          window.location.assign(`/signin?next=${encodeURIComponent(location.pathname)}`);
+        }
+      })
+      .catch(() => {
+        /* offline: keep the remembered user */
+      })
+      .finally(() => !cancelled && setLoading(false));
+    return () => {
+      cancelled = true;
+    };
+  }, []);
+  return { me, loading };
+}

@@ -1,0 +1,55 @@
+// Users: look-ups for sign-in and sessions, the admin's list, adding a person, and the sign-in
+// attempts used for throttling and the audit trail.
+import { and, asc, count, eq, gt } from "drizzle-orm";
+import type { Db } from "@/db/client";
+import { signInAttempts, users, type Role, type User } from "@/db/schema";
+
+export type PublicUser = Pick<User, "id" | "name" | "role" | "active">;
+export type AdminUser = PublicUser & Pick<User, "email" | "createdAt">;
+
+export async function findUserByEmail(db: Db, { email }: { email: string }): Promise<User | undefined> {
+  const [u] = await db.select().from(users).where(eq(users.email, email.trim().toLowerCase()));
+  return u;
+}
+
+export async function getUser(db: Db, { id }: { id: string }): Promise<User | undefined> {
+  const [u] = await db.select().from(users).where(eq(users.id, id));
+  return u;
+}
+
+/** Everyone's name and role (what any signed-in user may see). */
+export async function listPublicUsers(db: Db): Promise<PublicUser[]> {
+  return db.select({ id: users.id, name: users.name, role: users.role, active: users.active }).from(users).orderBy(asc(users.name));
+}
+
+export async function listUsersForAdmin(db: Db): Promise<AdminUser[]> {
+  return db
+    .select({ id: users.id, name: users.name, role: users.role, active: users.active, email: users.email, createdAt: users.createdAt })
+    .from(users)
+    .orderBy(asc(users.name));
+}
+
+export async function createUser(
+  db: Db,
+  { id, email, name, role, passwordHash }: { id: string; email: string; name: string; role: Role; passwordHash: string },
+): Promise<{ ok: true; user: AdminUser } | { ok: false; reason: "email_taken" }> {
+  const [row] = await db
+    .insert(users)
+    .values({ id, email: email.trim().toLowerCase(), name, role, passwordHash })
+    .onConflictDoNothing({ target: users.email })
+    .returning();
+  if (!row) return { ok: false, reason: "email_taken" };
+  return { ok: true, user: { id: row.id, name: row.name, role: row.role, active: row.active, email: row.email, createdAt: row.createdAt } };
+}
+
+export async function recordSignInAttempt(db: Db, { email, ok }: { email: string; ok: boolean }): Promise<void> {
+  await db.insert(signInAttempts).values({ email: email.trim().toLowerCase(), ok });
+}
+
+export async function recentFailures(db: Db, { email, sinceMs }: { email: string; sinceMs: number }): Promise<number> {
+  const [r] = await db
+    .select({ n: count() })
+    .from(signInAttempts)
+    .where(and(eq(signInAttempts.email, email.trim().toLowerCase()), eq(signInAttempts.ok, false), gt(signInAttempts.at, new Date(Date.now() - sinceMs))));
+  return r?.n ?? 0;
+}
