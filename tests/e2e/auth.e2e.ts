@@ -60,6 +60,7 @@ describe("signing in", () => {
     await form.submit(DEMO_USERS.tomasz.email, "warm-hall-wrong");
     await form.alert.waitFor({ state: "visible" });
     expect(await form.alert.innerText()).toMatch(/did not match/);
+    await screenshot(page, "signin-wrong-password");
     expect(new URL(page.url()).pathname).toBe("/signin");
     // Still signed out: the API sees no session.
     const response = await page.request.get("/api/users");
@@ -82,6 +83,7 @@ describe("people and roles (admin only)", () => {
     await admin.goto();
     await admin.notAllowedHeading.waitFor({ state: "visible" });
     expect(await admin.heading.count()).toBe(0);
+    await screenshot(page, "admin-not-allowed-technician");
   });
 
   it("shows the facility admin the people and roles page", async () => {
@@ -90,6 +92,7 @@ describe("people and roles (admin only)", () => {
     await admin.goto();
     await admin.heading.waitFor({ state: "visible" });
     expect(await admin.notAllowedHeading.count()).toBe(0);
+    await screenshot(page, "admin-people-and-roles");
   });
 
   it("answers GET /api/users with 401 when nobody is signed in", async () => {
@@ -116,6 +119,8 @@ describe("themes", () => {
   async function lightThenDim(user: DemoUser, label: string): Promise<void> {
     const overview = await signIn(page, user.email);
     const header = new AppHeader(page);
+    // Screenshots are for people to judge the real screen, so wait for the room to be filled in.
+    for (const name of CRYOSTATS) await overview.cryostat(name).waitFor({ state: "visible" });
     if ((await header.theme()) === "dim") await header.themeToggle.click();
     await expect.poll(() => header.theme()).not.toBe("dim");
     await screenshot(page, `overview-${label}-light`);
@@ -127,6 +132,7 @@ describe("themes", () => {
     await page.reload();
     await overview.heading.waitFor({ state: "visible" });
     await expect.poll(() => header.theme()).toBe("dim");
+    for (const name of CRYOSTATS) await overview.cryostat(name).waitFor({ state: "visible" });
     await screenshot(page, `overview-${label}-dim`);
 
     await header.themeToggle.click();

@@ -36,7 +36,8 @@ export default async function setup(project: TestProject): Promise<() => Promise
   let server: RunningServer | undefined;
   try {
     server = await startServer(ROOT);
-    await waitForHealth(server);
+    // First start migrates and seeds the demo lab; allow more on a slow machine via the env.
+    await waitForHealth(server, Number(process.env.E2E_HEALTH_TIMEOUT_MS) || 60_000);
   } catch (error) {
     if (server) await stopServer(server);
     throw error;
