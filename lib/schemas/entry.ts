@@ -2,6 +2,7 @@
 // The same schemas validate on the tablet (before the outbox), on the server (push) and in Dexie.
 import { z } from "zod";
 import { CRYOSTAT_STATES } from "./cryostat";
+import { runAbortPayload, runCompletePayload, runStartPayload, runStepPayload } from "./run";
 import { UNITS } from "./units";
 
 const text = (max: number) => z.string().trim().min(1).max(max);
@@ -95,6 +96,10 @@ export const signaturePayload = z.object({
   signedHash: z.string().regex(/^[0-9a-f]{64}$/),
   /** Stylus image as a PNG data URL: the mark, not the signature itself. */
   image: z.string().startsWith("data:image/png;base64,").max(400_000).optional(),
+  /** How the signer proved who they are just before signing (lib/signing): never the image alone. */
+  confirmedBy: z.enum(["pin", "password"]).optional(),
+  /** HMAC proof of that confirmation, re-verified by the server (lib/signing/proof.ts). */
+  confirmProof: z.string().regex(/^[0-9a-f]{64}$/).optional(),
 });
 
 export const auditFindingPayload = z.object({
@@ -117,6 +122,10 @@ export const payloadSchemas = {
   incident: incidentPayload,
   signature: signaturePayload,
   "audit.finding": auditFindingPayload,
+  "run.start": runStartPayload,
+  "run.step": runStepPayload,
+  "run.abort": runAbortPayload,
+  "run.complete": runCompletePayload,
 } as const;
 export type EntryKind = keyof typeof payloadSchemas;
 export const ENTRY_KINDS = Object.keys(payloadSchemas) as EntryKind[];

@@ -1,0 +1,58 @@
+// Entry kinds of a procedure run: start (pins the template version), one entry per step action,
+// abort and completion. A run's state is never stored on the tablet: it is derived from these
+// entries (lib/procedures/state.ts), so two tablets writing to one run both keep their entries.
+import { z } from "zod";
+import { UNITS } from "./units";
+
+const finite = z.number().refine(Number.isFinite, "must be a finite number");
+const stepId = z.string().min(1).max(60);
+
+export const runStartPayload = z.object({
+  templateId: z.uuid(),
+  templateKey: z.string().min(1).max(60),
+  templateVersion: z.number().int().positive(),
+  title: z.string().trim().min(1).max(200),
+});
+
+/** One action on one step. `kind` repeats the template step's kind so the record reads on its own. */
+export const runStepPayload = z.discriminatedUnion("kind", [
+  z.object({
+    stepId,
+    kind: z.literal("check"),
+    /** The second person present, for steps the template marks "requires a second person". */
+    secondPersonId: z.string().min(1).max(60).optional(),
+    comment: z.string().max(1000).optional(),
+  }),
+  z.object({
+    stepId,
+    kind: z.literal("reading"),
+    quantity: z.string().min(1).max(80),
+    value: finite,
+    unit: z.enum(UNITS),
+    /** Set by the tablet against the pinned template's range; the server re-checks it. */
+    outOfRange: z.boolean(),
+    comment: z.string().max(1000).optional(),
+  }),
+  z.object({ stepId, kind: z.literal("note"), text: z.string().trim().min(1).max(4000) }),
+  z.object({
+    stepId,
+    kind: z.literal("photo"),
+    attachmentId: z.uuid(),
+    caption: z.string().max(400).optional(),
+  }),
+  /** The caution text was shown and read. */
+  z.object({ stepId, kind: z.literal("caution"), acknowledged: z.literal(true) }),
+  /** A hold point released: the record a signature of the required role binds to. */
+  z.object({ stepId, kind: z.literal("hold"), statement: z.string().trim().min(1).max(600) }),
+]);
+export type RunStepPayload = z.infer<typeof runStepPayload>;
+
+export const runAbortPayload = z.object({ reason: z.string().trim().min(1).max(2000) });
+export const runCompletePayload = z.object({ comment: z.string().max(2000).optional() });
+
+export type RunStartPayload = z.infer<typeof runStartPayload>;
+export type RunAbortPayload = z.infer<typeof runAbortPayload>;
+export type RunCompletePayload = z.infer<typeof runCompletePayload>;
+
+export const RUN_KINDS = ["run.start", "run.step", "run.abort", "run.complete"] as const;
+export type RunKind = (typeof RUN_KINDS)[number];
