@@ -27,6 +27,11 @@ export const WRITE_KINDS: Record<EntryKind, readonly Role[]> = {
   incident: FIELD_ROLES,
   signature: FIELD_ROLES,
   "audit.finding": ["safety_officer"],
+  // Procedure runs: the people who run the fridge, and the safety officer for hold points.
+  "run.start": ["technician", "researcher"],
+  "run.step": ["technician", "researcher", "safety_officer", "facility_admin"],
+  "run.abort": ["technician", "researcher", "facility_admin"],
+  "run.complete": ["technician", "researcher"],
 };
 
 /** Which roles may read each entry kind (anything not listed: everyone signed in). */
