@@ -44,6 +44,10 @@ const KIND_LABEL: Record<string, string> = {
   incident: "Incident",
   signature: "Signature",
   "audit.finding": "Audit finding",
+  "run.start": "Procedure started",
+  "run.step": "Procedure step",
+  "run.abort": "Procedure aborted",
+  "run.complete": "Procedure completed",
 };
 
 export function kindLabel(kind: string): string {
