@@ -1,0 +1,106 @@
+// The tablet store: the ONE Dexie class with every schema version, its row types, and how it is
+// opened (strict durability, so "saved" means on disk, not only in Chromium's write cache).
+// Reference data, local and pulled entries with their sync state, the outbox, photo blobs, and
+// sync metadata (device id, pull cursor, last success, the offline session) all live here.
+import Dexie, { type DexieOptions, type Table } from "dexie";
+import type { SessionUser } from "@/lib/auth/session-user";
+import type { EntryInput } from "@/lib/schemas/entry";
+
+export type SyncState = "pending" | "synced" | "rejected";
+export type Rejection = { code: string; message: string; at: string };
+
+/** An entry on the tablet: what its author wrote, plus what the server added once it arrived. */
+export type StoredLocalEntry = EntryInput & {
+  sync: SyncState;
+  /** Server order and chain link, null until the server has acknowledged the entry. */
+  seq: number | null;
+  hash: string | null;
+  prevHash: string | null;
+  receivedAt: string | null;
+  /** Why the server refused it (kept on the tablet and shown; never dropped silently). */
+  rejection: Rejection | null;
+};
+
+/** One unsent entry. Rows leave the outbox only when the server has answered for the entry (S3). */
+export type OutboxRow = {
+  n?: number; // auto-increment: the order of writing on this tablet, which is also the push order
+  entryId: string;
+  authorId: string;
+  queuedAt: string;
+  bytes: number;
+};
+
+export type AttachmentState = "pending" | "uploaded" | "rejected";
+export type LocalAttachment = {
+  id: string;
+  blob: Blob;
+  fileName: string;
+  mime: string;
+  bytes: number;
+  authorId: string;
+  createdAt: string;
+  state: AttachmentState;
+  rejection: Rejection | null;
+};
+
+/** Reference data rows are stored as the server sent them (typed where they are read). */
+export type RefRow = { id: string } & Record<string, unknown>;
+
+export type LocalSession = { user: SessionUser; confirmedAt: string };
+
+export type MetaRow =
+  | { key: "deviceId"; value: string }
+  | { key: "session"; value: LocalSession }
+  | { key: "cursor"; value: number }
+  | { key: "refHash"; value: string }
+  | { key: "rules"; value: Record<string, unknown> | null }
+  | { key: "lastSuccess"; value: string }
+  | { key: "lastAttempt"; value: string }
+  | { key: "lastError"; value: { code: string; message: string; at: string } | null };
+export type MetaKey = MetaRow["key"];
+export type MetaValue<K extends MetaKey> = Extract<MetaRow, { key: K }>["value"];
+
+export const LOCAL_DB_NAME = "rimelog";
+
+export class RimelogDexie extends Dexie {
+  entries!: Table<StoredLocalEntry, string>;
+  outbox!: Table<OutboxRow, number>;
+  attachments!: Table<LocalAttachment, string>;
+  cryostats!: Table<RefRow, string>;
+  templates!: Table<RefRow, string>;
+  users!: Table<RefRow, string>;
+  meta!: Table<MetaRow, string>;
+
+  constructor(name = LOCAL_DB_NAME, options: DexieOptions = {}) {
+    // Chromium commits IndexedDB transactions with relaxed durability by default: a crash right
+    // after "saved" could lose the entry. Strict waits for the write to reach the disk.
+    super(name, { chromeTransactionDurability: "strict", ...options });
+    this.version(1).stores({
+      entries: "id, cryostatId, runId, sync, seq, authorId, [cryostatId+seq]",
+      outbox: "++n, &entryId, authorId",
+      attachments: "id, state, authorId",
+      cryostats: "id",
+      templates: "id, key",
+      users: "id",
+      meta: "key",
+    });
+  }
+
+  async getMeta<K extends MetaKey>(key: K): Promise<MetaValue<K> | undefined> {
+    const row = await this.meta.get(key);
+    return row?.value as MetaValue<K> | undefined;
+  }
+
+  async setMeta<K extends MetaKey>(key: K, value: MetaValue<K>): Promise<void> {
+    await this.meta.put({ key, value } as MetaRow);
+  }
+}
+
+let singleton: RimelogDexie | undefined;
+
+/** The tablet's store (browser only). Tests make their own with `new RimelogDexie(name, opts)`. */
+export function localDb(): RimelogDexie {
+  if (typeof indexedDB === "undefined") throw new Error("The tablet store needs a browser (IndexedDB is not available here).");
+  singleton ??= new RimelogDexie();
+  return singleton;
+}

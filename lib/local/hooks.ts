@@ -1,0 +1,79 @@
+"use client";
+// Live queries on the tablet store for React screens: they re-render when the store changes
+// (a local write, a sync). `undefined` means "still loading"; the UI never waits for the network.
+import { useLiveQuery } from "dexie-react-hooks";
+import { useEffect, useState } from "react";
+import type { CryostatConfig } from "@/lib/schemas/cryostat";
+import type { TemplateStep } from "@/lib/schemas/template";
+import { localDb, type StoredLocalEntry } from "./db";
+import { queryEntries, syncSummary, type EntryFilter, type SyncSummary } from "./queries";
+
+export type LocalCryostat = { id: string; name: string; kind: string; location: string; config: CryostatConfig; updatedAt: string };
+export type LocalTemplate = {
+  id: string;
+  key: string;
+  version: number;
+  title: string;
+  purpose: string;
+  cryostatKinds: string[];
+  steps: TemplateStep[];
+};
+export type LocalUser = { id: string; name: string; role: string; active: boolean };
+
+/** Pulled + local entries (each with `sync`: pending / synced / rejected), newest first. */
+export function useEntries(filter: EntryFilter = {}): StoredLocalEntry[] | undefined {
+  const key = JSON.stringify(filter);
+  return useLiveQuery(() => queryEntries(localDb(), filter), [key]);
+}
+
+export function useEntry(id: string | undefined): StoredLocalEntry | null | undefined {
+  return useLiveQuery(async () => (id ? ((await localDb().entries.get(id)) ?? null) : null), [id]);
+}
+
+export function useCryostats(): LocalCryostat[] | undefined {
+  return useLiveQuery(async () => ((await localDb().cryostats.toArray()) as unknown as LocalCryostat[]).sort((a, b) => a.name.localeCompare(b.name)), []);
+}
+
+export function useCryostat(id: string): LocalCryostat | null | undefined {
+  return useLiveQuery(async () => ((await localDb().cryostats.get(id)) as unknown as LocalCryostat | undefined) ?? null, [id]);
+}
+
+export function useTemplates(): LocalTemplate[] | undefined {
+  return useLiveQuery(async () => (await localDb().templates.toArray()) as unknown as LocalTemplate[], []);
+}
+
+/** Everyone this user may see (id → name), for "by whom" lines. */
+export function useUserNames(): Record<string, string> {
+  const rows = useLiveQuery(async () => (await localDb().users.toArray()) as unknown as LocalUser[], []);
+  return Object.fromEntries((rows ?? []).map((u) => [u.id, u.name]));
+}
+
+export function useUsers(): LocalUser[] | undefined {
+  return useLiveQuery(async () => (await localDb().users.toArray()) as unknown as LocalUser[], []);
+}
+
+/** The facility rules in force, as last pulled (null: none set or not pulled yet). */
+export function useFacilityRules<T = Record<string, unknown>>(): T | null | undefined {
+  return useLiveQuery(async () => ((await localDb().getMeta("rules")) as T | null | undefined) ?? null, []);
+}
+
+export function useSyncSummary(): SyncSummary | undefined {
+  return useLiveQuery(() => syncSummary(localDb()), []);
+}
+
+/** An object URL for a photo kept on the tablet, else the server's copy. */
+export function useAttachmentUrl(id: string | undefined): string | undefined {
+  const local = useLiveQuery(async () => (id ? ((await localDb().attachments.get(id)) ?? null) : null), [id]);
+  const [url, setUrl] = useState<string | undefined>(undefined);
+  useEffect(() => {
+    if (!id || local === undefined) return;
+    if (local) {
+      const u = URL.createObjectURL(local.blob);
+      setUrl(u);
+      return () => URL.revokeObjectURL(u);
+    }
+    setUrl(`/api/attachments/${encodeURIComponent(id)}`);
+    return undefined;
+  }, [id, local]);
+  return url;
+}

@@ -1,0 +1,68 @@
+// Reads from the tablet store, shared by the live-query hooks and tests: entries (pulled + local,
+// newest first), reference data and the sync summary.
+import type { RimelogDexie, StoredLocalEntry } from "./db";
+
+export type EntryFilter = { cryostatId?: string | null; runId?: string; kinds?: string[]; limit?: number };
+
+/** Unsent and refused entries first (newest first), then the server's order, newest first. */
+export function newestFirst(a: StoredLocalEntry, b: StoredLocalEntry): number {
+  const ua = a.seq === null;
+  const ub = b.seq === null;
+  if (ua !== ub) return ua ? -1 : 1;
+  if (ua) return b.recordedAt.localeCompare(a.recordedAt);
+  return (b.seq ?? 0) - (a.seq ?? 0);
+}
+
+export async function queryEntries(db: RimelogDexie, f: EntryFilter = {}): Promise<StoredLocalEntry[]> {
+  let list: StoredLocalEntry[];
+  if (f.runId) list = await db.entries.where("runId").equals(f.runId).toArray();
+  else if (typeof f.cryostatId === "string") list = await db.entries.where("cryostatId").equals(f.cryostatId).toArray();
+  else list = await db.entries.toArray();
+  list = list.filter(
+    (e) =>
+      (f.cryostatId === undefined || e.cryostatId === f.cryostatId) &&
+      (!f.runId || e.runId === f.runId) &&
+      (!f.kinds || f.kinds.includes(e.kind)),
+  );
+  list.sort(newestFirst);
+  return f.limit ? list.slice(0, f.limit) : list;
+}
+
+export type SyncSummary = {
+  pending: number;
+  rejected: StoredLocalEntry[];
+  pendingAttachments: number;
+  rejectedAttachments: { id: string; fileName: string; message: string }[];
+  lastSuccess: string | null;
+  lastAttempt: string | null;
+  lastError: { code: string; message: string; at: string } | null;
+  user: { id: string; name: string; role: string } | null;
+  sessionConfirmedAt: string | null;
+  deviceId: string | null;
+};
+
+export async function syncSummary(db: RimelogDexie): Promise<SyncSummary> {
+  const [pending, rejected, pendingAttachments, rejectedAtt, lastSuccess, lastAttempt, lastError, session, deviceId] = await Promise.all([
+    db.outbox.count(),
+    db.entries.where("sync").equals("rejected").toArray(),
+    db.attachments.where("state").equals("pending").count(),
+    db.attachments.where("state").equals("rejected").toArray(),
+    db.getMeta("lastSuccess"),
+    db.getMeta("lastAttempt"),
+    db.getMeta("lastError"),
+    db.getMeta("session"),
+    db.getMeta("deviceId"),
+  ]);
+  return {
+    pending,
+    rejected: rejected.sort(newestFirst),
+    pendingAttachments,
+    rejectedAttachments: rejectedAtt.map((a) => ({ id: a.id, fileName: a.fileName, message: a.rejection?.message ?? "refused" })),
+    lastSuccess: lastSuccess ?? null,
+    lastAttempt: lastAttempt ?? null,
+    lastError: lastError ?? null,
+    user: session ? { id: session.user.id, name: session.user.name, role: session.user.role } : null,
+    sessionConfirmedAt: session?.confirmedAt ?? null,
+    deviceId: deviceId ?? null,
+  };
+}

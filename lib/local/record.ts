@@ -1,0 +1,33 @@
+// The public API other screens use to record on the tablet (procedures, safety forms, maths UI,
+// quick entries). Each call writes to the tablet store first and resolves only after the local
+// transaction has committed; the sync loop sends it later. See /work/notes/local-api.md.
+import { localDb, type StoredLocalEntry } from "./db";
+import { putAttachmentIn, recordEntriesIn, type EntryDraft } from "./store";
+
+export type { EntryDraft, LocalWriteCode } from "./store";
+export { LocalWriteError, OFFLINE_SESSION_MS, MAX_ATTACHMENT_BYTES } from "./store";
+export type { StoredLocalEntry, SyncState, Rejection } from "./db";
+
+/**
+ * Record one entry: fills id, author (the signed-in user), device and recordedAt, validates it
+ * with the shared schema, and writes the entry and its outbox row in one transaction.
+ * Throws LocalWriteError (code + a message for the screen) when nothing was saved.
+ */
+export async function recordEntry(draft: EntryDraft): Promise<StoredLocalEntry> {
+  const [stored] = await recordEntriesIn(localDb(), [draft]);
+  if (!stored) throw new Error("recordEntry: nothing was stored");
+  return stored;
+}
+
+/** Record several entries atomically (all or none), in the given order. */
+export async function recordEntries(drafts: EntryDraft[]): Promise<StoredLocalEntry[]> {
+  return recordEntriesIn(localDb(), drafts);
+}
+
+/**
+ * Keep a photo or file on the tablet; returns its id to put in an entry's payload. It is uploaded
+ * on the next sync, before the entries that refer to it.
+ */
+export async function putAttachment(blob: Blob, meta: { fileName: string; mime: string }): Promise<string> {
+  return putAttachmentIn(localDb(), blob, meta);
+}

@@ -1,0 +1,182 @@
+// Writing on the tablet: an entry and its outbox row in one Dexie transaction (and a photo blob),
+// with the offline session and device id the entry is stamped with. Every function takes the
+// Dexie instance first so tests can run several simulated tablets side by side.
+import type { z } from "zod";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { mayWrite } from "@/lib/auth/permissions";
+import { parseEntry, type EntryInput, type EntryKind, type payloadSchemas } from "@/lib/schemas/entry";
+import { canonicalJson } from "@/lib/sync/hash";
+import type { LocalSession, OutboxRow, RimelogDexie, StoredLocalEntry } from "./db";
+import { emitLocalWrite } from "./events";
+
+/**
+ * How long a tablet keeps working after its last contact with the server that confirmed the
+ * session. Matches the server session's lifetime (lib/auth/options.ts SESSION_MAX_AGE_S = 14 h):
+ * after it, new entries are refused until the technician signs in again online. Entries already
+ * written stay in the outbox and are sent after that sign-in.
+ */
+export const OFFLINE_SESSION_MS = 14 * 60 * 60 * 1000;
+
+/** Largest photo or file kept on the tablet for upload (the server enforces its own bound too). */
+export const MAX_ATTACHMENT_BYTES = 15 * 1024 * 1024;
+
+type DraftOf<K extends EntryKind> = {
+  cryostatId: string | null;
+  runId?: string | null;
+  kind: K;
+  payload: z.input<(typeof payloadSchemas)[K]>;
+  supersedes?: string | null;
+  reason?: string | null;
+};
+/** What a form hands over: the fields the user chose. Id, author, device and time are filled in. */
+export type EntryDraft = { [K in EntryKind]: DraftOf<K> }[EntryKind];
+
+export type LocalWriteCode = "invalid" | "forbidden" | "no_session" | "session_expired" | "storage_full" | "storage_failed";
+
+/** A local write that did not happen. The message is meant for the screen as it is. */
+export class LocalWriteError extends Error {
+  constructor(
+    public readonly code: LocalWriteCode,
+    message: string,
+    public readonly problems: string[] = [],
+  ) {
+    super(message);
+    this.name = "LocalWriteError";
+  }
+}
+
+export function newDeviceId(): string {
+  return `tab-${crypto.randomUUID()}`;
+}
+
+/** The tablet's id, made once and kept across sign-outs (the server can revoke it). */
+export async function ensureDeviceId(db: RimelogDexie): Promise<string> {
+  return db.transaction("rw", db.meta, async () => {
+    const have = await db.getMeta("deviceId");
+    if (have) return have;
+    const id = newDeviceId();
+    await db.setMeta("deviceId", id);
+    return id;
+  });
+}
+
+/** Remember who is signed in, as the server just confirmed it (called after each good contact). */
+export async function confirmSession(db: RimelogDexie, user: SessionUser, at = new Date()): Promise<void> {
+  await db.setMeta("session", { user, confirmedAt: at.toISOString() });
+}
+
+export function sessionProblem(session: LocalSession | undefined, now = Date.now()): LocalWriteError | null {
+  if (!session) return new LocalWriteError("no_session", "Nobody is signed in on this tablet. Connect to the network and sign in.");
+  if (now - Date.parse(session.confirmedAt) > OFFLINE_SESSION_MS) {
+    return new LocalWriteError(
+      "session_expired",
+      `You have been offline for more than ${OFFLINE_SESSION_MS / 3_600_000} hours, so this tablet no longer records in your name. Connect to the network and sign in again; nothing already saved is lost.`,
+    );
+  }
+  return null;
+}
+
+function toLocalWriteError(e: unknown): LocalWriteError {
+  if (e instanceof LocalWriteError) return e;
+  const err = e as { name?: string; inner?: { name?: string }; message?: string };
+  const names = [err?.name, err?.inner?.name];
+  if (names.includes("QuotaExceededError")) {
+    return new LocalWriteError(
+      "storage_full",
+      "The tablet's storage is full: this entry was NOT saved. Connect to the network so synced entries and photos can be cleared, or free space on the tablet, then record it again.",
+    );
+  }
+  return new LocalWriteError(
+    "storage_failed",
+    `The tablet could not save this entry (${err?.message ?? String(e)}). It was NOT saved: write it down on paper and record it again when the tablet works (private browsing mode cannot store entries).`,
+  );
+}
+
+/** Build and validate one entry from a draft; throws LocalWriteError("invalid") with the problems. */
+export function buildEntry(draft: EntryDraft, authorId: string, deviceId: string, now = new Date()): EntryInput {
+  const parsed = parseEntry({
+    id: crypto.randomUUID(),
+    cryostatId: draft.cryostatId,
+    runId: draft.runId ?? null,
+    kind: draft.kind,
+    payload: draft.payload,
+    authorId,
+    deviceId,
+    recordedAt: now.toISOString(),
+    supersedes: draft.supersedes ?? null,
+    reason: draft.reason ?? null,
+  });
+  if (!parsed.ok) throw new LocalWriteError("invalid", `This ${draft.kind} entry is not complete: ${parsed.problems.join("; ")}`, parsed.problems);
+  return parsed.entry;
+}
+
+export function pendingEntry(e: EntryInput): StoredLocalEntry {
+  return { ...e, sync: "pending", seq: null, hash: null, prevHash: null, receivedAt: null, rejection: null };
+}
+
+/**
+ * Record several entries atomically: all of them with their outbox rows in one transaction, or
+ * none. Resolves only after the transaction has committed (strict durability).
+ */
+export async function recordEntriesIn(db: RimelogDexie, drafts: EntryDraft[], now = new Date()): Promise<StoredLocalEntry[]> {
+  if (drafts.length === 0) return [];
+  let stored: StoredLocalEntry[] = [];
+  try {
+    await db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
+      const session = await db.getMeta("session");
+      const problem = sessionProblem(session, now.getTime());
+      if (problem || !session) throw problem;
+      const user = session.user;
+      for (const d of drafts) {
+        if (!mayWrite(user.role, d.kind)) {
+          throw new LocalWriteError("forbidden", `A ${user.role.replace("_", " ")} may not record entries of kind "${d.kind}".`);
+        }
+      }
+      let deviceId = await db.getMeta("deviceId");
+      if (!deviceId) {
+        deviceId = newDeviceId();
+        await db.setMeta("deviceId", deviceId);
+      }
+      const built = drafts.map((d) => buildEntry(d, user.id, deviceId, now));
+      stored = built.map(pendingEntry);
+      const rows: OutboxRow[] = built.map((e) => ({ entryId: e.id, authorId: e.authorId, queuedAt: now.toISOString(), bytes: canonicalJson(e).length }));
+      await db.entries.bulkAdd(stored);
+      await db.outbox.bulkAdd(rows);
+    });
+  } catch (e) {
+    throw toLocalWriteError(e);
+  }
+  emitLocalWrite();
+  return stored;
+}
+
+/** Keep a photo or file on the tablet for upload; entries refer to it by the returned id. */
+export async function putAttachmentIn(db: RimelogDexie, blob: Blob, { fileName, mime }: { fileName: string; mime: string }): Promise<string> {
+  if (blob.size > MAX_ATTACHMENT_BYTES) {
+    throw new LocalWriteError("invalid", `This file is ${(blob.size / 1048576).toFixed(1)} MB; the limit is ${MAX_ATTACHMENT_BYTES / 1048576} MB.`);
+  }
+  if (blob.size === 0) throw new LocalWriteError("invalid", "This file is empty.");
+  const id = crypto.randomUUID();
+  try {
+    await db.transaction("rw", [db.attachments, db.meta], async () => {
+      const session = await db.getMeta("session");
+      const problem = sessionProblem(session);
+      if (problem || !session) throw problem;
+      await db.attachments.add({
+        id,
+        blob,
+        fileName: fileName.slice(0, 200),
+        mime,
+        bytes: blob.size,
+        authorId: session.user.id,
+        createdAt: new Date().toISOString(),
+        state: "pending",
+        rejection: null,
+      });
+    });
+  } catch (e) {
+    throw toLocalWriteError(e);
+  }
+  emitLocalWrite();
+  return id;
+}

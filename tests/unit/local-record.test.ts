@@ -1,0 +1,64 @@
+// The tablet store's write path on fake-indexeddb: one transaction for entry + outbox row,
+// validation and session checks before anything is written, photos kept as blobs.
+import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
+import { describe, expect, it } from "vitest";
+import { RimelogDexie } from "@/lib/local/db";
+import { queryEntries, syncSummary } from "@/lib/local/queries";
+import { confirmSession, LocalWriteError, OFFLINE_SESSION_MS, putAttachmentIn, recordEntriesIn } from "@/lib/local/store";
+
+const tomasz = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" as const };
+
+function tablet(): RimelogDexie {
+  return new RimelogDexie(`t-${crypto.randomUUID()}`, { indexedDB: new IDBFactory(), IDBKeyRange });
+}
+
+describe("tablet store: recording", () => {
+  it("writes the entry and its outbox row together, stamped with author, device and time", async () => {
+    const db = tablet();
+    await confirmSession(db, tomasz);
+    const [e] = await recordEntriesIn(db, [{ cryostatId: "wren", kind: "reading", payload: { quantity: "4 K plate", stage: "4k", value: 3.9, unit: "K" } }]);
+    expect(e?.authorId).toBe("u-tomasz");
+    expect(e?.deviceId).toMatch(/^tab-/);
+    expect(e?.sync).toBe("pending");
+    expect(new Date(e!.recordedAt).toISOString()).toBe(e!.recordedAt);
+    const out = await db.outbox.toArray();
+    expect(out.map((o) => o.entryId)).toEqual([e!.id]);
+    expect((await queryEntries(db, { cryostatId: "wren" })).map((x) => x.id)).toEqual([e!.id]);
+    expect((await syncSummary(db)).pending).toBe(1);
+  });
+
+  it("writes nothing when one of several drafts is invalid (all or none)", async () => {
+    const db = tablet();
+    await confirmSession(db, tomasz);
+    const bad = recordEntriesIn(db, [
+      { cryostatId: "wren", kind: "note", payload: { text: "fine" } },
+      { cryostatId: "wren", kind: "helium.level", payload: { percent: 140 } },
+    ]);
+    await expect(bad).rejects.toBeInstanceOf(LocalWriteError);
+    await expect(bad).rejects.toMatchObject({ code: "invalid" });
+    expect(await db.entries.count()).toBe(0);
+    expect(await db.outbox.count()).toBe(0);
+  });
+
+  it("refuses to record without a session, after the offline bound, or for a kind the role may not write", async () => {
+    const db = tablet();
+    await expect(recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "x" } }])).rejects.toMatchObject({ code: "no_session" });
+    await confirmSession(db, tomasz, new Date(Date.now() - OFFLINE_SESSION_MS - 60_000));
+    await expect(recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "x" } }])).rejects.toMatchObject({ code: "session_expired" });
+    await confirmSession(db, tomasz);
+    await expect(
+      recordEntriesIn(db, [{ cryostatId: "wren", kind: "audit.finding", payload: { targetEntryId: crypto.randomUUID(), verdict: "acceptable", findings: "" } }]),
+    ).rejects.toMatchObject({ code: "forbidden" });
+    expect(await db.entries.count()).toBe(0);
+  });
+
+  it("keeps a photo for upload and refuses an empty one", async () => {
+    const db = tablet();
+    await confirmSession(db, tomasz);
+    const id = await putAttachmentIn(db, new Blob([new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 1, 2, 3])]), { fileName: "gauge.jpg", mime: "image/jpeg" });
+    const row = await db.attachments.get(id);
+    expect(row?.state).toBe("pending");
+    expect(row?.bytes).toBe(7);
+    await expect(putAttachmentIn(db, new Blob([]), { fileName: "x.jpg", mime: "image/jpeg" })).rejects.toMatchObject({ code: "invalid" });
+  });
+});
