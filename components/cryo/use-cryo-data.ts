@@ -1,0 +1,124 @@
+"use client";
+// Client data for derived values and charts: a cryostat's series (levels, fields, stage
+// temperatures) and its accepted sensor calibrations. Fetched online and remembered in
+// localStorage so the reading forms keep their derived values with no network. The last good copy
+// is shown at once; a fetch refreshes it when the server answers.
+import { useEffect, useState } from "react";
+import type { CalibrationTable } from "@/lib/cryo";
+
+/** The JSON the series route returns (see db/queries/series.ts). */
+export interface CryostatSeries {
+  cryostatId: string;
+  stages: { key: string; label: string; points: { t: number; k: number }[] }[];
+  helium: {
+    levels: { t: number; percent: number; litres: number | null }[];
+    transfers: { t: number; beforePercent: number; afterPercent: number }[];
+    capacityLitres: number | null;
+    minimumPercent: number | null;
+  } | null;
+  fields: { t: number; fieldT: number; persistent: boolean }[];
+  generatedAt: number;
+}
+
+/** One accepted calibration as the calibrations route returns it. */
+export interface CalibrationRecord {
+  id: string;
+  cryostatId: string;
+  stage: string;
+  sensorKind: CalibrationTable["sensorKind"];
+  sensorLabel: string;
+  attachmentId: string | null;
+  table: CalibrationTable;
+  acceptedBy: string;
+  acceptedAt: string;
+}
+
+function read<T>(key: string): T | undefined {
+  try {
+    const raw = localStorage.getItem(key);
+    return raw ? (JSON.parse(raw) as T) : undefined;
+  } catch {
+    return undefined;
+  }
+}
+
+function write(key: string, value: unknown): void {
+  try {
+    localStorage.setItem(key, JSON.stringify(value));
+  } catch {
+    /* storage full or private mode: the figures still work while the page is open */
+  }
+}
+
+// Several derived values on one form share one request per URL (for a few seconds).
+const inflight = new Map<string, { at: number; promise: Promise<{ ok: boolean; status: number; body: unknown }> }>();
+const SHARE_MS = 10_000;
+
+function fetchShared(url: string): Promise<{ ok: boolean; status: number; body: unknown }> {
+  const hit = inflight.get(url);
+  if (hit && Date.now() - hit.at < SHARE_MS) return hit.promise;
+  const promise = fetch(url, { cache: "no-store" }).then(async (r) => ({ ok: r.ok, status: r.status, body: (await r.json().catch(() => null)) as unknown }));
+  inflight.set(url, { at: Date.now(), promise });
+  promise.catch(() => inflight.delete(url));
+  return promise;
+}
+
+/** Forget shared responses (after an upload, so the next read sees it). */
+export function refreshCryoData(): void {
+  inflight.clear();
+}
+
+export type Remote<T> = { data: T | undefined; error: string | null; loading: boolean; stale: boolean };
+
+/** Fetch JSON once per key, serving the remembered copy first. */
+function useRemembered<T>(key: string | null, url: string | null, pick: (body: unknown) => T): Remote<T> {
+  const [state, setState] = useState<Remote<T>>({ data: undefined, error: null, loading: true, stale: false });
+  useEffect(() => {
+    if (!key || !url) {
+      setState({ data: undefined, error: null, loading: false, stale: false });
+      return;
+    }
+    const cached = read<T>(key);
+    setState({ data: cached, error: null, loading: true, stale: cached !== undefined });
+    let cancelled = false;
+    fetchShared(url)
+      .then(({ ok, status, body }) => {
+        if (!ok) {
+          const message = (body as { error?: { message?: string } } | null)?.error?.message ?? `The server answered ${status}.`;
+          throw new Error(message);
+        }
+        const data = pick(body);
+        write(key, data);
+        if (!cancelled) setState({ data, error: null, loading: false, stale: false });
+      })
+      .catch((e: unknown) => {
+        if (cancelled) return;
+        const msg = e instanceof TypeError ? "No connection to the server." : e instanceof Error ? e.message : String(e);
+        setState({ data: cached, error: msg, loading: false, stale: cached !== undefined });
+      });
+    return () => {
+      cancelled = true;
+    };
+  }, [key, url, pick]);
+  return state;
+}
+
+const pickSeries = (body: unknown) => body as CryostatSeries;
+const pickCalibrations = (body: unknown) => (body as { calibrations: CalibrationRecord[] }).calibrations;
+
+export function useCryostatSeries(cryostatId: string | undefined): Remote<CryostatSeries> {
+  return useRemembered(
+    cryostatId ? `rimelog-series-${cryostatId}` : null,
+    cryostatId ? `/api/cryostats/${encodeURIComponent(cryostatId)}/series` : null,
+    pickSeries,
+  );
+}
+
+/** The accepted calibrations of a cryostat, newest per stage first. */
+export function useCalibrations(cryostatId: string | undefined): Remote<CalibrationRecord[]> {
+  return useRemembered(
+    cryostatId ? `rimelog-calibrations-${cryostatId}` : null,
+    cryostatId ? `/api/calibrations?cryostatId=${encodeURIComponent(cryostatId)}` : null,
+    pickCalibrations,
+  );
+}
