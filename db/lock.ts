@@ -1,7 +1,7 @@
 // An exclusive lock on a PGlite data directory. PGlite does not refuse a second process on the
 // same directory, and data is lost when two write to it, so the app refuses to start instead.
 import { closeSync, mkdirSync, openSync, readFileSync, unlinkSync, writeSync } from "node:fs";
-import { join } from "node:path";
+import { dirname } from "node:path";
 
 export class DataDirLockedError extends Error {}
 
@@ -16,8 +16,10 @@ function alive(pid: number): boolean {
 
 /** Take the lock or throw a DataDirLockedError naming the holder. Returns a release function. */
 export function lockDataDir(dir: string): () => void {
-  mkdirSync(dir, { recursive: true });
-  const file = join(dir, "rimelog.lock");
+  // The lock sits beside the directory, so the directory itself stays PGlite's alone
+  // (PGlite only loads a backup into a directory that does not exist yet).
+  mkdirSync(dirname(dir), { recursive: true });
+  const file = `${dir}.lock`;
   for (let attempt = 0; attempt < 2; attempt++) {
     try {
       const fd = openSync(file, "wx", 0o600);
