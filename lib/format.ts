@@ -48,6 +48,7 @@ const KIND_LABEL: Record<string, string> = {
   "run.step": "Procedure step",
   "run.abort": "Procedure aborted",
   "run.complete": "Procedure completed",
+  "rules.change": "Facility rules changed",
 };
 
 export function kindLabel(kind: string): string {

@@ -91,7 +91,7 @@ export async function changeRules(
         id: randomUUID(),
         cryostatId: null,
         runId: null,
-        kind: "rules.change" as never,
+        kind: "rules.change",
         payload: { version, reason: input.reason, changes, values, documentAttachmentId, previousDocumentAttachmentId: current?.document?.id ?? null },
         authorId: user.id,
         deviceId: input.deviceId ?? "server-admin",

@@ -32,6 +32,7 @@ export const WRITE_KINDS: Record<EntryKind, readonly Role[]> = {
   "run.step": ["technician", "researcher", "safety_officer", "facility_admin"],
   "run.abort": ["technician", "researcher", "facility_admin"],
   "run.complete": ["technician", "researcher"],
+  "rules.change": ["facility_admin"],
 };
 
 /** Which roles may read each entry kind (anything not listed: everyone signed in). */

@@ -3,6 +3,7 @@
 import { z } from "zod";
 import { CRYOSTAT_STATES } from "./cryostat";
 import { runAbortPayload, runCompletePayload, runStartPayload, runStepPayload } from "./run";
+import { facilityRulesValuesSchema } from "./rules";
 import { UNITS } from "./units";
 
 const text = (max: number) => z.string().trim().min(1).max(max);
@@ -109,6 +110,16 @@ export const auditFindingPayload = z.object({
   flags: z.array(z.string()).default([]),
 });
 
+/** A change to the facility rules (facility chain): old and new value of each changed setting. */
+export const rulesChangePayload = z.object({
+  version: z.number().int().positive(),
+  reason: text(1000),
+  changes: z.array(z.object({ field: z.string().min(1).max(60), from: z.unknown(), to: z.unknown() })),
+  values: facilityRulesValuesSchema,
+  documentAttachmentId: z.uuid().nullable(),
+  previousDocumentAttachmentId: z.uuid().nullable(),
+});
+
 /** Payload schema per entry kind. Feature modules add their kinds here. */
 export const payloadSchemas = {
   note: notePayload,
@@ -126,6 +137,7 @@ export const payloadSchemas = {
   "run.step": runStepPayload,
   "run.abort": runAbortPayload,
   "run.complete": runCompletePayload,
+  "rules.change": rulesChangePayload,
 } as const;
 export type EntryKind = keyof typeof payloadSchemas;
 export const ENTRY_KINDS = Object.keys(payloadSchemas) as EntryKind[];
