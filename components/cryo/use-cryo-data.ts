@@ -4,21 +4,10 @@
 // localStorage so the reading forms keep their derived values with no network. The last good copy
 // is shown at once; a fetch refreshes it when the server answers.
 import { useEffect, useState } from "react";
+import type { CryostatSeries } from "@/db/queries/series";
 import type { CalibrationTable } from "@/lib/cryo";
 
-/** The JSON the series route returns (see db/queries/series.ts). */
-export interface CryostatSeries {
-  cryostatId: string;
-  stages: { key: string; label: string; points: { t: number; k: number }[] }[];
-  helium: {
-    levels: { t: number; percent: number; litres: number | null }[];
-    transfers: { t: number; beforePercent: number; afterPercent: number }[];
-    capacityLitres: number | null;
-    minimumPercent: number | null;
-  } | null;
-  fields: { t: number; fieldT: number; persistent: boolean }[];
-  generatedAt: number;
-}
+export type { CryostatSeries };
 
 /** One accepted calibration as the calibrations route returns it. */
 export interface CalibrationRecord {
