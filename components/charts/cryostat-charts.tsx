@@ -1,0 +1,185 @@
+"use client";
+// The cryostat page's charts: stage temperatures on a log axis (cooldown and since), the helium
+// level with the boil-off fit since the last fill and the forecast to the minimum level, and the
+// magnet's field history. Data: the cryostat's series (online, remembered for offline use).
+import { useCallback, useEffect, useMemo, useState } from "react";
+import type uPlotType from "uplot";
+import { Notice, Panel } from "@/components/ui/panel";
+import { figure } from "@/components/cryo/derive";
+import { useCryostatSeries, type CryostatSeries } from "@/components/cryo/use-cryo-data";
+import type { CryostatConfig } from "@/lib/schemas/cryostat";
+import { align, fieldSteps, heliumModel } from "./chart-model";
+import { UplotChart, type Palette } from "./uplot-chart";
+
+const HEIGHT = 260;
+
+function baseAxes(p: Palette, yLabel: string, yValues?: uPlotType.Axis["values"]): uPlotType.Axis[] {
+  const common = { stroke: p.axis, grid: { stroke: p.grid, width: 1 }, ticks: { stroke: p.grid, width: 1 }, font: p.font, labelFont: p.font };
+  return [{ ...common }, { ...common, label: yLabel, size: 64, ...(yValues ? { values: yValues } : {}) }];
+}
+
+/** Kelvin tick labels in the unit a fridge person reads. */
+function kelvinTicks(_u: uPlotType, splits: number[]): string[] {
+  return splits.map((k) => (k == null ? "" : k < 1 ? `${figure(k * 1000, 3)} mK` : `${figure(k, 3)} K`));
+}
+
+function StageChart({ series }: { series: CryostatSeries }) {
+  const withPoints = useMemo(() => series.stages.filter((s) => s.points.length > 0), [series]);
+  const data = useMemo(() => align(withPoints.map((s) => s.points.map((p) => ({ t: p.t, y: p.k })))), [withPoints]);
+  const options = useCallback(
+    (p: Palette): Omit<uPlotType.Options, "width"> => ({
+      height: HEIGHT,
+      scales: { x: { time: true }, y: { distr: 3, log: 10 } },
+      axes: baseAxes(p, "Temperature", kelvinTicks),
+      series: [
+        { label: "Time" },
+        ...withPoints.map((s, i) => ({
+          label: s.label,
+          stroke: p.series[i % p.series.length],
+          width: 2,
+          spanGaps: true,
+          points: { size: 4 },
+          value: (_u: uPlotType, v: number | null) => (v == null ? "—" : v < 1 ? `${figure(v * 1000, 3)} mK` : `${figure(v, 3)} K`),
+        })),
+      ],
+    }),
+    [withPoints],
+  );
+  if (withPoints.length === 0) return <p className="text-muted">No stage temperatures logged yet.</p>;
+  return <UplotChart label="Stage temperatures over time, logarithmic temperature axis" options={options} data={data} />;
+}
+
+function HeliumChart({ series, config, nowMs }: { series: CryostatSeries; config: CryostatConfig; nowMs: number }) {
+  const model = useMemo(() => heliumModel(series, config, nowMs), [series, config, nowMs]);
+  const data = useMemo(() => (model ? align([model.levels, model.fit, model.minimum]) : null), [model]);
+  const options = useCallback(
+    (p: Palette): Omit<uPlotType.Options, "width"> => ({
+      height: HEIGHT,
+      scales: { x: { time: true }, y: { range: (_u, min, max) => [Math.min(0, min), Math.max(max * 1.05, 1)] } },
+      axes: baseAxes(p, model?.unit === "L" ? "Liquid helium (L)" : "Level (%)"),
+      series: [
+        { label: "Time" },
+        { label: model?.unit === "L" ? "Level (L)" : "Level (%)", stroke: p.series[0], width: 2, spanGaps: true, points: { size: 5 } },
+        { label: "Boil-off fit", stroke: p.series[2], width: 2, dash: [8, 6], spanGaps: true, points: { show: false } },
+        { label: "Minimum", stroke: p.danger, width: 1.5, dash: [3, 4], spanGaps: true, points: { show: false } },
+      ],
+    }),
+    [model?.unit],
+  );
+  if (!model || !data) return <p className="text-muted">No helium levels logged yet.</p>;
+  const f = model.forecast;
+  return (
+    <>
+      <UplotChart label="Helium level with the boil-off fit since the last fill and the minimum level" options={options} data={data} />
+      <p className="num mt-2 text-sm text-ink" data-testid="helium-forecast">
+        {model.rate ? (
+          <>
+            Boil-off since the last fill: {figure(model.rate.litresPerDay, 3)} ± {figure(model.rate.standardErrorLitresPerDay, 2)} {model.unit}/day
+            ({model.rate.points} readings).{" "}
+            {f?.forecast
+              ? `Minimum (${figure(model.minimumValue ?? NaN, 3)} ${model.unit}) reached about ${new Date(f.reachMs).toLocaleString("en-GB", {
+                  day: "2-digit",
+                  month: "short",
+                  hour: "2-digit",
+                  minute: "2-digit",
+                })}: ${figure(f.daysLeft, 2)} days left (${figure(f.daysLeftEarliest, 2)}–${f.daysLeftLatest === null ? "?" : figure(f.daysLeftLatest, 2)}).`
+              : f && !f.forecast
+                ? f.reason
+                : ""}
+          </>
+        ) : (
+          <>No boil-off fit: {model.fitNote}</>
+        )}
+      </p>
+    </>
+  );
+}
+
+function FieldChart({ series, nowMs }: { series: CryostatSeries; nowMs: number }) {
+  const steps = useMemo(() => fieldSteps(series, nowMs), [series, nowMs]);
+  const data = useMemo(() => align([steps]), [steps]);
+  const options = useCallback(
+    (p: Palette, lib: typeof uPlotType): Omit<uPlotType.Options, "width"> => ({
+      height: 200,
+      scales: { x: { time: true }, y: { range: (_u, min, max) => [Math.min(0, min), Math.max(max * 1.1, 0.1)] } },
+      axes: baseAxes(p, "Field (T)"),
+      series: [
+        { label: "Time" },
+        {
+          label: "Field (T)",
+          stroke: p.series[3],
+          width: 2,
+          fill: p.band,
+          paths: lib.paths.stepped?.({ align: 1 }),
+          points: { size: 6 },
+        },
+      ],
+    }),
+    [],
+  );
+  if (steps.length === 0) return <p className="text-muted">No field settings logged yet.</p>;
+  return <UplotChart label="Magnet field settings over time" options={options} data={data} />;
+}
+
+export function CryostatCharts({ cryostatId }: { cryostatId: string }) {
+  const series = useCryostatSeries(cryostatId);
+  const [config, setConfig] = useState<CryostatConfig | null>(null);
+  const [nowMs, setNowMs] = useState<number | null>(null);
+  useEffect(() => setNowMs(Date.now()), [series.data]);
+  useEffect(() => {
+    // The config (reservoir calibration, magnet) comes with the room overview, remembered too.
+    const key = `rimelog-cryostat-config-${cryostatId}`;
+    try {
+      const raw = localStorage.getItem(key);
+      if (raw) setConfig(JSON.parse(raw) as CryostatConfig);
+    } catch {
+      /* nothing remembered */
+    }
+    fetch("/api/cryostats", { cache: "no-store" })
+      .then((r) => (r.ok ? r.json() : null))
+      .then((body: { cryostats?: { id: string; config: CryostatConfig }[] } | null) => {
+        const c = body?.cryostats?.find((x) => x.id === cryostatId);
+        if (!c) return;
+        setConfig(c.config);
+        try {
+          localStorage.setItem(key, JSON.stringify(c.config));
+        } catch {
+          /* storage full */
+        }
+      })
+      .catch(() => undefined);
+  }, [cryostatId]);
+
+  const data = series.data;
+  return (
+    <section aria-label="Charts" className="flex flex-col gap-4" data-testid="cryostat-charts">
+      {series.error && !data && (
+        <Notice tone="warn" title="Charts unavailable" role="status">
+          {series.error} The charts need one online visit.
+        </Notice>
+      )}
+      {series.stale && series.error && <p className="text-sm text-muted">Charts from the last online visit ({series.error})</p>}
+      {!data && !series.error && <p className="text-muted">Loading charts…</p>}
+      {data && nowMs !== null && (
+        <>
+          <Panel>
+            <h2 className="mb-2 text-xl font-bold">Stage temperatures</h2>
+            <StageChart series={data} />
+          </Panel>
+          {data.helium && config && (
+            <Panel>
+              <h2 className="mb-2 text-xl font-bold">Helium level</h2>
+              <HeliumChart series={data} config={config} nowMs={nowMs} />
+            </Panel>
+          )}
+          {(data.fields.length > 0 || config?.magnet) && (
+            <Panel>
+              <h2 className="mb-2 text-xl font-bold">Magnet field</h2>
+              <FieldChart series={data} nowMs={nowMs} />
+            </Panel>
+          )}
+        </>
+      )}
+    </section>
+  );
+}
