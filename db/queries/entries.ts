@@ -97,23 +97,7 @@ export async function appendEntries(db: Db, user: SessionUser, batch: EntryInput
       const hash = linkHash(prevHash, e, seq, at);
       touched.set(chain, { seq, hash });
       seenInBatch.set(e.id, e);
-      rows.push({
-        id: e.id,
-        chain,
-        cryostatId: e.cryostatId,
-        runId: e.runId,
-        kind: e.kind,
-        payload: e.payload,
-        authorId: e.authorId,
-        deviceId: e.deviceId,
-        recordedAt: new Date(e.recordedAt),
-        supersedes: e.supersedes,
-        reason: e.reason,
-        seq,
-        receivedAt,
-        prevHash,
-        hash,
-      });
+      rows.push({ ...e, recordedAt: new Date(e.recordedAt), chain, seq, receivedAt, prevHash, hash });
       accepted.push({ id: e.id, seq, hash });
     }
 
