@@ -49,6 +49,7 @@ const KIND_LABEL: Record<string, string> = {
   "run.abort": "Procedure aborted",
   "run.complete": "Procedure completed",
   "rules.change": "Facility rules changed",
+  "user.change": "Access changed",
 };
 
 export function kindLabel(kind: string): string {

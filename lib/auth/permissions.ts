@@ -33,6 +33,7 @@ export const WRITE_KINDS: Record<EntryKind, readonly Role[]> = {
   "run.abort": ["technician", "researcher", "facility_admin"],
   "run.complete": ["technician", "researcher"],
   "rules.change": ["facility_admin"],
+  "user.change": ["facility_admin"],
 };
 
 /** Which roles may read each entry kind (anything not listed: everyone signed in). */

@@ -120,6 +120,13 @@ export const rulesChangePayload = z.object({
   previousDocumentAttachmentId: z.uuid().nullable(),
 });
 
+/** A facility admin changed someone's role or access (audit trail; that user's sessions end). */
+export const userChangePayload = z.object({
+  userId: z.string().min(1),
+  userName: z.string().min(1),
+  changes: z.array(z.object({ field: z.enum(["role", "active"]), from: z.union([z.string(), z.boolean()]), to: z.union([z.string(), z.boolean()]) })).min(1),
+});
+
 /** Payload schema per entry kind. Feature modules add their kinds here. */
 export const payloadSchemas = {
   note: notePayload,
@@ -138,6 +145,7 @@ export const payloadSchemas = {
   "run.abort": runAbortPayload,
   "run.complete": runCompletePayload,
   "rules.change": rulesChangePayload,
+  "user.change": userChangePayload,
 } as const;
 export type EntryKind = keyof typeof payloadSchemas;
 export const ENTRY_KINDS = Object.keys(payloadSchemas) as EntryKind[];
