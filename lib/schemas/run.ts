@@ -2,7 +2,11 @@
 // abort and completion. A run's state is never stored on the tablet: it is derived from these
 // entries (lib/procedures/state.ts), so two tablets writing to one run both keep their entries.
 import { z } from "zod";
+import { templateStepSchema } from "./template";
 import { UNITS } from "./units";
+
+// Kept here (not imported from db/schema) so lib/ stays free of the database layer.
+const CRYOSTAT_KINDS = ["dry_dilution", "wet_bath", "test_dewar"] as const;
 
 const finite = z.number().refine(Number.isFinite, "must be a finite number");
 const stepId = z.string().min(1).max(60);
@@ -56,3 +60,29 @@ export type RunCompletePayload = z.infer<typeof runCompletePayload>;
 
 export const RUN_KINDS = ["run.start", "run.step", "run.abort", "run.complete"] as const;
 export type RunKind = (typeof RUN_KINDS)[number];
+
+/** A template as the facility admin writes it (a save makes the next version of its key). */
+export const templateInputSchema = z
+  .object({
+    key: z
+      .string()
+      .trim()
+      .min(2)
+      .max(60)
+      .regex(/^[a-z0-9][a-z0-9-]*$/, "lower-case letters, digits and dashes"),
+    title: z.string().trim().min(2).max(200),
+    purpose: z.string().trim().min(2).max(1000),
+    cryostatKinds: z.array(z.enum(CRYOSTAT_KINDS)).min(1, "choose at least one cryostat kind"),
+    steps: z.array(templateStepSchema).min(1, "a procedure needs at least one step").max(80),
+  })
+  .superRefine((t, ctx) => {
+    const seen = new Set<string>();
+    t.steps.forEach((s, i) => {
+      if (seen.has(s.id)) ctx.addIssue({ code: "custom", path: ["steps", i, "id"], message: "step ids must be unique" });
+      seen.add(s.id);
+      if (s.kind === "reading" && s.min !== undefined && s.max !== undefined && s.min > s.max) {
+        ctx.addIssue({ code: "custom", path: ["steps", i, "max"], message: "the upper limit is below the lower limit" });
+      }
+    });
+  });
+export type TemplateInput = z.infer<typeof templateInputSchema>;
