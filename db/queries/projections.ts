@@ -7,6 +7,7 @@ import { entries, signatures, type EntryRow } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { recordHash } from "@/lib/sync/hash";
+import { projectRuns, runChecks } from "./runs";
 import { toStoredRow } from "./stored";
 
 export type Problem = { code: string; message: string };
@@ -42,7 +43,7 @@ const correctionTarget: Check = async (db, e, batch) => {
   return null;
 };
 
-const checks: Check[] = [signatureBinding, correctionTarget];
+const checks: Check[] = [signatureBinding, correctionTarget, ...runChecks];
 const projectors: Projector[] = [
   async (db, rows) => {
     const sigs = rows.filter((r) => r.kind === "signature");
@@ -54,6 +55,7 @@ const projectors: Projector[] = [
         .onConflictDoNothing();
     }
   },
+  projectRuns,
 ];
 
 export function registerCheck(check: Check): void {
