@@ -111,3 +111,14 @@ export function useCalibrations(cryostatId: string | undefined): Remote<Calibrat
     pickCalibrations,
   );
 }
+
+/** The cryostats (id, name, config) for presets: the room overview, remembered for offline use. */
+export function useCryostatList(): Remote<{ id: string; name: string; config: import("@/lib/schemas/cryostat").CryostatConfig }[]> {
+  return useRemembered("rimelog-cryostat-list", "/api/cryostats", pickCryostats);
+}
+const pickCryostats = (body: unknown) =>
+  ((body as { cryostats?: { id: string; name: string; config: import("@/lib/schemas/cryostat").CryostatConfig }[] }).cryostats ?? []).map((c) => ({
+    id: c.id,
+    name: c.name,
+    config: c.config,
+  }));
