@@ -205,3 +205,32 @@ export const signInAttempts = pgTable(
   },
   (t) => [index("sign_in_attempts_email_at").on(t.email, t.at)],
 );
+
+/**
+ * Accepted sensor calibration tables, one row per upload; the newest row per (cryostat, stage)
+ * is in force. `table` is the parsed table (lib/cryo CalibrationTable) the tablet converts with;
+ * `sourceText` keeps the file as uploaded; `attachmentId` points at the stored file when the
+ * storage layer holds it.
+ */
+export const calibrations = pgTable(
+  "calibrations",
+  {
+    id: uuid("id").primaryKey(),
+    cryostatId: text("cryostat_id")
+      .notNull()
+      .references(() => cryostats.id),
+    stage: text("stage").notNull(),
+    sensorKind: text("sensor_kind").notNull(),
+    sensorLabel: text("sensor_label").notNull(),
+    attachmentId: uuid("attachment_id"),
+    fileName: text("file_name").notNull(),
+    sourceText: text("source_text").notNull(),
+    table: jsonb("table").$type<Record<string, unknown>>().notNull(),
+    acceptedBy: text("accepted_by")
+      .notNull()
+      .references(() => users.id),
+    acceptedAt: timestamp("accepted_at", { withTimezone: true, precision: 3 }).notNull().defaultNow(),
+  },
+  (t) => [index("calibrations_cryostat_stage").on(t.cryostatId, t.stage, t.acceptedAt)],
+);
+export type CalibrationRow = typeof calibrations.$inferSelect;
