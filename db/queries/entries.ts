@@ -21,7 +21,13 @@ export const toStored = toStoredRow;
  * transaction; an entry already stored with the same content is answered as accepted again
  * (a retried push changes nothing); a bad entry is rejected without blocking the others.
  */
-export async function appendEntries(db: Db, user: SessionUser, batch: EntryInput[]): Promise<PushResult> {
+export async function appendEntries(
+  db: Db,
+  user: SessionUser,
+  batch: EntryInput[],
+  /** Import and demo seeding only: entries may carry these other authors, each checked in their own role. */
+  { importAuthors }: { importAuthors?: Map<string, SessionUser> } = {},
+): Promise<PushResult> {
   return db.transaction(async (tx) => {
     const t = tx as unknown as Db;
     const accepted: Accepted[] = [];
@@ -61,7 +67,8 @@ export async function appendEntries(db: Db, user: SessionUser, batch: EntryInput
         if (recordHash(dup) !== recordHash(e)) reject("conflict:entry", "The batch holds two different entries with this id.");
         continue; // answered with the first copy below
       }
-      if (e.authorId !== user.id) {
+      const actor = e.authorId === user.id ? user : importAuthors?.get(e.authorId);
+      if (!actor) {
         reject("forbidden:author", "This entry was written by another user; it can only be sent from that user's session.");
         continue;
       }
@@ -69,8 +76,8 @@ export async function appendEntries(db: Db, user: SessionUser, batch: EntryInput
         reject("forbidden:device", "This tablet has been withdrawn by the facility admin; its entries are not accepted.");
         continue;
       }
-      if (!mayWrite(user.role, e.kind)) {
-        reject("forbidden:kind", `A ${user.role.replace("_", " ")} may not record entries of kind "${e.kind}".`);
+      if (!mayWrite(actor.role, e.kind)) {
+        reject("forbidden:kind", `A ${actor.role.replace("_", " ")} may not record entries of kind "${e.kind}".`);
         continue;
       }
       if (e.cryostatId !== null && !knownCryostats.has(e.cryostatId)) {
@@ -79,12 +86,12 @@ export async function appendEntries(db: Db, user: SessionUser, batch: EntryInput
       }
       if (e.kind === "signature") {
         const meaning = (e.payload as { meaning: Parameters<typeof maySign>[1] }).meaning;
-        if (!maySign(user.role, meaning)) {
-          reject("forbidden:signature", `A ${user.role.replace("_", " ")} may not sign as "${meaning}".`);
+        if (!maySign(actor.role, meaning)) {
+          reject("forbidden:signature", `A ${actor.role.replace("_", " ")} may not sign as "${meaning}".`);
           continue;
         }
       }
-      const problem = await validateAgainstLog(t, e, seenInBatch, user);
+      const problem = await validateAgainstLog(t, e, seenInBatch, actor);
       if (problem) {
         reject(problem.code, problem.message);
         continue;

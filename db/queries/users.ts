@@ -1,8 +1,11 @@
 // Users: look-ups for sign-in and sessions, the admin's list, adding a person, and the sign-in
 // attempts used for throttling and the audit trail.
+import { randomUUID } from "node:crypto";
 import { and, asc, count, eq, gt } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { signInAttempts, users, type Role, type User } from "@/db/schema";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { appendEntries } from "./entries";
 
 export type PublicUser = Pick<User, "id" | "name" | "role" | "active">;
 export type AdminUser = PublicUser & Pick<User, "email" | "createdAt">;
@@ -52,4 +55,49 @@ export async function recentFailures(db: Db, { email, sinceMs }: { email: string
     .from(signInAttempts)
     .where(and(eq(signInAttempts.email, email.trim().toLowerCase()), eq(signInAttempts.ok, false), gt(signInAttempts.at, new Date(Date.now() - sinceMs))));
   return r?.n ?? 0;
+}
+
+export type AccessChange = { role?: Role; active?: boolean };
+
+/**
+ * Change a person's role or access. Their session version moves on, so every session they hold
+ * ends at its next request; the change is a `user.change` entry on the facility chain, written
+ * in the same transaction.
+ */
+export async function changeUserAccess(
+  db: Db,
+  admin: SessionUser,
+  { id, change, deviceId }: { id: string; change: AccessChange; deviceId: string },
+): Promise<{ ok: true; user: AdminUser } | { ok: false; reason: "not_found" | "self" | "no_change" }> {
+  if (id === admin.id) return { ok: false, reason: "self" };
+  return db.transaction(async (tx) => {
+    const t = tx as unknown as Db;
+    const [before] = await t.select().from(users).where(eq(users.id, id));
+    if (!before) return { ok: false as const, reason: "not_found" as const };
+    const changes: { field: "role" | "active"; from: string | boolean; to: string | boolean }[] = [];
+    if (change.role !== undefined && change.role !== before.role) changes.push({ field: "role", from: before.role, to: change.role });
+    if (change.active !== undefined && change.active !== before.active) changes.push({ field: "active", from: before.active, to: change.active });
+    if (!changes.length) return { ok: false as const, reason: "no_change" as const };
+    const [row] = await t
+      .update(users)
+      .set({ role: change.role ?? before.role, active: change.active ?? before.active, sessionVersion: before.sessionVersion + 1 })
+      .where(eq(users.id, id))
+      .returning();
+    const res = await appendEntries(t, admin, [
+      {
+        id: randomUUID(),
+        cryostatId: null,
+        runId: null,
+        kind: "user.change",
+        payload: { userId: id, userName: before.name, changes },
+        authorId: admin.id,
+        deviceId,
+        recordedAt: new Date().toISOString(),
+        supersedes: null,
+        reason: null,
+      },
+    ]);
+    if (res.rejected.length) throw new Error(`audit entry refused: ${res.rejected[0]!.message}`);
+    return { ok: true as const, user: { id: row!.id, name: row!.name, role: row!.role, active: row!.active, email: row!.email, createdAt: row!.createdAt } };
+  });
 }
