@@ -23,10 +23,23 @@ export function UsersAdmin() {
     void refresh().catch(() => setError("No connection to the server."));
   }, [refresh]);
 
+  const change = async (u: AdminUser, body: { role?: AdminUser["role"]; active?: boolean }) => {
+    setError(null);
+    try {
+      const r = await fetch(`/api/users/${encodeURIComponent(u.id)}`, { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+      const res = await r.json();
+      if (!r.ok) setError(res?.error?.message ?? "The change was not saved.");
+      await refresh();
+    } catch {
+      setError("No connection to the server: nothing was changed.");
+    }
+  };
+
   return (
     <div className="grid gap-4 lg:grid-cols-[1fr_22rem]">
       <Panel className="p-0">
         {error && <Notice tone="danger" title={error} role="alert" />}
+        <p className="px-5 pt-4 text-sm text-muted">A change of role or access ends that person&apos;s sessions and is kept on the audit trail.</p>
         {!users && !error && <Loading />}
         {users && (
           <table className="w-full text-left">
@@ -36,6 +49,7 @@ export function UsersAdmin() {
                 <th className="px-5 py-3">Name</th>
                 <th className="px-5 py-3">Email</th>
                 <th className="px-5 py-3">Role</th>
+                <th className="px-5 py-3">Access</th>
               </tr>
             </thead>
             <tbody>
@@ -44,8 +58,27 @@ export function UsersAdmin() {
                   <td className="px-5 py-3 font-semibold">{u.name}</td>
                   <td className="px-5 py-3">{u.email}</td>
                   <td className="px-5 py-3">
-                    <Tag tone={u.role === "facility_admin" ? "accent" : "neutral"}>{ROLE_LABEL[u.role]}</Tag>
-                    {!u.active && <Tag tone="danger">disabled</Tag>}
+                    <label className="sr-only" htmlFor={`role-${u.id}`}>
+                      Role of {u.name}
+                    </label>
+                    <select
+                      id={`role-${u.id}`}
+                      value={u.role}
+                      onChange={(ev) => void change(u, { role: ev.target.value as AdminUser["role"] })}
+                      className="min-h-12 rounded-xl border-2 border-line bg-bg px-3"
+                    >
+                      {Object.entries(ROLE_LABEL).map(([value, label]) => (
+                        <option key={value} value={value}>
+                          {label}
+                        </option>
+                      ))}
+                    </select>
+                  </td>
+                  <td className="px-5 py-3">
+                    {u.active ? <Tag tone="ok">active</Tag> : <Tag tone="danger">disabled</Tag>}
+                    <Button className="ml-2" onClick={() => void change(u, { active: !u.active })}>
+                      {u.active ? "Disable" : "Enable"}
+                    </Button>
                   </td>
                 </tr>
               ))}
