@@ -140,3 +140,13 @@ export async function getRunRecord(db: Db, { runId }: { runId: string }) {
   const names = ids.length ? await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids)) : [];
   return { run, template: template!, entries: list, names: Object.fromEntries(names.map((n) => [n.id, n.name])) };
 }
+
+/** Signing secrets of one user (server only): the stored PIN record and password hash. */
+export async function signingSecrets(db: Db, { userId }: { userId: string }) {
+  const [u] = await db.select({ email: users.email, pinHash: users.pinHash, passwordHash: users.passwordHash, active: users.active }).from(users).where(eq(users.id, userId));
+  return u;
+}
+
+export async function setPinRecord(db: Db, { userId, record }: { userId: string; record: string }): Promise<void> {
+  await db.update(users).set({ pinHash: record }).where(eq(users.id, userId));
+}
