@@ -7,6 +7,8 @@ import { entries, signatures, type EntryRow } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { recordHash } from "@/lib/sync/hash";
+import { auditFindingCheck } from "./audit";
+import { mailProjector } from "./mail";
 import { projectRuns, runChecks } from "./runs";
 import { toStoredRow } from "./stored";
 
@@ -43,7 +45,7 @@ const correctionTarget: Check = async (db, e, batch) => {
   return null;
 };
 
-const checks: Check[] = [signatureBinding, correctionTarget, ...runChecks];
+const checks: Check[] = [signatureBinding, correctionTarget, ...runChecks, auditFindingCheck];
 const projectors: Projector[] = [
   async (db, rows) => {
     const sigs = rows.filter((r) => r.kind === "signature");
@@ -56,6 +58,8 @@ const projectors: Projector[] = [
     }
   },
   projectRuns,
+  // Queues each quench / needs-action finding e-mail once, in the same transaction (delivery is separate).
+  mailProjector,
 ];
 
 export function registerCheck(check: Check): void {
