@@ -22,6 +22,12 @@ export const facilityRulesValuesSchema = z.object({
   controlledAreaMilliTesla: z.number().positive(),
   controlledAreaNote: z.string().max(500),
   forecastWarnDays: z.number().int().min(0).max(60),
+  /** Plausible band of transfer efficiency (litres gained / litres taken, percent) for the audit flag. */
+  transferEfficiencyMinPercent: z.number().min(0).max(100).optional(),
+  transferEfficiencyMaxPercent: z.number().min(0).max(100).optional(),
+  /** Free air volume of the cryostat room (m³) and its ventilation, for oxygen estimates. */
+  roomFreeVolumeM3: z.number().positive().max(100_000).optional(),
+  roomAirChangesPerHour: z.number().min(0).max(100).optional(),
   contacts: z.array(contactSchema).max(20),
 });
 export type FacilityRulesValues = z.infer<typeof facilityRulesValuesSchema>;

@@ -1,0 +1,204 @@
+// The safety officer's audit: the queue of transfers, quenches and incidents not yet audited, each
+// with its automatic flags; one record with its signatures, findings and chain state; the table
+// of all transfers with filters; and the check that a finding names an auditable record.
+// Must not import db/queries/entries.ts (projections import this module).
+import "server-only";
+import { and, asc, desc, eq, gte, inArray, lte, sql } from "drizzle-orm";
+import type { Db } from "@/db/client";
+import { cryostats, entries, facilityRules, signatures, users, type EntryRow } from "@/db/schema";
+import { flagsFor, type AuditRecord, type Flag, type FlagCode } from "@/lib/audit/flags";
+import { transferFigures, quenchFigures, type QuenchFigures, type TransferFigures } from "@/lib/audit/figures";
+import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
+import type { FacilityRulesValues } from "@/lib/schemas/rules";
+import { chainOf } from "@/lib/sync/hash";
+import { chainBreaks } from "./chain";
+import { toStoredRow } from "./stored";
+
+export const AUDITED_KINDS = ["transfer", "quench", "incident"] as const;
+
+type Problem = { code: string; message: string };
+
+/** A finding must name a stored transfer, quench or incident of the same cryostat. */
+export async function auditFindingCheck(db: Db, e: EntryInput, batch: Map<string, EntryInput>): Promise<Problem | null> {
+  if (e.kind !== "audit.finding") return null;
+  const targetId = (e.payload as { targetEntryId: string }).targetEntryId;
+  const inBatch = batch.get(targetId);
+  const [row] = inBatch ? [] : await db.select({ kind: entries.kind, cryostatId: entries.cryostatId }).from(entries).where(eq(entries.id, targetId));
+  const target = inBatch ?? row;
+  if (!target) return { code: "bad_request:audit", message: "The audited record is not on the server." };
+  if (!(AUDITED_KINDS as readonly string[]).includes(target.kind)) return { code: "bad_request:audit", message: `A ${target.kind} entry is not audited; findings are for transfers, quenches and incidents.` };
+  if (target.cryostatId !== e.cryostatId) return { code: "bad_request:audit", message: "A finding belongs to the same cryostat as the record it audits." };
+  return null;
+}
+
+export type SignatureView = { entryId: string; signedEntryId: string; meaning: string; signerId: string; signerName: string; signerRole: string; signedAt: string; signedHash: string };
+export type FindingView = { id: string; verdict: "acceptable" | "needs_action"; findings: string; flags: string[]; authorName: string; recordedAt: string; signatures: SignatureView[] };
+
+export type AuditItem = {
+  entry: StoredEntry;
+  cryostatName: string;
+  authorName: string;
+  peopleNames: string[];
+  flags: Flag[];
+  signatures: SignatureView[];
+  findings: FindingView[];
+  /** The latest signed finding decides: null when not yet audited (no finding with an `audited` signature). */
+  verdict: "acceptable" | "needs_action" | null;
+  figures: TransferFigures | QuenchFigures | null;
+};
+
+async function rulesValues(db: Db): Promise<FacilityRulesValues | null> {
+  const [r] = await db.select().from(facilityRules).orderBy(desc(facilityRules.version)).limit(1);
+  return r?.values ?? null;
+}
+
+/** Everything about a set of auditable entries: names, signatures, findings, flags, figures. */
+async function describeRecords(db: Db, rows: EntryRow[], { keyDir }: { keyDir: string }): Promise<AuditItem[]> {
+  if (!rows.length) return [];
+  const rules = await rulesValues(db);
+  const ids = rows.map((r) => r.id);
+  const people = new Map((await db.select({ id: users.id, name: users.name }).from(users)).map((u) => [u.id, u.name]));
+  const cryos = new Map((await db.select().from(cryostats)).map((c) => [c.id, c]));
+  const sigRows = await db
+    .select({ s: signatures, role: users.role, name: users.name, payload: entries.payload })
+    .from(signatures)
+    .leftJoin(users, eq(users.id, signatures.signerId))
+    .leftJoin(entries, eq(entries.id, signatures.entryId));
+  const sigView = (x: (typeof sigRows)[number]): SignatureView => ({
+    entryId: x.s.entryId,
+    signedEntryId: x.s.signedEntryId,
+    meaning: x.s.meaning,
+    signerId: x.s.signerId,
+    signerName: (x.payload as { signerName?: string } | null)?.signerName ?? x.name ?? x.s.signerId,
+    signerRole: (x.payload as { signerRole?: string } | null)?.signerRole ?? x.role ?? "",
+    signedAt: x.s.signedAt,
+    signedHash: x.s.signedHash,
+  });
+  const sigsBy = new Map<string, SignatureView[]>();
+  for (const x of sigRows) {
+    const list = sigsBy.get(x.s.signedEntryId) ?? [];
+    list.push(sigView(x));
+    sigsBy.set(x.s.signedEntryId, list);
+  }
+  const findingRows = await db
+    .select()
+    .from(entries)
+    .where(and(eq(entries.kind, "audit.finding"), inArray(sql`${entries.payload}->>'targetEntryId'`, ids)))
+    .orderBy(asc(entries.seq));
+  const findingsBy = new Map<string, FindingView[]>();
+  for (const f of findingRows) {
+    const p = f.payload as { targetEntryId: string; verdict: "acceptable" | "needs_action"; findings: string; flags: string[] };
+    const list = findingsBy.get(p.targetEntryId) ?? [];
+    list.push({ id: f.id, verdict: p.verdict, findings: p.findings, flags: p.flags, authorName: people.get(f.authorId) ?? f.authorId, recordedAt: f.recordedAt.toISOString(), signatures: sigsBy.get(f.id) ?? [] });
+    findingsBy.set(p.targetEntryId, list);
+  }
+  const breaks = await chainBreaks(db, { keyDir });
+  // Previous transfer per cryostat, for the boil-off in between.
+  const transfers = await db
+    .select({ id: entries.id, cryostatId: entries.cryostatId, recordedAt: entries.recordedAt, payload: entries.payload })
+    .from(entries)
+    .where(eq(entries.kind, "transfer"))
+    .orderBy(asc(entries.recordedAt));
+
+  return rows.map((row) => {
+    const entry = toStoredRow(row);
+    const sigs = sigsBy.get(row.id) ?? [];
+    const findings = findingsBy.get(row.id) ?? [];
+    const signedFindings = findings.filter((f) => f.signatures.some((s) => s.meaning === "audited"));
+    const rec: AuditRecord = { id: row.id, kind: row.kind, cryostatId: row.cryostatId, seq: row.seq, payload: row.payload, signatures: sigs.filter((s) => s.meaning !== "audited") };
+    const flags = rules ? flagsFor(rec, { rules, chainBreakSeq: breaks.get(chainOf(row.cryostatId)) ?? null }) : [];
+    const c = row.cryostatId ? cryos.get(row.cryostatId) : undefined;
+    let figures: AuditItem["figures"] = null;
+    try {
+      if (row.kind === "transfer") {
+        const mine = transfers.filter((t) => t.cryostatId === row.cryostatId);
+        const idx = mine.findIndex((t) => t.id === row.id);
+        const prev = idx > 0 ? mine[idx - 1] : undefined;
+        figures = transferFigures(row.payload as never, {
+          calibration: c?.config.reservoir?.calibration,
+          previous: prev ? { levelAfterPercent: (prev.payload as { levelAfterPercent: number }).levelAfterPercent, at: prev.recordedAt.toISOString() } : null,
+          at: row.recordedAt.toISOString(),
+        });
+      } else if (row.kind === "quench") {
+        figures = quenchFigures(row.payload as never, { calibration: c?.config.reservoir?.calibration, inductanceH: c?.config.magnet?.inductanceH, roomFreeVolumeM3: rules?.roomFreeVolumeM3 });
+      }
+    } catch {
+      figures = null; // figures are a help, never a reason to hide the record
+    }
+    return {
+      entry,
+      cryostatName: c?.name ?? row.cryostatId ?? "Facility",
+      authorName: people.get(row.authorId) ?? row.authorId,
+      peopleNames: ((row.payload as { peoplePresent?: string[] }).peoplePresent ?? []).map((id) => people.get(id) ?? id),
+      flags,
+      signatures: sigs,
+      findings,
+      verdict: signedFindings.at(-1)?.verdict ?? null,
+      figures,
+    };
+  });
+}
+
+/** Latest version of each record: a correction replaces what it supersedes. */
+function latestOnly(rows: EntryRow[]): EntryRow[] {
+  const superseded = new Set(rows.map((r) => r.supersedes).filter(Boolean));
+  return rows.filter((r) => !superseded.has(r.id));
+}
+
+export async function auditQueue(db: Db, { keyDir }: { keyDir: string }): Promise<AuditItem[]> {
+  const rows = latestOnly(await db.select().from(entries).where(inArray(entries.kind, [...AUDITED_KINDS])).orderBy(desc(entries.recordedAt)));
+  const items = await describeRecords(db, rows, { keyDir });
+  return items.filter((i) => i.verdict === null);
+}
+
+export async function auditRecord(db: Db, { id, keyDir }: { id: string; keyDir: string }): Promise<AuditItem | null> {
+  const [row] = await db.select().from(entries).where(and(eq(entries.id, id), inArray(entries.kind, [...AUDITED_KINDS])));
+  if (!row) return null;
+  const [item] = await describeRecords(db, [row], { keyDir });
+  return item ?? null;
+}
+
+export type TransferFilter = {
+  cryostatId?: string;
+  personId?: string;
+  from?: string;
+  to?: string;
+  flag?: FlagCode;
+  kinds?: (typeof AUDITED_KINDS)[number][];
+  sort?: "date" | "cryostat" | "efficiency" | "flags";
+  dir?: "asc" | "desc";
+};
+
+/** All records of the given kinds (transfers by default) matching the filters, with their flags. */
+export async function auditTable(db: Db, f: TransferFilter & { keyDir: string }): Promise<AuditItem[]> {
+  const kinds = f.kinds?.length ? f.kinds : ["transfer"];
+  const rows = latestOnly(
+    await db
+      .select()
+      .from(entries)
+      .where(
+        and(
+          inArray(entries.kind, kinds),
+          f.cryostatId ? eq(entries.cryostatId, f.cryostatId) : undefined,
+          f.from ? gte(entries.recordedAt, new Date(f.from)) : undefined,
+          f.to ? lte(entries.recordedAt, new Date(f.to)) : undefined,
+        ),
+      )
+      .orderBy(asc(entries.recordedAt)),
+  );
+  let items = await describeRecords(db, rows, { keyDir: f.keyDir });
+  if (f.personId) {
+    const pid = f.personId;
+    items = items.filter((i) => i.entry.authorId === pid || ((i.entry.payload as { peoplePresent?: string[] }).peoplePresent ?? []).includes(pid));
+  }
+  if (f.flag) items = items.filter((i) => i.flags.some((x) => x.code === f.flag));
+  const dir = f.dir === "asc" ? 1 : -1;
+  const eff = (i: AuditItem) => (i.figures && "efficiencyPercent" in i.figures ? (i.figures.efficiencyPercent ?? -1) : -1);
+  const key: Record<NonNullable<TransferFilter["sort"]>, (a: AuditItem, b: AuditItem) => number> = {
+    date: (a, b) => a.entry.recordedAt.localeCompare(b.entry.recordedAt),
+    cryostat: (a, b) => a.cryostatName.localeCompare(b.cryostatName) || a.entry.recordedAt.localeCompare(b.entry.recordedAt),
+    efficiency: (a, b) => eff(a) - eff(b),
+    flags: (a, b) => a.flags.length - b.flags.length || a.entry.recordedAt.localeCompare(b.entry.recordedAt),
+  };
+  return items.sort((a, b) => dir * key[f.sort ?? "date"](a, b));
+}
