@@ -83,7 +83,7 @@ const signatureConfirmation: Check = async (db, e, batch) => {
   const [signer] = await db.select({ pinHash: users.pinHash, passwordHash: users.passwordHash }).from(users).where(eq(users.id, e.authorId));
   if (!signer) return { code: "forbidden:signature", message: "Unknown signer." };
   const ok = verifyConfirmation(
-    { signatureId: e.id, signedEntryId: p.signedEntryId, signedHash: p.signedHash, meaning: p.meaning, signerId: e.authorId },
+    { signedEntryId: p.signedEntryId, signedHash: p.signedHash, meaning: p.meaning, signerId: e.authorId },
     p.confirmedBy,
     p.confirmProof,
     { pinRecord: signer.pinHash, passwordHash: signer.passwordHash },

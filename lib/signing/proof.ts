@@ -1,6 +1,6 @@
 // The identity check behind a signature (R5): the signer proves, just before signing, that they
 // know their PIN or password. The proof is an HMAC over exactly what is being signed, so it cannot
-// be moved to another signature, and the server re-verifies it on push. Runs on tablet and server.
+// be moved to another record or meaning, and the server re-verifies it on push. Runs on tablet and server.
 //
 // PIN:      K = PBKDF2-SHA256(PIN, salt, iterations). The server keeps K (like a password hash);
 //           the tablet keeps only verifier = SHA-256(K), with an expiry. Proof = HMAC(K, message).
@@ -21,11 +21,16 @@ export const PIN_PATTERN = /^[0-9]{6,12}$/;
 
 export type ConfirmedBy = "pin" | "password";
 
-export type SigningSubject = { signatureId: string; signedEntryId: string; signedHash: string; meaning: SignatureMeaning; signerId: string };
+export type SigningSubject = { signedEntryId: string; signedHash: string; meaning: SignatureMeaning; signerId: string };
 
-/** The exact text a proof covers: the signature's own id and everything it binds. */
+/**
+ * The exact text a proof covers: the record (by id and content hash), the meaning and the signer.
+ * The signature entry's own id is left out because the tablet store assigns it on write; a proof
+ * replayed onto a second signature could only repeat the same person's same meaning on the same
+ * record content, which adds nothing.
+ */
 export function signingMessage(s: SigningSubject): string {
-  return ["rimelog-sign/v1", s.signatureId, s.signedEntryId, s.signedHash, s.meaning, s.signerId].join("|");
+  return ["rimelog-sign/v1", s.signedEntryId, s.signedHash, s.meaning, s.signerId].join("|");
 }
 
 export function hmacHex(keyHex: string, message: string): string {

@@ -8,9 +8,23 @@ import type { ConfirmedBy, SigningSubject } from "./proof";
 
 export type Signer = { id: string; name: string; role: Role };
 
-/** Decide the signature's id and what it binds, before the signer is asked for their secret. */
-export function signingSubject(target: EntryInput, signer: Signer, meaning: SignatureMeaning, signatureId: string = crypto.randomUUID()): SigningSubject {
-  return { signatureId, signedEntryId: target.id, signedHash: recordHash(target), meaning, signerId: signer.id };
+/** What a signature binds: the exact record (id + recordHash), the meaning and the signer. */
+export function signingSubject(target: EntryInput, signer: Signer, meaning: SignatureMeaning): SigningSubject {
+  return { signedEntryId: target.id, signedHash: recordHash(target), meaning, signerId: signer.id };
+}
+
+/** The signature's payload, as the tablet store's recordEntry takes it. */
+export function signaturePayload(subject: SigningSubject, signer: Signer, confirmedBy: ConfirmedBy, proof: string, image?: string) {
+  return {
+    signedEntryId: subject.signedEntryId,
+    meaning: subject.meaning,
+    signerName: signer.name,
+    signerRole: signer.role,
+    signedHash: subject.signedHash,
+    ...(image ? { image } : {}),
+    confirmedBy,
+    confirmProof: proof,
+  };
 }
 
 export function signatureEntry(args: {
@@ -25,20 +39,11 @@ export function signatureEntry(args: {
 }): EntryInput {
   const { target, subject, signer } = args;
   return {
-    id: subject.signatureId,
+    id: crypto.randomUUID(),
     cryostatId: target.cryostatId,
     runId: target.runId,
     kind: "signature",
-    payload: {
-      signedEntryId: subject.signedEntryId,
-      meaning: subject.meaning,
-      signerName: signer.name,
-      signerRole: signer.role,
-      signedHash: subject.signedHash,
-      ...(args.image ? { image: args.image } : {}),
-      confirmedBy: args.confirmedBy,
-      confirmProof: args.proof,
-    },
+    payload: signaturePayload(subject, signer, args.confirmedBy, args.proof, args.image),
     authorId: signer.id,
     deviceId: args.deviceId,
     recordedAt: args.recordedAt ?? new Date().toISOString(),

@@ -29,13 +29,16 @@ export function forgetPin(userId: string): void {
   localStorage.removeItem(KEY(userId));
 }
 
-export type PinResult = { ok: true; proof: string } | { ok: false; reason: "no_pin" | "expired" | "wrong" | "locked"; left?: number };
+export type PinUnlock = { ok: true; key: string } | { ok: false; reason: "no_pin" | "expired" | "wrong" | "locked"; left?: number };
 
-/** Check a typed PIN against the cached verifier and, if right, make the proof for this signature. */
-export async function proveWithPin(subject: SigningSubject, pin: string, now = Date.now()): Promise<PinResult> {
+/**
+ * Check a typed PIN against the cached verifier. On success the derived key is returned to make
+ * proofs with (keep it in memory for this one signing only, never store it).
+ */
+export async function unlockPin(userId: string, pin: string, now = Date.now()): Promise<PinUnlock> {
   let raw: string | null = null;
   try {
-    raw = localStorage.getItem(KEY(subject.signerId));
+    raw = localStorage.getItem(KEY(userId));
   } catch {
     /* storage unavailable: treated as no PIN */
   }
@@ -46,12 +49,16 @@ export async function proveWithPin(subject: SigningSubject, pin: string, now = D
   if (!sameHex(verifierOf(key), c.verifier)) {
     const failures = c.failures + 1;
     if (failures >= PIN_MAX_FAILURES) {
-      forgetPin(subject.signerId);
+      forgetPin(userId);
       return { ok: false, reason: "locked" };
     }
-    localStorage.setItem(KEY(subject.signerId), JSON.stringify({ ...c, failures }));
+    localStorage.setItem(KEY(userId), JSON.stringify({ ...c, failures }));
     return { ok: false, reason: "wrong", left: PIN_MAX_FAILURES - failures };
   }
-  if (c.failures) localStorage.setItem(KEY(subject.signerId), JSON.stringify({ ...c, failures: 0 }));
-  return { ok: true, proof: hmacHex(key, signingMessage(subject)) };
+  if (c.failures) localStorage.setItem(KEY(userId), JSON.stringify({ ...c, failures: 0 }));
+  return { ok: true, key };
+}
+
+export function pinProof(key: string, subject: SigningSubject): string {
+  return hmacHex(key, signingMessage(subject));
 }

@@ -86,7 +86,8 @@ describe("signatures", () => {
     const { hold } = await startRun(db);
     const good = await pinSignature(db, hold, tomasz, "verified");
     const bare = { ...good, id: randomUUID(), payload: { ...good.payload, confirmedBy: undefined, confirmProof: undefined } };
-    const reused = { ...good, id: randomUUID() }; // proof covers the first signature's id only
+    // The proof covers the meaning too: the same proof under another meaning is refused.
+    const reused = { ...good, id: randomUUID(), payload: { ...good.payload, meaning: "performed" } };
     const res = await appendEntries(db, tomasz, [bare, reused]);
     expect(res.rejected.map((r) => r.code)).toEqual(["forbidden:signature", "forbidden:signature"]);
 

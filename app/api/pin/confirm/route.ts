@@ -12,7 +12,6 @@ export const dynamic = "force-dynamic";
 
 const schema = z.object({
   password: z.string().min(1).max(200),
-  signatureId: z.uuid(),
   signedEntryId: z.uuid(),
   signedHash: z.string().regex(/^[0-9a-f]{64}$/),
   meaning: z.enum(SIGNATURE_MEANINGS),
