@@ -44,7 +44,7 @@ function run(cmd, args, env = {}) {
 function finish(failedStage) {
   console.log("\nStage timings:");
   for (const { name, ms, ok } of timings) {
-    console.log(`  ${ok ? "ok  " : "FAIL"}  ${name.padEnd(34)} ${seconds(ms).padStart(9)}`);
+    console.log(`  ${ok ? "ok  " : "FAIL"}  ${name.padEnd(56)} ${seconds(ms).padStart(9)}`);
   }
   if (failedStage) {
     banner(`FAILED at stage: ${failedStage} — later stages were not run`);
