@@ -147,28 +147,27 @@ async function markRejected(db: RimelogDexie, rejected: { id: string; code: stri
 
 /** Apply a push answer in one transaction; only ids that were in the batch are touched. */
 export async function applyPushReply(db: RimelogDexie, reply: PushReply, sent: Set<string>, now: () => Date) {
-  let accepted = 0;
-  let rejected = 0;
+  const acc = reply.accepted.filter((a) => sent.has(a.id));
+  const accIds = new Set(acc.map((a) => a.id));
+  const rej = reply.rejected.filter((r) => sent.has(r.id) && !accIds.has(r.id));
+  const at = now().toISOString();
   await db.transaction("rw", [db.entries, db.outbox], async () => {
-    for (const a of reply.accepted) {
-      if (!sent.has(a.id)) continue;
-      const local = await db.entries.get(a.id);
+    const ids = [...acc.map((a) => a.id), ...rej.map((r) => r.id)];
+    const locals = await db.entries.bulkGet(ids);
+    const updated: StoredLocalEntry[] = [];
+    acc.forEach((a, i) => {
+      const local = locals[i];
       // A pull may already have brought the full server copy; keep its prevHash/receivedAt.
-      if (local && local.seq === null) await db.entries.update(a.id, { sync: "synced", seq: a.seq, hash: a.hash, rejection: null });
-      await db.outbox.where("entryId").equals(a.id).delete();
-      accepted += 1;
-    }
-    for (const r of reply.rejected) {
-      if (!sent.has(r.id)) continue;
-      const local = await db.entries.get(r.id);
-      if (local && local.seq === null) {
-        await db.entries.update(r.id, { sync: "rejected", rejection: { code: r.code, message: r.message, at: now().toISOString() } });
-      }
-      await db.outbox.where("entryId").equals(r.id).delete();
-      rejected += 1;
-    }
+      if (local && local.seq === null) updated.push({ ...local, sync: "synced", seq: a.seq, hash: a.hash, rejection: null });
+    });
+    rej.forEach((r, j) => {
+      const local = locals[acc.length + j];
+      if (local && local.seq === null) updated.push({ ...local, sync: "rejected", rejection: { code: r.code, message: r.message, at } });
+    });
+    if (updated.length) await db.entries.bulkPut(updated);
+    if (ids.length) await db.outbox.where("entryId").anyOf(ids).delete();
   });
-  return { accepted, rejected };
+  return { accepted: acc.length, rejected: rej.length };
 }
 
 async function pullAll(db: RimelogDexie, transport: Transport, now: () => Date): Promise<number> {
