@@ -2,10 +2,10 @@
 // The bar on every signed-in screen: where you are, who you are, theme, sign-out.
 import Link from "next/link";
 import { usePathname } from "next/navigation";
-import { signOut } from "next-auth/react";
-import { Button } from "@/components/ui/button";
+import { SignOutButton } from "@/components/sync/sign-out-button";
+import { SyncIndicator } from "@/components/sync/sync-indicator";
 import { ROLE_LABEL } from "@/lib/auth/permissions";
-import { forgetMe, useMe } from "./use-me";
+import { useMe } from "./use-me";
 import { ThemeToggle } from "./theme-toggle";
 
 const NAV: { href: string; label: string; roles?: string[] }[] = [
@@ -41,7 +41,7 @@ export function AppHeader() {
           })}
         </nav>
         <div className="ml-auto flex flex-wrap items-center gap-2">
-          <div id="sync-slot" />
+          <SyncIndicator />
           {me && (
             <p className="px-2 text-right leading-tight">
               <span className="block font-semibold">{me.name}</span>
@@ -49,14 +49,7 @@ export function AppHeader() {
             </p>
           )}
           <ThemeToggle />
-          <Button
-            onClick={() => {
-              forgetMe();
-              void signOut({ callbackUrl: "/signin" });
-            }}
-          >
-            Sign out
-          </Button>
+          <SignOutButton />
         </div>
       </div>
     </header>
