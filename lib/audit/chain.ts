@@ -67,12 +67,12 @@ export function verifyChain(
     if (ownOk && linkOk) continue;
     const lastGood = prev ? prev.seq : null;
     const linkedTo = positionOfHash.get(row.prevHash);
+    if (linkedTo !== undefined && linkedTo > i) {
+      return fail("reordered", row, lastGood, `Entry seq ${row.seq} is out of order: it links to an entry that now comes after it. Rows were reordered in the database.`);
+    }
     const next = rows[i + 1];
     if (!linkOk && ((next && next.prevHash === expectedPrev) || (!next && head && head.hash === expectedPrev))) {
       return fail("inserted", row, lastGood, `Entry seq ${row.seq} was inserted into the chain: the entries around it link to each other, not to it.`);
-    }
-    if (linkedTo !== undefined && linkedTo > i) {
-      return fail("reordered", row, lastGood, `Entry seq ${row.seq} is out of order: it links to an entry that now comes after it. Rows were reordered in the database.`);
     }
     if (!ownOk) {
       return fail("changed", row, lastGood, `Entry seq ${row.seq} was changed after it was stored: its content no longer matches its hash.`);
