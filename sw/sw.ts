@@ -11,7 +11,13 @@ declare global {
 }
 declare const self: ServiceWorkerGlobalScope;
 
-const serwist = new Serwist({
+const pages = new NetworkFirst({ cacheName: "pages", networkTimeoutSeconds: 4 });
+// Every cryostat page has the same HTML (the id is read from the address on the tablet), so a
+// cryostat never opened online is still served offline from the precached template.
+const CRYOSTAT_PAGE = /^\/cryostats\/[^/]+\/?$/;
+const CRYOSTAT_TEMPLATE = "/cryostats/_";
+
+const serwist: Serwist = new Serwist({
   precacheEntries: self.__SW_MANIFEST,
   precacheOptions: { ignoreURLParametersMatching: [/.*/] },
   skipWaiting: false,
@@ -20,9 +26,18 @@ const serwist = new Serwist({
   runtimeCaching: [
     { matcher: ({ url, sameOrigin }) => sameOrigin && url.pathname.startsWith("/api/"), handler: new NetworkOnly() },
     {
-      matcher: ({ request, sameOrigin }) => sameOrigin && request.mode === "navigate",
-      handler: new NetworkFirst({ cacheName: "pages", networkTimeoutSeconds: 4 }),
+      matcher: ({ request, url, sameOrigin }) => sameOrigin && request.mode === "navigate" && CRYOSTAT_PAGE.test(url.pathname),
+      handler: async (options) => {
+        try {
+          return await pages.handle(options);
+        } catch (e) {
+          const template = await serwist.matchPrecache(CRYOSTAT_TEMPLATE);
+          if (template) return template;
+          throw e;
+        }
+      },
     },
+    { matcher: ({ request, sameOrigin }) => sameOrigin && request.mode === "navigate", handler: pages },
     {
       matcher: ({ request, sameOrigin }) => sameOrigin && ["style", "script", "font", "image", "worker"].includes(request.destination),
       handler: new CacheFirst({ cacheName: "assets" }),

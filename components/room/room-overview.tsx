@@ -1,53 +1,46 @@
 "use client";
-// The room at a glance: one card per cryostat with its state and latest figures.
+// The room at a glance: one card per cryostat with its state and latest figures, read from the
+// tablet store (pulled entries + this tablet's unsent ones), so it works with no network.
 import Link from "next/link";
-import { useEffect, useState } from "react";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
-import { Button } from "@/components/ui/button";
-import type { CryostatOverview } from "@/db/queries/cryostats";
 import { formatTemperature, formatWhen, kindLabel, stateLabel, trim } from "@/lib/format";
-
-type Load = { status: "loading" } | { status: "error"; message: string } | { status: "ok"; cryostats: CryostatOverview[] };
+import { useCryostats, useEntries, useSyncSummary, useUserNames, type LocalCryostat } from "@/lib/local/hooks";
+import { overviewOf } from "@/lib/local/overview";
 
 const STATE_TONE = { cold: "ok", cooling: "accent", warming: "warn", warm: "neutral", maintenance: "neutral" } as const;
 
 export function RoomOverview() {
-  const [load, setLoad] = useState<Load>({ status: "loading" });
-  const [attempt, setAttempt] = useState(0);
-  useEffect(() => {
-    let live = true;
-    fetch("/api/cryostats", { cache: "no-store" })
-      .then(async (r) => {
-        const body = await r.json();
-        if (!r.ok) throw new Error(body?.error?.message ?? `The server answered ${r.status}.`);
-        if (live) setLoad({ status: "ok", cryostats: body.cryostats });
-      })
-      .catch((e: Error) => live && setLoad({ status: "error", message: e.message.includes("fetch") ? "No connection to the server." : e.message }));
-    return () => {
-      live = false;
-    };
-  }, [attempt]);
+  const cryostats = useCryostats();
+  const entries = useEntries();
+  const names = useUserNames();
+  const summary = useSyncSummary();
 
-  if (load.status === "loading") return <Loading label="Loading the room…" />;
-  if (load.status === "error")
-    return (
-      <Notice tone="danger" title="Could not load the room" role="alert">
-        <p className="mb-2">{load.message}</p>
-        <Button onClick={() => setAttempt((n) => n + 1)}>Try again</Button>
+  if (cryostats === undefined || entries === undefined) return <Loading label="Loading the room…" />;
+  if (cryostats.length === 0) {
+    return summary?.lastSuccess ? (
+      <Notice title="No cryostats yet">The facility admin has not added any cryostats.</Notice>
+    ) : (
+      <Notice tone="warn" title="This tablet has not been filled yet" role="status">
+        The room&apos;s data comes with the first sync. Connect to the network; it arrives within a few seconds.
       </Notice>
     );
+  }
   return (
     <ul className="grid gap-4 md:grid-cols-2 xl:grid-cols-3">
-      {load.cryostats.map((c) => (
+      {cryostats.map((c) => (
         <li key={c.id}>
-          <CryostatCard c={c} />
+          <CryostatCard c={c} list={entries.filter((e) => e.cryostatId === c.id)} names={names} />
         </li>
       ))}
     </ul>
   );
 }
 
-function CryostatCard({ c }: { c: CryostatOverview }) {
+function CryostatCard({ c, list, names }: { c: LocalCryostat; list: Parameters<typeof overviewOf>[0]; names: Record<string, string> }) {
+  const o = overviewOf(
+    list,
+    c.config.stages.map((s) => s.key),
+  );
   const labelOf = new Map(c.config.stages.map((s) => [s.key, s.label]));
   const minimum = c.config.reservoir?.minimumPercent;
   return (
@@ -59,13 +52,13 @@ function CryostatCard({ c }: { c: CryostatOverview }) {
             {c.location} · {c.config.description?.split(",")[0]}
           </p>
         </div>
-        <Tag tone={c.state ? STATE_TONE[c.state] : "neutral"}>{stateLabel(c.state)}</Tag>
+        <Tag tone={o.state ? STATE_TONE[o.state] : "neutral"}>{stateLabel(o.state)}</Tag>
       </div>
-      {c.stages.length > 0 && (
+      {o.stages.length > 0 && (
         <table className="w-full text-left">
           <caption className="sr-only">Latest stage temperatures</caption>
           <tbody>
-            {c.stages.map((s) => (
+            {o.stages.map((s) => (
               <tr key={s.stage} className="border-t border-line">
                 <th scope="row" className="py-1 font-normal text-muted">
                   {labelOf.get(s.stage) ?? s.stage}
@@ -78,27 +71,32 @@ function CryostatCard({ c }: { c: CryostatOverview }) {
       )}
       <dl className="grid grid-cols-2 gap-2">
         {c.config.reservoir && (
-          <Fact label="Helium level" warn={c.helium !== null && minimum !== undefined && c.helium.percent < minimum}>
-            {c.helium ? `${trim(c.helium.percent)} %` : "—"}
+          <Fact label="Helium level" warn={o.helium !== null && minimum !== undefined && o.helium.percent < minimum}>
+            {o.helium ? `${trim(o.helium.percent)} %` : "—"}
             {minimum !== undefined && <span className="block text-sm font-normal text-muted">minimum {minimum} %</span>}
           </Fact>
         )}
         {c.config.magnet && (
           <Fact label="Field">
-            {c.field ? `${trim(c.field.fieldT)} T` : "—"}
-            {c.field && <span className="block text-sm font-normal text-muted">{c.field.persistent ? "persistent mode" : "driven by supply"}</span>}
+            {o.field ? `${trim(o.field.fieldT)} T` : "—"}
+            {o.field && <span className="block text-sm font-normal text-muted">{o.field.persistent ? "persistent mode" : "driven by supply"}</span>}
           </Fact>
         )}
-        <Fact label="On shift">{c.onShift?.name ?? "—"}</Fact>
+        <Fact label="On shift">{o.onShift ? (names[o.onShift.userId] ?? o.onShift.userId) : "—"}</Fact>
         <Fact label="Last entry">
-          {c.lastEntry ? kindLabel(c.lastEntry.kind) : "—"}
-          {c.lastEntry && (
+          {o.lastEntry ? kindLabel(o.lastEntry.kind) : "—"}
+          {o.lastEntry && (
             <span className="block text-sm font-normal text-muted">
-              {formatWhen(c.lastEntry.at)}, {c.lastEntry.authorName}
+              {formatWhen(o.lastEntry.at)}, {names[o.lastEntry.authorId] ?? o.lastEntry.authorId}
             </span>
           )}
         </Fact>
       </dl>
+      {o.pending > 0 && (
+        <p className="text-sm font-semibold text-accent">
+          {o.pending} {o.pending === 1 ? "entry" : "entries"} on this tablet not sent yet
+        </p>
+      )}
       <Link href={`/cryostats/${c.id}`} className="mt-auto flex min-h-12 items-center justify-center rounded-xl border-2 border-accent font-semibold text-accent hover:bg-sunk">
         Open {c.name}
       </Link>

@@ -1,14 +1,9 @@
-import { CryostatCharts } from "@/components/charts/cryostat-charts";
-import { CryostatLogbook } from "@/components/logbook/cryostat-logbook";
+// A cryostat: quick entries and its logbook. The HTML is the same for every cryostat and user
+// (no data in it), so the service worker serves one cached copy offline; data comes from Dexie.
+import { CryostatScreen } from "@/components/logbook/cryostat-screen";
 
-export const metadata = { title: "Logbook" };
+export const metadata = { title: "Cryostat" };
 
-export default async function CryostatPage({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  return (
-    <>
-      <CryostatLogbook cryostatId={id} />
-      <div className="mt-6"><CryostatCharts cryostatId={id} /></div>
-    </>
-  );
+export default function CryostatPage() {
+  return <CryostatScreen />;
 }

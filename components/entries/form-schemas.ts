@@ -1,0 +1,35 @@
+// Form-side versions of the shared payload schemas: the same rules, but numbers arrive as typed
+// text ("3,9" or "3.9") and empty optional fields as "". Parsed values go to recordEntry, which
+// validates again with the shared schema.
+import { z } from "zod";
+import { fieldSettingPayload, heliumLevelPayload, notePayload, readingPayload } from "@/lib/schemas/entry";
+
+function toNumber(v: unknown): unknown {
+  if (typeof v !== "string") return v;
+  const t = v.trim().replace(",", ".").replace(/\s/g, "");
+  if (t === "") return undefined;
+  return /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t) ? Number(t) : Number.NaN;
+}
+const num = (msg = "Enter a number") => z.preprocess(toNumber, z.number({ message: msg }).refine(Number.isFinite, msg));
+const optNum = () => z.preprocess(toNumber, z.number({ message: "Enter a number" }).refine(Number.isFinite, "Enter a number").optional());
+const optText = (max: number) => z.preprocess((v) => (typeof v === "string" && v.trim() === "" ? undefined : v), z.string().max(max).optional());
+
+export const readingForm = readingPayload.extend({
+  quantity: z.string().trim().min(1, "Say what was read").max(80),
+  value: num("Enter the reading as a number"),
+  stage: optText(40),
+  comment: optText(1000),
+});
+export const noteForm = notePayload.extend({ text: z.string().trim().min(1, "Write the note").max(4000) });
+export const heliumForm = heliumLevelPayload.extend({
+  percent: num("Enter the level in percent").pipe(z.number().min(0, "0 to 100 %").max(100, "0 to 100 %")),
+  litres: optNum().pipe(z.number().min(0).optional()),
+});
+export const fieldForm = fieldSettingPayload.extend({
+  currentA: num("Enter the current in amperes"),
+  fieldT: num("Enter the field in tesla"),
+  rampRateTPerMin: optNum().pipe(z.number().positive("A ramp rate is above zero").optional()),
+  comment: optText(1000),
+});
+
+export type FormIn<S extends z.ZodType> = z.input<S>;
