@@ -4,6 +4,7 @@
 // magnet's field history. Data: the cryostat's series (online, remembered for offline use).
 import { useCallback, useEffect, useMemo, useState } from "react";
 import type uPlotType from "uplot";
+import { Button } from "@/components/ui/button";
 import { Notice, Panel } from "@/components/ui/panel";
 import { figure } from "@/components/cryo/derive";
 import { useCryostatSeries, type CryostatSeries } from "@/components/cryo/use-cryo-data";
@@ -13,22 +14,54 @@ import { UplotChart, type Palette } from "./uplot-chart";
 
 const HEIGHT = 260;
 
+/** Time ticks as the room reads them: "5 Nov", or "14:00" when the span is short. */
+function timeTicks(u: uPlotType, splits: number[]): string[] {
+  const span = (u.scales.x?.max ?? 0) - (u.scales.x?.min ?? 0);
+  return splits.map((s) => {
+    const d = new Date(s * 1000);
+    return span < 2 * 86_400
+      ? d.toLocaleString("en-GB", { day: "numeric", month: "short", hour: "2-digit", minute: "2-digit" })
+      : d.toLocaleDateString("en-GB", { day: "numeric", month: "short" });
+  });
+}
+
 function baseAxes(p: Palette, yLabel: string, yValues?: uPlotType.Axis["values"]): uPlotType.Axis[] {
   const common = { stroke: p.axis, grid: { stroke: p.grid, width: 1 }, ticks: { stroke: p.grid, width: 1 }, font: p.font, labelFont: p.font };
-  return [{ ...common }, { ...common, label: yLabel, size: 64, ...(yValues ? { values: yValues } : {}) }];
+  return [
+    { ...common, values: timeTicks, space: 70 },
+    { ...common, label: yLabel, size: 64, ...(yValues ? { values: yValues } : {}) },
+  ];
 }
+
+const LEGEND = { live: false };
 
 /** Kelvin tick labels in the unit a fridge person reads. */
 function kelvinTicks(_u: uPlotType, splits: number[]): string[] {
   return splits.map((k) => (k == null ? "" : k < 1 ? `${figure(k * 1000, 3)} mK` : `${figure(k, 3)} K`));
 }
 
+const HOUR_MS = 3_600_000;
+
 function StageChart({ series }: { series: CryostatSeries }) {
-  const withPoints = useMemo(() => series.stages.filter((s) => s.points.length > 0), [series]);
+  const last = (series.cooldowns ?? []).at(-1); // a copy remembered by an older build may lack it
+  // Default view: the latest cooldown (plus half a day after "cold"), else the whole history.
+  const [view, setView] = useState<"cooldown" | "all">(last ? "cooldown" : "all");
+  const span = useMemo(
+    () => (view === "cooldown" && last ? { from: last.start - 2 * HOUR_MS, to: (last.end ?? series.generatedAt) + 12 * HOUR_MS } : null),
+    [view, last, series.generatedAt],
+  );
+  const withPoints = useMemo(
+    () =>
+      series.stages
+        .map((s) => ({ ...s, points: span ? s.points.filter((p) => p.t >= span.from && p.t <= span.to) : s.points }))
+        .filter((s) => s.points.length > 0),
+    [series, span],
+  );
   const data = useMemo(() => align(withPoints.map((s) => s.points.map((p) => ({ t: p.t, y: p.k })))), [withPoints]);
   const options = useCallback(
     (p: Palette): Omit<uPlotType.Options, "width"> => ({
       height: HEIGHT,
+      legend: LEGEND,
       scales: { x: { time: true }, y: { distr: 3, log: 10 } },
       axes: baseAxes(p, "Temperature", kelvinTicks),
       series: [
@@ -46,7 +79,22 @@ function StageChart({ series }: { series: CryostatSeries }) {
     [withPoints],
   );
   if (withPoints.length === 0) return <p className="text-muted">No stage temperatures logged yet.</p>;
-  return <UplotChart label="Stage temperatures over time, logarithmic temperature axis" options={options} data={data} />;
+  return (
+    <>
+      {last && (
+        <div role="group" aria-label="Time span" className="mb-2 flex flex-wrap gap-2">
+          <Button variant={view === "cooldown" ? "primary" : "secondary"} aria-pressed={view === "cooldown"} onClick={() => setView("cooldown")}>
+            {last.end ? "Last cooldown" : "Cooldown so far"} ({new Date(last.start).toLocaleDateString("en-GB", { day: "numeric", month: "short" })}
+            {last.end ? `, ${figure((last.end - last.start) / HOUR_MS, 3)} h` : ""})
+          </Button>
+          <Button variant={view === "all" ? "primary" : "secondary"} aria-pressed={view === "all"} onClick={() => setView("all")}>
+            Whole history
+          </Button>
+        </div>
+      )}
+      <UplotChart label="Stage temperatures over time, logarithmic temperature axis" options={options} data={data} />
+    </>
+  );
 }
 
 function HeliumChart({ series, config, nowMs }: { series: CryostatSeries; config: CryostatConfig; nowMs: number }) {
@@ -55,6 +103,7 @@ function HeliumChart({ series, config, nowMs }: { series: CryostatSeries; config
   const options = useCallback(
     (p: Palette): Omit<uPlotType.Options, "width"> => ({
       height: HEIGHT,
+      legend: LEGEND,
       scales: { x: { time: true }, y: { range: (_u, min, max) => [Math.min(0, min), Math.max(max * 1.05, 1)] } },
       axes: baseAxes(p, model?.unit === "L" ? "Liquid helium (L)" : "Level (%)"),
       series: [
@@ -101,6 +150,7 @@ function FieldChart({ series, nowMs }: { series: CryostatSeries; nowMs: number }
   const options = useCallback(
     (p: Palette, lib: typeof uPlotType): Omit<uPlotType.Options, "width"> => ({
       height: 200,
+      legend: LEGEND,
       scales: { x: { time: true }, y: { range: (_u, min, max) => [Math.min(0, min), Math.max(max * 1.1, 0.1)] } },
       axes: baseAxes(p, "Field (T)"),
       series: [
@@ -109,7 +159,7 @@ function FieldChart({ series, nowMs }: { series: CryostatSeries; nowMs: number }
           label: "Field (T)",
           stroke: p.series[3],
           width: 2,
-          fill: p.band,
+          fill: p.fill,
           paths: lib.paths.stepped?.({ align: 1 }),
           points: { size: 6 },
         },
@@ -162,10 +212,12 @@ export function CryostatCharts({ cryostatId }: { cryostatId: string }) {
       {!data && !series.error && <p className="text-muted">Loading charts…</p>}
       {data && nowMs !== null && (
         <>
-          <Panel>
-            <h2 className="mb-2 text-xl font-bold">Stage temperatures</h2>
-            <StageChart series={data} />
-          </Panel>
+          {data.stages.some((s) => s.points.length > 0) && (
+            <Panel>
+              <h2 className="mb-2 text-xl font-bold">Stage temperatures</h2>
+              <StageChart series={data} />
+            </Panel>
+          )}
           {data.helium && config && (
             <Panel>
               <h2 className="mb-2 text-xl font-bold">Helium level</h2>

@@ -15,6 +15,7 @@ export interface Palette {
   muted: string;
   danger: string;
   band: string;
+  fill: string;
   font: string;
 }
 
@@ -29,6 +30,7 @@ function readPalette(el: HTMLElement): Palette {
     muted: v("--c-muted", "#4a5a6e"),
     danger: v("--c-danger", "#b3261e"),
     band: v("--chart-band", "rgba(0,0,0,0.06)"),
+    fill: v("--chart-fill", "rgba(0,0,0,0.06)"),
     font: `13px ${css.fontFamily || "sans-serif"}`,
   };
 }

@@ -25,10 +25,12 @@ export interface CryostatSeries {
     minimumPercent: number | null;
   } | null;
   fields: { t: number; fieldT: number; persistent: boolean }[];
+  /** Each cooldown: from a "cooling" state to the next "cold" (null while still cooling). */
+  cooldowns: { start: number; end: number | null }[];
   generatedAt: number;
 }
 
-export const SERIES_KINDS = ["reading", "helium.level", "transfer", "quench", "field.setting"] as const;
+export const SERIES_KINDS = ["reading", "helium.level", "transfer", "quench", "field.setting", "state"] as const;
 
 const num = (x: unknown): number | undefined => (typeof x === "number" && Number.isFinite(x) ? x : undefined);
 
@@ -62,6 +64,7 @@ export function buildSeries(cryostat: Pick<Cryostat, "id" | "config">, rows: rea
   const levels: { t: number; percent: number; litres: number | null }[] = [];
   const transfers: { t: number; beforePercent: number; afterPercent: number }[] = [];
   const fields: { t: number; fieldT: number; persistent: boolean }[] = [];
+  const cooldowns: { start: number; end: number | null }[] = [];
 
   for (const r of live) {
     const p = r.payload;
@@ -72,11 +75,17 @@ export function buildSeries(cryostat: Pick<Cryostat, "id" | "config">, rows: rea
     } else if (r.kind === "helium.level") {
       const percent = num(p.percent);
       if (percent !== undefined) levels.push({ t: r.t, percent, litres: litres(percent) });
+    } else if (r.kind === "state") {
+      const open = cooldowns.at(-1);
+      if (p.state === "cooling" && !(open && open.end === null)) cooldowns.push({ start: r.t, end: null });
+      else if (p.state === "cold" && open && open.end === null) open.end = r.t;
+      else if (p.state !== "cooling" && open && open.end === null) open.end = r.t; // aborted: warming or maintenance
     } else if (r.kind === "transfer" || r.kind === "quench") {
+      // A transfer's "before" is placed a second earlier so the fill draws as a step. A quench's
+      // "before" is left out: the level logged that day may already be after it.
       const before = num(p.levelBeforePercent);
       const after = num(p.levelAfterPercent);
-      // The "before" figure is placed a second earlier so a step draws vertically.
-      if (before !== undefined) levels.push({ t: r.t - 1000, percent: before, litres: litres(before) });
+      if (before !== undefined && r.kind === "transfer") levels.push({ t: r.t - 1000, percent: before, litres: litres(before) });
       if (after !== undefined) levels.push({ t: r.t, percent: after, litres: litres(after) });
       if (r.kind === "transfer" && before !== undefined && after !== undefined) transfers.push({ t: r.t, beforePercent: before, afterPercent: after });
     } else if (r.kind === "field.setting") {
@@ -94,6 +103,7 @@ export function buildSeries(cryostat: Pick<Cryostat, "id" | "config">, rows: rea
         ? { levels, transfers, capacityLitres: null, minimumPercent: null }
         : null,
     fields,
+    cooldowns,
     generatedAt: now,
   };
 }

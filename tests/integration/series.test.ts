@@ -21,6 +21,9 @@ describe("cryostat series", () => {
     for (const st of s.stages) for (let i = 1; i < st.points.length; i++) expect(st.points[i]!.t).toBeGreaterThanOrEqual(st.points[i - 1]!.t);
     expect(s.helium).toBeNull();
     expect(s.fields.map((f) => f.fieldT)).toEqual([0.045, 2, 0]);
+    // One cooldown: "cooling" at day 7 to "cold" 60 h later (the seed's story).
+    expect(s.cooldowns).toHaveLength(1);
+    expect((s.cooldowns[0]!.end! - s.cooldowns[0]!.start) / 3_600_000).toBeCloseTo(60, 6);
   });
 
   it("Plover: levels with litres from the table calibration, transfers as steps", async () => {

@@ -24,8 +24,11 @@ const ISOTOPES = [
   { value: "he3", label: "³He (0.65–3.2 K)" },
 ];
 
-const fromPa = (pa: number) =>
-  `${figure(pa, 5)} Pa = ${figure(pa / 100, 5)} mbar = ${figure(pa / PRESSURE_UNITS.Torr!, 5)} Torr`;
+const pressureRows = (pa: number) => [
+  { label: "Pressure (Pa)", text: `${figure(pa, 6)} Pa` },
+  { label: "Pressure (mbar)", text: `${figure(pa / 100, 6)} mbar` },
+  { label: "Pressure (Torr)", text: `${figure(pa / PRESSURE_UNITS.Torr!, 6)} Torr` },
+];
 
 export function Its90Section() {
   return (
@@ -41,10 +44,7 @@ export function Its90Section() {
         compute={({ n, s }) => {
           const pa = n.p! * (PRESSURE_UNITS[s.unit!] ?? NaN);
           const k = s.iso === "he3" ? he3TemperatureFromPressure(pa) : he4TemperatureFromPressure(pa);
-          return [
-            { label: "Temperature T90", text: `${figure(k, 6)} K` },
-            { label: "Pressure", text: fromPa(pa) },
-          ];
+          return [{ label: "Temperature T90", text: `${figure(k, 6)} K` }, ...pressureRows(pa)];
         }}
       />
       <Calculator
@@ -55,7 +55,7 @@ export function Its90Section() {
         ]}
         compute={({ n, s }) => {
           const pa = s.iso === "he3" ? he3PressureFromTemperature(n.t!) : he4PressureFromTemperature(n.t!);
-          return [{ label: "Saturated vapour pressure", text: fromPa(pa) }];
+          return pressureRows(pa);
         }}
         footer={
           <p className="text-sm text-muted">
