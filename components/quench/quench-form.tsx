@@ -1,0 +1,184 @@
+"use client";
+// Quench and incident entries on the tablet (offline-capable through the tablet store). The helium
+// lost and the room's oxygen figure are computed as estimates; both kinds always go to the safety
+// officer's audit queue.
+import { useMemo, useState } from "react";
+import { Caution } from "@/components/safety/caution";
+import { useFacilityRules } from "@/components/safety/use-facility-rules";
+import { Button } from "@/components/ui/button";
+import { Notice, Panel } from "@/components/ui/panel";
+import { quenchFigures } from "@/lib/audit/figures";
+import { trim } from "@/lib/format";
+import { useCryostats } from "@/lib/local/hooks";
+import { LocalWriteError, recordEntry } from "@/lib/local/record";
+import { heliumLostText, oxygenEstimateText } from "@/lib/safety/estimates";
+
+const INPUT = "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink focus:border-accent";
+const n = (s: string) => (s.trim() === "" ? undefined : Number(s.replace(",", ".")));
+const localNow = () => {
+  const d = new Date();
+  return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 16);
+};
+
+export function QuenchForm() {
+  const cryostats = useCryostats();
+  const { rules } = useFacilityRules();
+  const [mode, setMode] = useState<"quench" | "incident">("quench");
+  const [cryostatId, setCryostatId] = useState("");
+  const list = mode === "quench" ? (cryostats ?? []).filter((c) => c.config.magnet) : (cryostats ?? []);
+  const cid = list.some((c) => c.id === cryostatId) ? cryostatId : (list[0]?.id ?? "");
+  const cryostat = list.find((c) => c.id === cid);
+  const [f, setF] = useState({ at: localNow(), fieldT: "", currentA: "", levelBefore: "", levelAfter: "", lost: "", oxygen: "", actions: "", title: "", description: "" });
+  const set = (k: keyof typeof f, v: string) => setF((x) => ({ ...x, [k]: v }));
+  const [msg, setMsg] = useState<{ tone: "ok" | "danger"; title: string; problems?: string[] } | null>(null);
+
+  const figures = useMemo(() => {
+    if (mode !== "quench" || n(f.fieldT) === undefined) return null;
+    try {
+      return quenchFigures(
+        { fieldT: n(f.fieldT)!, currentA: n(f.currentA), levelBeforePercent: n(f.levelBefore), levelAfterPercent: n(f.levelAfter), heliumLostLitres: n(f.lost) },
+        { calibration: cryostat?.config.reservoir?.calibration, inductanceH: cryostat?.config.magnet?.inductanceH, roomFreeVolumeM3: rules?.values.roomFreeVolumeM3 },
+      );
+    } catch {
+      return null;
+    }
+  }, [mode, f, cryostat, rules]);
+
+  async function save() {
+    setMsg(null);
+    try {
+      if (mode === "quench") {
+        const lost = n(f.lost) ?? (figures?.heliumLostLitres !== null && figures?.heliumLostBasis === "levels" ? Number(figures.heliumLostLitres.toFixed(1)) : undefined);
+        await recordEntry({
+          cryostatId: cid,
+          kind: "quench",
+          payload: {
+            at: new Date(f.at).toISOString(),
+            fieldT: n(f.fieldT) ?? Number.NaN,
+            ...(n(f.currentA) !== undefined ? { currentA: n(f.currentA) } : {}),
+            ...(n(f.levelBefore) !== undefined ? { levelBeforePercent: n(f.levelBefore) } : {}),
+            ...(n(f.levelAfter) !== undefined ? { levelAfterPercent: n(f.levelAfter) } : {}),
+            ...(lost !== undefined ? { heliumLostLitres: lost } : {}),
+            ...(n(f.oxygen) !== undefined ? { oxygenLowestPercent: n(f.oxygen) } : {}),
+            actions: f.actions,
+          } as never,
+        });
+      } else {
+        await recordEntry({ cryostatId: cid, kind: "incident", payload: { title: f.title, description: f.description, actions: f.actions } });
+      }
+      setMsg({ tone: "ok", title: `${mode === "quench" ? "Quench" : "Incident"} saved on this tablet. It goes to the safety officer with the next sync.` });
+    } catch (e) {
+      setMsg({ tone: "danger", title: (e as Error).message, problems: e instanceof LocalWriteError ? e.problems : [] });
+    }
+  }
+
+  const field = (id: keyof typeof f, label: string, numeric = true) => (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={`q-${id}`} className="font-semibold">
+        {label}
+      </label>
+      <input id={`q-${id}`} inputMode={numeric ? "decimal" : "text"} className={`${INPUT} ${numeric ? "num" : ""}`} value={f[id]} onChange={(e) => set(id, e.target.value)} />
+    </div>
+  );
+
+  return (
+    <div className="grid gap-4 lg:grid-cols-[1fr_24rem]">
+      <Panel>
+        <div className="mb-3 flex gap-2" role="radiogroup" aria-label="What happened">
+          {(["quench", "incident"] as const).map((m) => (
+            <button key={m} type="button" role="radio" aria-checked={mode === m} onClick={() => setMode(m)} className={`min-h-12 rounded-xl border-2 px-4 font-semibold ${mode === m ? "border-accent bg-sunk" : "border-line"}`}>
+              {m === "quench" ? "Magnet quench" : "Other incident"}
+            </button>
+          ))}
+        </div>
+        <form className="flex flex-col gap-3" noValidate onSubmit={(e) => (e.preventDefault(), void save())}>
+          <div className="flex flex-col gap-1">
+            <label htmlFor="q-cryostat" className="font-semibold">
+              Cryostat
+            </label>
+            <select id="q-cryostat" className={INPUT} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
+              {list.map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.name}
+                </option>
+              ))}
+            </select>
+          </div>
+          {mode === "quench" ? (
+            <>
+              <div className="flex flex-col gap-1">
+                <label htmlFor="q-at" className="font-semibold">
+                  Time of the quench
+                </label>
+                <input id="q-at" type="datetime-local" className={INPUT} value={f.at} onChange={(e) => set("at", e.target.value)} />
+              </div>
+              <div className="grid gap-3 sm:grid-cols-2">
+                {field("fieldT", "Field at quench (T)")}
+                {field("currentA", "Current at quench (A)")}
+                {field("levelBefore", "Helium level before (%)")}
+                {field("levelAfter", "Helium level after (%)")}
+                {field("lost", "Helium lost (L), if measured otherwise")}
+                {field("oxygen", "Lowest oxygen reading (%)")}
+              </div>
+            </>
+          ) : (
+            <>
+              {field("title", "What happened (short title)", false)}
+              <div className="flex flex-col gap-1">
+                <label htmlFor="q-description" className="font-semibold">
+                  Description
+                </label>
+                <textarea id="q-description" rows={3} className={INPUT} value={f.description} onChange={(e) => set("description", e.target.value)} />
+              </div>
+            </>
+          )}
+          <div className="flex flex-col gap-1">
+            <label htmlFor="q-actions" className="font-semibold">
+              Actions taken
+            </label>
+            <textarea id="q-actions" rows={3} className={INPUT} value={f.actions} onChange={(e) => set("actions", e.target.value)} />
+          </div>
+          {msg && (
+            <Notice tone={msg.tone} role={msg.tone === "danger" ? "alert" : "status"} title={msg.title}>
+              {msg.problems?.length ? (
+                <ul className="ml-5 list-disc">
+                  {msg.problems.map((p) => (
+                    <li key={p}>{p}</li>
+                  ))}
+                </ul>
+              ) : null}
+            </Notice>
+          )}
+          <Button type="submit" variant="primary" disabled={!cid}>
+            Save {mode === "quench" ? "quench" : "incident"}
+          </Button>
+        </form>
+      </Panel>
+      <div className="flex flex-col gap-4">
+        {mode === "quench" && (
+          <Panel aria-label="Estimates">
+            <h2 className="mb-2 text-lg font-bold">Estimates</h2>
+            {figures?.heliumLostLitres != null ? (
+              <p data-figure="helium-lost">
+                {heliumLostText(
+                  figures.heliumLostLitres,
+                  figures.heliumLostBasis === "levels" ? "from the level before and after" : figures.heliumLostBasis === "recorded" ? "as entered" : "upper bound from the stored energy ½ L I²",
+                )}
+              </p>
+            ) : (
+              <p className="text-muted">Enter the field and the levels (or current) to estimate the helium lost.</p>
+            )}
+            {figures?.gasM3 != null && <p className="num mt-1">≈ {trim(figures.gasM3)} m³ of helium gas at 20 °C, 1 atm.</p>}
+            {figures?.oxygenEstimateFraction != null && rules && (
+              <p data-figure="oxygen-estimate" className="mt-1">
+                {oxygenEstimateText(figures.oxygenEstimateFraction, rules.values, `${trim(figures.gasM3 ?? 0)} m³ mixed into the room's ${rules.values.roomFreeVolumeM3} m³`)}
+              </p>
+            )}
+            {figures && figures.gasM3 != null && !rules?.values.roomFreeVolumeM3 && <p className="mt-1 text-muted">No oxygen estimate: the room's free volume is not set in the facility rules.</p>}
+          </Panel>
+        )}
+        <Caution topic="quench" cryostatId={cid || undefined} cryostatName={cryostat?.name} />
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,335 @@
+"use client";
+// Quick entry of a helium transfer on the tablet (works offline: written to the tablet store, synced
+// later). Shows the transfer cautions with the facility's values, and computes efficiency, gas sent
+// to recovery and boil-off since the previous transfer as the figures are typed.
+import { useMemo, useState } from "react";
+import { Caution } from "@/components/safety/caution";
+import { useFacilityRules } from "@/components/safety/use-facility-rules";
+import { useMe } from "@/components/shell/use-me";
+import { SignDialog } from "@/components/signature/sign-dialog";
+import { writeSignature } from "@/components/signature/write-signature";
+import { Button } from "@/components/ui/button";
+import { Notice, Panel } from "@/components/ui/panel";
+import { transferFigures } from "@/lib/audit/figures";
+import { litresFromLevel, litresFromMass } from "@/lib/cryo";
+import { trim } from "@/lib/format";
+import { useCryostats, useEntries, useUsers } from "@/lib/local/hooks";
+import { LocalWriteError, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
+
+const INPUT = "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink focus:border-accent";
+const numOrUndef = (s: string) => (s.trim() === "" ? undefined : Number(s.replace(",", ".")));
+
+function Field({ id, label, hint, children }: { id: string; label: string; hint?: string; children: React.ReactNode }) {
+  return (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={id} className="font-semibold">
+        {label}
+      </label>
+      {children}
+      {hint && <p className="text-sm text-muted">{hint}</p>}
+    </div>
+  );
+}
+
+export function TransferForm({ initialCryostatId }: { initialCryostatId?: string }) {
+  const { me } = useMe();
+  const cryostats = useCryostats();
+  const users = useUsers();
+  const { rules } = useFacilityRules();
+  const withReservoir = (cryostats ?? []).filter((c) => c.config.reservoir);
+  const [cryostatId, setCryostatId] = useState(initialCryostatId ?? "");
+  const cid = cryostatId || withReservoir[0]?.id || "";
+  const cryostat = withReservoir.find((c) => c.id === cid);
+  const previous = useEntries({ cryostatId: cid || "-", kinds: ["transfer"], limit: 1 });
+
+  const [f, setF] = useState({
+    supplyDewar: "",
+    people: [] as string[],
+    ppeConfirmed: false,
+    oxygenMonitorChecked: false,
+    oxygenLowest: "",
+    levelBefore: "",
+    levelAfter: "",
+    pressureBefore: "",
+    pressureAfter: "",
+    suppliedBy: "level" as "level" | "weight",
+    supplied: "",
+    massBefore: "",
+    massAfter: "",
+    gained: "",
+    duration: "",
+    anomalies: "",
+  });
+  const set = <K extends keyof typeof f>(k: K, v: (typeof f)[K]) => setF((x) => ({ ...x, [k]: v }));
+  const people = f.people.length || !me ? f.people : [me.id];
+
+  const [saved, setSaved] = useState<StoredLocalEntry | null>(null);
+  const [signed, setSigned] = useState(false);
+  const [signing, setSigning] = useState(false);
+  const [error, setError] = useState<{ title: string; problems: string[] } | null>(null);
+  const [busy, setBusy] = useState(false);
+
+  const suppliedLitres = useMemo(() => {
+    if (f.suppliedBy === "level") return numOrUndef(f.supplied);
+    const b = numOrUndef(f.massBefore);
+    const a = numOrUndef(f.massAfter);
+    if (b === undefined || a === undefined || b < a) return undefined;
+    return Number(litresFromMass(b - a).toFixed(1));
+  }, [f.suppliedBy, f.supplied, f.massBefore, f.massAfter]);
+
+  const gainedFromLevels = useMemo(() => {
+    const cal = cryostat?.config.reservoir?.calibration;
+    const b = numOrUndef(f.levelBefore);
+    const a = numOrUndef(f.levelAfter);
+    if (!cal || b === undefined || a === undefined) return undefined;
+    try {
+      return Number((litresFromLevel(a, cal) - litresFromLevel(b, cal)).toFixed(1));
+    } catch {
+      return undefined;
+    }
+  }, [cryostat, f.levelBefore, f.levelAfter]);
+  const gainedLitres = numOrUndef(f.gained) ?? gainedFromLevels;
+
+  const prev = previous?.[0];
+  const figures = useMemo(() => {
+    const b = numOrUndef(f.levelBefore);
+    const a = numOrUndef(f.levelAfter);
+    if (b === undefined || a === undefined || suppliedLitres === undefined || gainedLitres === undefined) return null;
+    try {
+      return transferFigures(
+        { levelBeforePercent: b, levelAfterPercent: a, suppliedLitres, gainedLitres },
+        {
+          calibration: cryostat?.config.reservoir?.calibration,
+          previous: prev ? { levelAfterPercent: (prev.payload as { levelAfterPercent: number }).levelAfterPercent, at: prev.recordedAt } : null,
+          at: new Date().toISOString(),
+        },
+      );
+    } catch {
+      return null;
+    }
+  }, [f.levelBefore, f.levelAfter, suppliedLitres, gainedLitres, cryostat, prev]);
+
+  async function save() {
+    setError(null);
+    setBusy(true);
+    try {
+      const payload = {
+        supplyDewar: f.supplyDewar,
+        peoplePresent: people,
+        ppeConfirmed: f.ppeConfirmed,
+        oxygenMonitorChecked: f.oxygenMonitorChecked,
+        ...(numOrUndef(f.oxygenLowest) !== undefined ? { oxygenLowestPercent: numOrUndef(f.oxygenLowest) } : {}),
+        levelBeforePercent: numOrUndef(f.levelBefore) ?? Number.NaN,
+        levelAfterPercent: numOrUndef(f.levelAfter) ?? Number.NaN,
+        ...(numOrUndef(f.pressureBefore) !== undefined ? { pressureBeforeMbar: numOrUndef(f.pressureBefore) } : {}),
+        ...(numOrUndef(f.pressureAfter) !== undefined ? { pressureAfterMbar: numOrUndef(f.pressureAfter) } : {}),
+        suppliedLitres: suppliedLitres ?? Number.NaN,
+        suppliedBy: f.suppliedBy,
+        ...(f.suppliedBy === "weight" ? { supplyMassBeforeKg: numOrUndef(f.massBefore), supplyMassAfterKg: numOrUndef(f.massAfter) } : {}),
+        gainedLitres: gainedLitres ?? Number.NaN,
+        durationMin: numOrUndef(f.duration) ?? Number.NaN,
+        anomalies: f.anomalies,
+      };
+      const e = await recordEntry({ cryostatId: cid, kind: "transfer", payload: payload as never });
+      setSaved(e);
+    } catch (e) {
+      if (e instanceof LocalWriteError) setError({ title: e.message, problems: e.problems });
+      else setError({ title: (e as Error).message, problems: [] });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  if (saved) {
+    return (
+      <Panel>
+        <Notice tone="ok" role="status" title="Transfer saved on this tablet">
+          It is sent to the server with the next sync and goes to the safety officer's audit queue.
+        </Notice>
+        <div className="mt-4 flex flex-wrap gap-2">
+          {!signed && me && (
+            <Button variant="primary" onClick={() => setSigning(true)}>
+              Sign as performed
+            </Button>
+          )}
+          {signed && <p className="font-semibold text-ok">Signed as performed.</p>}
+          <Button
+            onClick={() => {
+              setSaved(null);
+              setSigned(false);
+            }}
+          >
+            Record another transfer
+          </Button>
+        </div>
+        {signing && me && (
+          <SignDialog
+            me={me}
+            meaning="performed"
+            title="Sign the helium transfer"
+            onClose={() => setSigning(false)}
+            onSign={async (c) => {
+              await writeSignature(saved, me, "performed", c);
+              setSigned(true);
+            }}
+          />
+        )}
+      </Panel>
+    );
+  }
+
+  const ppe = rules?.values.ppe ?? [];
+  const active = (users ?? []).filter((u) => u.active && (u.role === "technician" || u.role === "researcher" || u.role === "safety_officer"));
+
+  return (
+    <div className="grid gap-4 lg:grid-cols-[1fr_24rem]">
+      <Panel>
+        <form
+          className="flex flex-col gap-4"
+          noValidate
+          onSubmit={(e) => {
+            e.preventDefault();
+            void save();
+          }}
+        >
+          <div className="grid gap-3 sm:grid-cols-2">
+            <Field id="t-cryostat" label="Cryostat">
+              <select id="t-cryostat" className={INPUT} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
+                {withReservoir.map((c) => (
+                  <option key={c.id} value={c.id}>
+                    {c.name}
+                  </option>
+                ))}
+              </select>
+            </Field>
+            <Field id="t-supply" label="Supply dewar">
+              <input id="t-supply" className={INPUT} value={f.supplyDewar} onChange={(e) => set("supplyDewar", e.target.value)} placeholder="e.g. D-250-A" />
+            </Field>
+          </div>
+
+          <fieldset className="rounded-xl border-2 border-line p-3">
+            <legend className="px-1 font-semibold">People present</legend>
+            <div className="flex flex-wrap gap-2">
+              {active.map((u) => (
+                <label key={u.id} className="flex min-h-12 items-center gap-2 rounded-xl border-2 border-line px-3">
+                  <input
+                    type="checkbox"
+                    className="h-6 w-6"
+                    checked={people.includes(u.id)}
+                    onChange={(e) => set("people", e.target.checked ? [...people, u.id] : people.filter((p) => p !== u.id))}
+                  />
+                  {u.name}
+                </label>
+              ))}
+            </div>
+            {rules?.values.twoPersonTransfer && people.length < 2 && <p className="mt-2 font-semibold text-warn">The facility's rules require two people present for a transfer.</p>}
+          </fieldset>
+
+          <fieldset className="rounded-xl border-2 border-line p-3">
+            <legend className="px-1 font-semibold">Safety checks</legend>
+            <label className="flex min-h-12 items-center gap-2">
+              <input type="checkbox" className="h-6 w-6" checked={f.ppeConfirmed} onChange={(e) => set("ppeConfirmed", e.target.checked)} />
+              PPE worn{ppe.length ? `: ${ppe.join(", ")}` : ""}
+            </label>
+            <label className="flex min-h-12 items-center gap-2">
+              <input type="checkbox" className="h-6 w-6" checked={f.oxygenMonitorChecked} onChange={(e) => set("oxygenMonitorChecked", e.target.checked)} />
+              Oxygen monitor checked before starting
+            </label>
+            <Field id="t-oxygen" label="Lowest oxygen reading during the transfer (%)" hint={rules ? `Facility alarm level ${rules.values.oxygenAlarmPercent} %` : undefined}>
+              <input id="t-oxygen" inputMode="decimal" className={`${INPUT} num`} value={f.oxygenLowest} onChange={(e) => set("oxygenLowest", e.target.value)} />
+            </Field>
+          </fieldset>
+
+          <div className="grid gap-3 sm:grid-cols-2">
+            <Field id="t-level-before" label="Level before (%)">
+              <input id="t-level-before" inputMode="decimal" className={`${INPUT} num`} value={f.levelBefore} onChange={(e) => set("levelBefore", e.target.value)} />
+            </Field>
+            <Field id="t-level-after" label="Level after (%)">
+              <input id="t-level-after" inputMode="decimal" className={`${INPUT} num`} value={f.levelAfter} onChange={(e) => set("levelAfter", e.target.value)} />
+            </Field>
+            <Field id="t-p-before" label="Pressure before (mbar)">
+              <input id="t-p-before" inputMode="decimal" className={`${INPUT} num`} value={f.pressureBefore} onChange={(e) => set("pressureBefore", e.target.value)} />
+            </Field>
+            <Field id="t-p-after" label="Pressure after (mbar)">
+              <input id="t-p-after" inputMode="decimal" className={`${INPUT} num`} value={f.pressureAfter} onChange={(e) => set("pressureAfter", e.target.value)} />
+            </Field>
+          </div>
+
+          <fieldset className="rounded-xl border-2 border-line p-3">
+            <legend className="px-1 font-semibold">Taken from the supply</legend>
+            <div className="mb-2 flex gap-2" role="radiogroup" aria-label="Litres taken measured by">
+              {(["level", "weight"] as const).map((m) => (
+                <button key={m} type="button" role="radio" aria-checked={f.suppliedBy === m} onClick={() => set("suppliedBy", m)} className={`min-h-12 rounded-xl border-2 px-4 font-semibold ${f.suppliedBy === m ? "border-accent bg-sunk" : "border-line"}`}>
+                  {m === "level" ? "By level" : "By weight"}
+                </button>
+              ))}
+            </div>
+            {f.suppliedBy === "level" ? (
+              <Field id="t-supplied" label="Litres taken from the supply">
+                <input id="t-supplied" inputMode="decimal" className={`${INPUT} num`} value={f.supplied} onChange={(e) => set("supplied", e.target.value)} />
+              </Field>
+            ) : (
+              <div className="grid gap-3 sm:grid-cols-2">
+                <Field id="t-mass-before" label="Supply dewar mass before (kg)">
+                  <input id="t-mass-before" inputMode="decimal" className={`${INPUT} num`} value={f.massBefore} onChange={(e) => set("massBefore", e.target.value)} />
+                </Field>
+                <Field id="t-mass-after" label="Supply dewar mass after (kg)" hint={suppliedLitres !== undefined ? `≈ ${trim(suppliedLitres)} L of liquid (density 0.1247 kg/L)` : undefined}>
+                  <input id="t-mass-after" inputMode="decimal" className={`${INPUT} num`} value={f.massAfter} onChange={(e) => set("massAfter", e.target.value)} />
+                </Field>
+              </div>
+            )}
+          </fieldset>
+
+          <div className="grid gap-3 sm:grid-cols-2">
+            <Field id="t-gained" label="Litres gained in the cryostat" hint={gainedFromLevels !== undefined ? `From the level change: ${trim(gainedFromLevels)} L (leave empty to use it)` : undefined}>
+              <input id="t-gained" inputMode="decimal" className={`${INPUT} num`} value={f.gained} placeholder={gainedFromLevels !== undefined ? String(gainedFromLevels) : ""} onChange={(e) => set("gained", e.target.value)} />
+            </Field>
+            <Field id="t-duration" label="Duration (min)">
+              <input id="t-duration" inputMode="decimal" className={`${INPUT} num`} value={f.duration} onChange={(e) => set("duration", e.target.value)} />
+            </Field>
+          </div>
+          <Field id="t-anomalies" label="Anomalies">
+            <textarea id="t-anomalies" rows={3} className={INPUT} value={f.anomalies} onChange={(e) => set("anomalies", e.target.value)} />
+          </Field>
+
+          {error && (
+            <Notice tone="danger" role="alert" title={error.title}>
+              {error.problems.length > 0 && (
+                <ul className="ml-5 list-disc">
+                  {error.problems.map((p) => (
+                    <li key={p}>{p}</li>
+                  ))}
+                </ul>
+              )}
+            </Notice>
+          )}
+          <Button type="submit" variant="primary" disabled={busy || !cid}>
+            {busy ? "Saving…" : "Save transfer"}
+          </Button>
+        </form>
+      </Panel>
+      <div className="flex flex-col gap-4">
+        <Panel aria-label="Computed figures">
+          <h2 className="mb-2 text-lg font-bold">Computed</h2>
+          {figures ? (
+            <dl className="grid grid-cols-[1fr_auto] gap-x-3 gap-y-1">
+              <dt>Transfer efficiency</dt>
+              <dd className="num font-semibold" data-figure="efficiency">
+                {figures.efficiencyPercent === null ? "—" : `${trim(figures.efficiencyPercent)} %`}
+              </dd>
+              <dt>Lost on the way (liquid)</dt>
+              <dd className="num">{trim(figures.lossLitres)} L</dd>
+              <dt>Gas to recovery (20 °C, 1 atm)</dt>
+              <dd className="num">{trim(figures.gasToRecoveryLitres / 1000)} m³</dd>
+              <dt>Boil-off since last transfer</dt>
+              <dd className="num">{figures.boilOff ? `${trim(figures.boilOff.litresPerDay)} L/day over ${trim(figures.boilOff.days)} d` : "—"}</dd>
+            </dl>
+          ) : (
+            <p className="text-muted">Enter the levels and litres to see efficiency, gas to recovery and boil-off.</p>
+          )}
+        </Panel>
+        <Caution topic="transfer" cryostatId={cid || undefined} cryostatName={cryostat?.name} />
+      </div>
+    </div>
+  );
+}
