@@ -161,7 +161,7 @@ export const entryInputSchema = z.object({
   deviceId: z.string().min(1).max(80),
   recordedAt: z.iso
     .datetime()
-    .refine((s) => new Date(s).toISOString() === s, "must be a UTC time as toISOString() writes it"),
+    .refine((s) => Number.isFinite(Date.parse(s)) && new Date(s).toISOString() === s, "must be a UTC time as toISOString() writes it"),
   supersedes: z.uuid().nullable().default(null),
   reason: z.string().max(1000).nullable().default(null),
 });
