@@ -4,23 +4,12 @@
 // localStorage so the reading forms keep their derived values with no network. The last good copy
 // is shown at once; a fetch refreshes it when the server answers.
 import { useEffect, useState } from "react";
+import type { CalibrationRecord } from "@/db/queries/calibrations";
 import type { CryostatSeries } from "@/db/queries/series";
-import type { CalibrationTable } from "@/lib/cryo";
 
 export type { CryostatSeries };
 
-/** One accepted calibration as the calibrations route returns it. */
-export interface CalibrationRecord {
-  id: string;
-  cryostatId: string;
-  stage: string;
-  sensorKind: CalibrationTable["sensorKind"];
-  sensorLabel: string;
-  attachmentId: string | null;
-  table: CalibrationTable;
-  acceptedBy: string;
-  acceptedAt: string;
-}
+export type { CalibrationRecord };
 
 function read<T>(key: string): T | undefined {
   try {
@@ -104,10 +93,10 @@ export function useCryostatSeries(cryostatId: string | undefined): Remote<Cryost
 }
 
 /** The accepted calibrations of a cryostat, newest per stage first. */
-export function useCalibrations(cryostatId: string | undefined): Remote<CalibrationRecord[]> {
+export function useCalibrations(cryostatId: string | undefined, refresh = 0): Remote<CalibrationRecord[]> {
   return useRemembered(
     cryostatId ? `rimelog-calibrations-${cryostatId}` : null,
-    cryostatId ? `/api/calibrations?cryostatId=${encodeURIComponent(cryostatId)}` : null,
+    cryostatId ? `/api/calibrations?cryostatId=${encodeURIComponent(cryostatId)}${refresh ? `&v=${refresh}` : ""}` : null,
     pickCalibrations,
   );
 }

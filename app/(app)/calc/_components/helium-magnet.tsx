@@ -24,6 +24,7 @@ import {
 import { Calculator, parsePairs } from "@/components/cryo/calc-kit";
 import { durationText, figure } from "@/components/cryo/derive";
 import { EstimateNote } from "@/components/cryo/estimate-note";
+import { Caution } from "@/components/safety/caution";
 import { useCryostatList } from "@/components/cryo/use-cryo-data";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 
@@ -237,6 +238,7 @@ export function MagnetSection() {
   return (
     <>
       <div className="flex flex-col gap-2 lg:col-span-2">
+        <Caution topic="magnet" {...(chosen ? { cryostatId: chosen.id, cryostatName: chosen.name, makerRampLimitTPerMin: m.rampLimitTPerMin } : {})} />
         {magnets.length > 0 ? (
           <PresetPicker label="Magnet" value={key} onChange={setPreset} options={magnets.map((c) => ({ value: c.id, label: c.name }))} />
         ) : (

@@ -21,6 +21,7 @@ import {
 import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS, type ResultRow } from "@/components/cryo/calc-kit";
 import { durationText, figure } from "@/components/cryo/derive";
 import { EstimateNote } from "@/components/cryo/estimate-note";
+import { Caution } from "@/components/safety/caution";
 import { REFERENCE_OPTIONS } from "./helium-magnet";
 
 /** The demo room's free volume and ventilation (room B-014); the facility's own figures replace them. */
@@ -45,6 +46,7 @@ const thresholds = (
 export function OxygenSection() {
   return (
     <>
+      <Caution topic="oxygen" className="lg:col-span-2" />
       <Calculator
         title="Sudden release"
         intro="A volume of gas released at once into the room."
