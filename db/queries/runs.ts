@@ -29,7 +29,8 @@ const bad = (message: string): Problem => ({ code: "bad_request:run", message })
 const runStartCheck: Check = async (db, e) => {
   if (e.kind !== "run.start") return null;
   const p = e.payload as RunStartPayload;
-  if (e.runId !== e.id) return bad("A run's start entry carries the run's own id as runId.");
+  // The start entry's own id is the run's id (the tablet store assigns ids on write, so runId may be left empty).
+  if (e.runId !== null && e.runId !== e.id) return bad("A run's start entry carries no runId, or its own id.");
   if (!e.cryostatId) return bad("A run belongs to a cryostat.");
   const [t] = await db.select().from(procedureTemplates).where(eq(procedureTemplates.id, p.templateId));
   if (!t || t.key !== p.templateKey || t.version !== p.templateVersion) return bad("The procedure template version named by this run is not on the server.");

@@ -1,0 +1,138 @@
+"use client";
+// The procedures start page: runs in progress, the procedures that fit each cryostat (newest
+// template version), finished runs, the signing PIN and the shift handover. All from the tablet
+// store, so it works with no network once the tablet has synced.
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useMemo, useState } from "react";
+import { useMe } from "@/components/shell/use-me";
+import { PinPanel } from "@/components/signature/pin-panel";
+import { Button, buttonClass } from "@/components/ui/button";
+import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import { formatDate } from "@/lib/format";
+import { useCryostats, useEntries, useTemplates, useUserNames, type LocalTemplate } from "@/lib/local/hooks";
+import { recordEntry } from "@/lib/local/record";
+import type { RunStartPayload } from "@/lib/schemas/run";
+import { errorText } from "./run-screen";
+
+/** Newest version of each template key. */
+export function latestOfEach(templates: LocalTemplate[]): LocalTemplate[] {
+  const best = new Map<string, LocalTemplate>();
+  for (const t of templates) if ((best.get(t.key)?.version ?? 0) < t.version) best.set(t.key, t);
+  return [...best.values()].sort((a, b) => a.title.localeCompare(b.title));
+}
+
+export function ProceduresHome() {
+  const { me } = useMe();
+  const router = useRouter();
+  const cryostats = useCryostats();
+  const templates = useTemplates();
+  const runEntries = useEntries({ kinds: ["run.start", "run.abort", "run.complete"] });
+  const names = useUserNames();
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState<string | null>(null);
+
+  const runs = useMemo(() => {
+    const ended = new Map((runEntries ?? []).filter((e) => e.kind !== "run.start" && e.runId && e.sync !== "rejected").map((e) => [e.runId!, e.kind]));
+    return (runEntries ?? [])
+      .filter((e) => e.kind === "run.start" && e.sync !== "rejected")
+      .map((e) => ({ entry: e, payload: e.payload as RunStartPayload, ended: ended.get(e.id) ?? null }))
+      .sort((a, b) => b.entry.recordedAt.localeCompare(a.entry.recordedAt));
+  }, [runEntries]);
+
+  if (!cryostats || !templates || !runEntries) return <Loading label="Loading procedures from this tablet…" />;
+  const latest = latestOfEach(templates);
+  const open = runs.filter((r) => !r.ended);
+  const finished = runs.filter((r) => r.ended).slice(0, 12);
+  const mayStart = me?.role === "technician" || me?.role === "researcher";
+  const nameOf = (id: string | null) => cryostats.find((c) => c.id === id)?.name ?? id ?? "";
+
+  async function start(t: LocalTemplate, cryostatId: string, cryostatName: string) {
+    setBusy(`${t.id}:${cryostatId}`);
+    setError(null);
+    try {
+      const e = await recordEntry({ cryostatId, kind: "run.start", payload: { templateId: t.id, templateKey: t.key, templateVersion: t.version, title: `${t.title} — ${cryostatName}` } });
+      router.push(`/runs?id=${e.id}`);
+    } catch (err) {
+      setError(errorText(err));
+      setBusy(null);
+    }
+  }
+
+  return (
+    <div className="flex flex-col gap-5">
+      {error && (
+        <Notice tone="danger" title="Not started" role="alert">
+          {error}
+        </Notice>
+      )}
+      <section aria-labelledby="open-runs">
+        <h2 id="open-runs" className="mb-2 text-2xl font-bold">
+          In progress
+        </h2>
+        {open.length === 0 ? (
+          <p className="text-muted">No procedure is running.</p>
+        ) : (
+          <ul className="grid gap-3 md:grid-cols-2">
+            {open.map((r) => (
+              <li key={r.entry.id}>
+                <Link href={`/runs?id=${r.entry.id}`} className="flex min-h-20 flex-col justify-center rounded-2xl border-2 border-accent bg-panel px-5 py-3 hover:bg-sunk">
+                  <span className="text-lg font-bold">{r.payload.title}</span>
+                  <span className="text-muted">
+                    {nameOf(r.entry.cryostatId)} · started {formatDate(r.entry.recordedAt)} by {names[r.entry.authorId] ?? r.entry.authorId}
+                  </span>
+                </Link>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+
+      <section aria-labelledby="start" className="flex flex-col gap-3">
+        <h2 id="start" className="text-2xl font-bold">
+          Start a procedure
+        </h2>
+        {!mayStart && <p className="text-muted">Technicians and researchers start procedures; you can open any run and its record.</p>}
+        <div className="grid gap-3 lg:grid-cols-3">
+          {cryostats.map((c) => (
+            <Panel key={c.id} aria-labelledby={`cry-${c.id}`} className="flex flex-col gap-2">
+              <h3 id={`cry-${c.id}`} className="text-xl font-bold">
+                {c.name} <span className="text-base font-normal text-muted">{c.location}</span>
+              </h3>
+              {latest
+                .filter((t) => t.cryostatKinds.includes(c.kind))
+                .map((t) => (
+                  <Button key={t.id} variant="secondary" disabled={!mayStart || busy !== null} onClick={() => void start(t, c.id, c.name)} className="justify-start text-left" aria-label={`Start ${t.title} on ${c.name}`}>
+                    ▶ {t.title} <span className="num ml-auto text-sm text-muted">v{t.version}</span>
+                  </Button>
+                ))}
+              <Link href={`/handover?cryostat=${encodeURIComponent(c.id)}`} className={buttonClass("ghost", "justify-start text-accent")}>
+                Shift handover for {c.name} →
+              </Link>
+            </Panel>
+          ))}
+        </div>
+      </section>
+
+      {finished.length > 0 && (
+        <section aria-labelledby="finished">
+          <h2 id="finished" className="mb-2 text-2xl font-bold">
+            Finished runs
+          </h2>
+          <ul className="flex flex-col gap-2">
+            {finished.map((r) => (
+              <li key={r.entry.id}>
+                <Link href={`/runs?id=${r.entry.id}&view=record`} className="flex min-h-12 flex-wrap items-center gap-2 rounded-xl border border-line bg-panel px-4 py-2 hover:bg-sunk">
+                  <span className="font-semibold">{r.payload.title}</span>
+                  <Tag tone={r.ended === "run.complete" ? "ok" : "danger"}>{r.ended === "run.complete" ? "Completed" : "Aborted"}</Tag>
+                  <span className="text-sm text-muted">{formatDate(r.entry.recordedAt)}</span>
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
+      {me && <PinPanel me={me} />}
+    </div>
+  );
+}
