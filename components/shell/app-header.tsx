@@ -10,6 +10,7 @@ import { ThemeToggle } from "./theme-toggle";
 
 const NAV: { href: string; label: string; roles?: string[] }[] = [
   { href: "/", label: "Room" },
+  { href: "/procedures", label: "Procedures" },
   { href: "/calc", label: "Calculators" },
   { href: "/audit", label: "Audit", roles: ["safety_officer", "facility_admin"] },
   { href: "/admin/users", label: "Admin", roles: ["facility_admin"] },
