@@ -53,7 +53,13 @@ export function parsePushBody(body: unknown): { entries: EntryInput[]; rejected:
   const entries: EntryInput[] = [];
   const rejected: Rejected[] = [];
   list.forEach((raw, i) => {
-    const parsed = parseEntry(raw);
+    let parsed: ReturnType<typeof parseEntry>;
+    try {
+      parsed = parseEntry(raw);
+    } catch {
+      // A schema that throws on odd input must still not fail the other entries.
+      parsed = { ok: false, problems: ["the entry could not be read"] };
+    }
     if (parsed.ok) entries.push(parsed.entry);
     else rejected.push({ id: idOf(raw, i), code: "bad_request:entry", message: `The entry is not valid: ${parsed.problems.join("; ")}` });
   });
