@@ -1,5 +1,7 @@
 // How one log entry reads on screen, per kind. Shared by the logbook, run records and audit.
 import type { StoredEntry } from "@/lib/schemas/entry";
+import { describeEntry } from "@/components/procedures/step-bits";
+import type { RunStepPayload } from "@/lib/schemas/run";
 import { formatDate, formatTemperature, meaningLabel, stateLabel, trim } from "@/lib/format";
 
 type P = Record<string, unknown>;
@@ -82,6 +84,18 @@ export function EntryBody({ entry, names = {} }: { entry: Pick<StoredEntry, "kin
           Audit: <span className="font-semibold">{p.verdict === "acceptable" ? "acceptable" : "needs action"}</span> — {String(p.findings)}
         </p>
       );
+    case "run.start":
+      return (
+        <p>
+          Started <span className="font-semibold">{String(p.title)}</span> <span className="text-muted">(procedure version {num(p.templateVersion)})</span>
+        </p>
+      );
+    case "run.step":
+      return <p>{describeEntry(p as unknown as RunStepPayload)}</p>;
+    case "run.abort":
+      return <p>Aborted: {String(p.reason)}</p>;
+    case "run.complete":
+      return <p>Procedure completed{p.comment ? `: ${String(p.comment)}` : ""}</p>;
     default:
       return <pre className="overflow-x-auto text-sm">{JSON.stringify(p, null, 1)}</pre>;
   }
