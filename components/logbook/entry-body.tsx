@@ -1,6 +1,6 @@
 // How one log entry reads on screen, per kind. Shared by the logbook, run records and audit.
 import type { StoredEntry } from "@/lib/schemas/entry";
-import { describeEntry } from "@/components/procedures/step-bits";
+import { describeEntry } from "@/lib/procedures/describe";
 import type { RunStepPayload } from "@/lib/schemas/run";
 import { formatDate, formatTemperature, meaningLabel, stateLabel, trim } from "@/lib/format";
 
