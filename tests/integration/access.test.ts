@@ -66,10 +66,10 @@ describe("role-restricted routes", () => {
   ];
   for (const c of cases) {
     it(`${c.method} ${c.file}: only ${c.allowed.join(", ")}`, async () => {
-      const mod = (await import(`@/${c.file}`)) as Record<string, never>;
+      const mod = (await import(`@/${c.file}`)) as Record<string, (req: Request, ctx: unknown) => Promise<Response>>;
       for (const u of DEMO_USERS) {
         signIn(u.id);
-        const res = await call(mod[c.method], c.method);
+        const res = await call(mod[c.method]!, c.method);
         expect(`${u.id} ${res.status}`).toBe(`${u.id} ${c.allowed.includes(u.id) ? 200 : 403}`);
       }
     });
