@@ -1,0 +1,71 @@
+// POST /api/attachments — upload one file (raw bytes). Same origin only, with the tablet's id in
+// a custom header (so a cross-site form cannot send it), bounded in size, typed by magic bytes,
+// stored under a server-made name. Retrying the same id and bytes answers the same.
+import { createHash } from "node:crypto";
+import { z } from "zod";
+import { getDb } from "@/db";
+import { getAttachment, saveAttachment } from "@/db/queries/attachments";
+import { requireUser } from "@/lib/auth/require";
+import { env } from "@/lib/env";
+import { AppError } from "@/lib/errors";
+import { handle, json } from "@/lib/http/respond";
+import { cleanFileName, fileStore, MAX_ATTACHMENT_BYTES, newStorageKey, sniffType } from "@/lib/storage/objects";
+
+export const dynamic = "force-dynamic";
+
+function sameOrigin(req: Request): void {
+  const origin = req.headers.get("origin");
+  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
+  let originHost = "";
+  try {
+    originHost = origin ? new URL(origin).host : "";
+  } catch {
+    /* refused below */
+  }
+  if (!host || originHost !== host) throw new AppError("forbidden", "origin", "Uploads are accepted only from Rimelog's own pages.");
+}
+
+export async function POST(req: Request) {
+  return handle(async () => {
+    const user = await requireUser();
+    sameOrigin(req);
+    if ((req.headers.get("content-type") ?? "").toLowerCase() !== "application/octet-stream") {
+      throw new AppError("unsupported", "attachment", "Send the file as application/octet-stream.");
+    }
+    const id = z.uuid().safeParse(req.headers.get("x-rimelog-attachment-id"));
+    if (!id.success) throw new AppError("bad_request", "attachment", "The upload needs the attachment id the tablet made (a UUID).");
+    const declared = Number(req.headers.get("content-length") ?? "0");
+    if (declared > MAX_ATTACHMENT_BYTES) throw new AppError("too_large", "attachment", `The file is over ${MAX_ATTACHMENT_BYTES / 1048576} MB.`);
+    const bytes = new Uint8Array(await req.arrayBuffer());
+    if (bytes.length > MAX_ATTACHMENT_BYTES) throw new AppError("too_large", "attachment", `The file is over ${MAX_ATTACHMENT_BYTES / 1048576} MB.`);
+    if (bytes.length === 0) throw new AppError("bad_request", "attachment", "The file is empty.");
+    const type = sniffType(bytes);
+    if (!type) throw new AppError("unsupported", "attachment", "Only photos (JPEG, PNG, WebP), PDF and plain-text files are accepted.");
+    const sha256 = createHash("sha256").update(bytes).digest("hex");
+    let rawName = "";
+    try {
+      rawName = decodeURIComponent(req.headers.get("x-rimelog-file-name") ?? "");
+    } catch {
+      /* a bad name is replaced below */
+    }
+    const db = await getDb();
+    const existing = await getAttachment(db, { id: id.data });
+    if (existing) {
+      if (existing.sha256 !== sha256) throw new AppError("conflict", "attachment", "Another file is already stored under this id.");
+      return json({ id: existing.id, bytes: existing.bytes, mime: existing.mime, sha256 });
+    }
+    const storageKey = newStorageKey();
+    await fileStore(env().RIMELOG_STORAGE_DIR).put(storageKey, bytes);
+    const { row } = await saveAttachment(db, {
+      id: id.data,
+      fileName: cleanFileName(rawName, type.ext),
+      mime: type.mime,
+      bytes: bytes.length,
+      sha256,
+      storageKey,
+      uploadedBy: user.id,
+    });
+    if (row.sha256 !== sha256) throw new AppError("conflict", "attachment", "Another file is already stored under this id.");
+    return json({ id: row.id, bytes: row.bytes, mime: row.mime, sha256 }, 201);
+  });
+}
