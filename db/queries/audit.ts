@@ -31,7 +31,7 @@ export async function auditFindingCheck(db: Db, e: EntryInput, batch: Map<string
   return null;
 }
 
-export type SignatureView = { entryId: string; signedEntryId: string; meaning: string; signerId: string; signerName: string; signerRole: string; signedAt: string; signedHash: string };
+export type SignatureView = { entryId: string; signedEntryId: string; meaning: string; signerId: string; signerName: string; signerRole: string; signedAt: string; signedHash: string; confirmedBy: string | null; image: string | null };
 export type FindingView = { id: string; verdict: "acceptable" | "needs_action"; findings: string; flags: string[]; authorName: string; recordedAt: string; signatures: SignatureView[] };
 
 export type AuditItem = {
@@ -73,6 +73,8 @@ async function describeRecords(db: Db, rows: EntryRow[], { keyDir }: { keyDir: s
     signerRole: (x.payload as { signerRole?: string } | null)?.signerRole ?? x.role ?? "",
     signedAt: x.s.signedAt,
     signedHash: x.s.signedHash,
+    confirmedBy: (x.payload as { confirmedBy?: string } | null)?.confirmedBy ?? null,
+    image: (x.payload as { image?: string } | null)?.image ?? null,
   });
   const sigsBy = new Map<string, SignatureView[]>();
   for (const x of sigRows) {

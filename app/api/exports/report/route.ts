@@ -1,0 +1,54 @@
+// PDF audit report of a period: every transfer, quench and incident with flags, findings and
+// signature manifestations, and each chain's check.
+import { getDb } from "@/db";
+import { auditTable } from "@/db/queries/audit";
+import { checkChain, listChains } from "@/db/queries/chain";
+import { getRules } from "@/db/queries/rules";
+import { parseSearch, toFilter } from "@/lib/audit/filter-params";
+import { keyDir } from "@/lib/audit/server-tick";
+import { requireUser } from "@/lib/auth/require";
+import { AppError } from "@/lib/errors";
+import { auditReportPdf } from "@/lib/export/pdf";
+import { toReportRecord } from "@/lib/export/records";
+import { handle } from "@/lib/http/respond";
+import { deferral } from "@/lib/safety/cautions";
+import { formatIssues } from "@/lib/schemas/entry";
+
+export const dynamic = "force-dynamic";
+
+export async function GET(req: Request) {
+  return handle(async () => {
+    const user = await requireUser("safety_officer", "facility_admin");
+    const p = parseSearch(req.url);
+    if (!p.success) throw new AppError("bad_request", "export", "Check the period.", formatIssues(p.error));
+    const db = await getDb();
+    const f = toFilter(p.data);
+    const to = f.to ?? new Date().toISOString();
+    const from = f.from ?? new Date(Date.parse(to) - 30 * 86_400_000).toISOString();
+    const items = await auditTable(db, { ...f, from, to, kinds: f.kinds ?? ["transfer", "quench", "incident"], sort: "date", dir: "asc", keyDir: keyDir() });
+    const chains = [];
+    for (const c of await listChains(db)) {
+      const r = await checkChain(db, { chain: c.chain, keyDir: keyDir() });
+      chains.push({ chain: c.chain, ok: r.ok, count: r.count, message: r.ok ? `Signed checkpoints checked: ${r.checkpointsChecked}.` : r.message });
+    }
+    const rules = await getRules(db);
+    const pdf = await auditReportPdf({
+      facilityName: rules?.values.facilityName ?? "Facility",
+      from,
+      to,
+      generatedAt: new Date().toISOString(),
+      generatedBy: `${user.name} (${user.role.replace("_", " ")})`,
+      records: items.map(toReportRecord),
+      chains,
+      deferral: rules ? deferral(rules.values) : "",
+    });
+    return new Response(Buffer.from(pdf), {
+      headers: {
+        "content-type": "application/pdf",
+        "content-disposition": `attachment; filename="rimelog-audit-${from.slice(0, 10)}-to-${to.slice(0, 10)}.pdf"`,
+        "cache-control": "no-store",
+        "x-content-type-options": "nosniff",
+      },
+    });
+  });
+}

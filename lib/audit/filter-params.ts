@@ -1,0 +1,36 @@
+// The audit table's filters as URL query parameters, parsed once for the table, the CSV and the PDF.
+import { z } from "zod";
+import { FLAG_CODES } from "./flags";
+
+export const auditFilterSchema = z.object({
+  cryostat: z.string().max(60).optional(),
+  person: z.string().max(60).optional(),
+  from: z.iso.datetime().optional().or(z.iso.date().optional()),
+  to: z.iso.datetime().optional().or(z.iso.date().optional()),
+  flag: z.enum(FLAG_CODES).optional(),
+  kinds: z.string().regex(/^(transfer|quench|incident)(,(transfer|quench|incident))*$/).optional(),
+  sort: z.enum(["date", "cryostat", "efficiency", "flags"]).optional(),
+  dir: z.enum(["asc", "desc"]).optional(),
+});
+export type AuditFilterParams = z.infer<typeof auditFilterSchema>;
+
+/** A date-only `to` means the end of that day (UTC). */
+export function toFilter(p: AuditFilterParams) {
+  const to = p.to && /^\d{4}-\d{2}-\d{2}$/.test(p.to) ? `${p.to}T23:59:59.999Z` : p.to;
+  const from = p.from && /^\d{4}-\d{2}-\d{2}$/.test(p.from) ? `${p.from}T00:00:00.000Z` : p.from;
+  return {
+    cryostatId: p.cryostat || undefined,
+    personId: p.person || undefined,
+    from,
+    to,
+    flag: p.flag,
+    kinds: p.kinds ? (p.kinds.split(",") as ("transfer" | "quench" | "incident")[]) : undefined,
+    sort: p.sort,
+    dir: p.dir,
+  };
+}
+
+export function parseSearch(url: string) {
+  const params = Object.fromEntries([...new URL(url).searchParams.entries()].filter(([, v]) => v !== ""));
+  return auditFilterSchema.safeParse(params);
+}

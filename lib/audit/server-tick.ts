@@ -1,0 +1,52 @@
+// The server's periodic work for the audit side: sign chain heads that moved (R6 checkpoints) and
+// run the mail checks and delivery. Started lazily by the audit, rules and mail routes and nudged
+// after a sync (`kickServerTick`); each step is idempotent, so an extra run costs nothing.
+import "server-only";
+import { resolve } from "node:path";
+import { getDb } from "@/db";
+import { CHECKPOINT_INTERVAL_MS, signChainHeads } from "@/db/queries/chain";
+import { mailTick } from "@/db/queries/mail";
+import { env } from "@/lib/env";
+import { mailTransport } from "@/lib/mail/transport";
+
+export function keyDir(): string {
+  return resolve(env().RIMELOG_KEY_DIR);
+}
+
+type TickState = { timer?: ReturnType<typeof setInterval>; running?: Promise<void>; soon?: ReturnType<typeof setTimeout> };
+const g = globalThis as unknown as { __rimelogTick?: TickState };
+const state: TickState = (g.__rimelogTick ??= {});
+
+export async function runServerTick(): Promise<void> {
+  if (state.running) return state.running;
+  state.running = (async () => {
+    try {
+      const db = await getDb();
+      await signChainHeads(db, { keyDir: keyDir(), minAgeMs: CHECKPOINT_INTERVAL_MS });
+      await mailTick(db, mailTransport());
+    } catch (e) {
+      console.error("[rimelog] server tick failed", e);
+    } finally {
+      state.running = undefined;
+    }
+  })();
+  return state.running;
+}
+
+/** Start the interval once per process. */
+export function ensureServerTick(intervalMs = 5 * 60_000): void {
+  if (state.timer) return;
+  state.timer = setInterval(() => void runServerTick(), intervalMs);
+  state.timer.unref?.();
+  kickServerTick();
+}
+
+/** Run a tick shortly (debounced), e.g. after a push that may hold a quench or a finding. */
+export function kickServerTick(delayMs = 2_000): void {
+  if (state.soon) return;
+  state.soon = setTimeout(() => {
+    state.soon = undefined;
+    void runServerTick();
+  }, delayMs);
+  state.soon.unref?.();
+}
