@@ -1,0 +1,86 @@
+// The facility's rules document. GET: the PDF in force, for anyone signed in (a download, like every
+// stored file). POST (facility admin): upload a new one — checked by its first bytes and size with
+// a clear message — stored, and put in force as an audited rules change.
+import { createHash, randomUUID } from "node:crypto";
+import { getDb } from "@/db";
+import { getAttachment, saveAttachment } from "@/db/queries/attachments";
+import { changeRules, requireRules } from "@/db/queries/rules";
+import { requireUser } from "@/lib/auth/require";
+import { env } from "@/lib/env";
+import { AppError } from "@/lib/errors";
+import { handle, json } from "@/lib/http/respond";
+import { checkRulesDocument, RULES_DOCUMENT_MAX_BYTES } from "@/lib/safety/rules-document";
+import { cleanFileName, fileStore, newStorageKey } from "@/lib/storage/objects";
+
+export const dynamic = "force-dynamic";
+
+function sameOrigin(req: Request): void {
+  const origin = req.headers.get("origin");
+  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
+  let originHost = "";
+  try {
+    originHost = origin ? new URL(origin).host : "";
+  } catch {
+    /* refused below */
+  }
+  if (!host || originHost !== host) throw new AppError("forbidden", "origin", "Uploads are accepted only from Rimelog's own pages.");
+}
+
+function headerText(req: Request, name: string): string {
+  try {
+    return decodeURIComponent(req.headers.get(name) ?? "");
+  } catch {
+    return "";
+  }
+}
+
+export async function POST(req: Request) {
+  return handle(async () => {
+    const user = await requireUser("facility_admin");
+    sameOrigin(req);
+    if ((req.headers.get("content-type") ?? "").toLowerCase() !== "application/octet-stream") {
+      throw new AppError("unsupported", "rules_document", "Send the file as application/octet-stream.");
+    }
+    const fileName = headerText(req, "x-rimelog-file-name").slice(0, 200) || "rules.pdf";
+    const declared = Number(req.headers.get("content-length") ?? "0");
+    // Refuse early on the declared length; the bytes are checked again below (the header can lie).
+    if (declared > RULES_DOCUMENT_MAX_BYTES) {
+      throw new AppError("too_large", "rules_document", `"${fileName}" is ${(declared / 1048576).toFixed(1)} MB; the limit is ${RULES_DOCUMENT_MAX_BYTES / 1048576} MB. Upload a smaller PDF.`);
+    }
+    const bytes = new Uint8Array(await req.arrayBuffer());
+    const check = checkRulesDocument(bytes, fileName);
+    if (!check.ok) throw new AppError(check.status === 413 ? "too_large" : check.status === 415 ? "unsupported" : "bad_request", "rules_document", check.message);
+    const db = await getDb();
+    const current = await requireRules(db);
+    const sha256 = createHash("sha256").update(bytes).digest("hex");
+    const storageKey = newStorageKey();
+    await fileStore(env().RIMELOG_STORAGE_DIR).put(storageKey, bytes);
+    const { row } = await saveAttachment(db, { id: randomUUID(), fileName: cleanFileName(fileName, "pdf"), mime: "application/pdf", bytes: bytes.length, sha256, storageKey, uploadedBy: user.id });
+    const reason = headerText(req, "x-rimelog-reason").trim() || `New rules document "${row.fileName}" uploaded.`;
+    const rules = await changeRules(db, user, { values: current.values, reason, expectedVersion: current.version, documentAttachmentId: row.id });
+    return json({ rules }, 201);
+  });
+}
+
+export async function GET() {
+  return handle(async () => {
+    await requireUser();
+    const db = await getDb();
+    const rules = await requireRules(db);
+    if (!rules.document) throw new AppError("not_found", "rules_document", "The facility admin has not uploaded the rules document yet.");
+    const row = await getAttachment(db, { id: rules.document.id });
+    const bytes = row ? await fileStore(env().RIMELOG_STORAGE_DIR).get(row.storageKey) : null;
+    if (!row || !bytes) throw new AppError("not_found", "rules_document", "The rules document is missing from storage; ask the facility admin to upload it again.");
+    const ascii = row.fileName.replace(/[^\x20-\x7e]/g, "_").replace(/["\\]/g, "_");
+    return new Response(bytes as unknown as BodyInit, {
+      headers: {
+        "Content-Type": "application/pdf",
+        "Content-Length": String(bytes.length),
+        "Content-Disposition": `attachment; filename="${ascii}"`,
+        "X-Content-Type-Options": "nosniff",
+        "Content-Security-Policy": "sandbox; default-src 'none'",
+        "Cache-Control": "no-store",
+      },
+    });
+  });
+}
