@@ -14,6 +14,7 @@ const NAV: { href: string; label: string; roles?: string[] }[] = [
   { href: "/calc", label: "Calculators" },
   { href: "/audit", label: "Audit", roles: ["safety_officer", "facility_admin"] },
   { href: "/admin/users", label: "Admin", roles: ["facility_admin"] },
+  { href: "/admin/templates", label: "Templates", roles: ["facility_admin"] },
 ];
 
 export function AppHeader() {
