@@ -126,7 +126,7 @@ const started = Date.now();
 const missingChromium = chromiumCheck();
 if (missingChromium) {
   banner("✘ browser check");
-  console.error(missingChromium);
+  console.log(missingChromium);
   timings.push({ name: "browser check", ms: 0, ok: false });
   totals.failed += 1;
   finish("browser check");
