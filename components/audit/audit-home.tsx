@@ -1,0 +1,318 @@
+"use client";
+// The safety officer's desk: the queue of records not yet audited (with flags), the table of all
+// transfers with filters, sorting and exports, and the chain check of each cryostat.
+import Link from "next/link";
+import { useCallback, useEffect, useState } from "react";
+import { Button, buttonClass } from "@/components/ui/button";
+import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import type { AuditItem } from "@/db/queries/audit";
+import type { ChainReport } from "@/db/queries/chain";
+import { FLAG_CODES, FLAG_LABEL } from "@/lib/audit/flags";
+import { formatDate, kindLabel, trim } from "@/lib/format";
+import { FlagTags } from "./flag-tags";
+
+async function getJson<T>(url: string): Promise<T> {
+  const r = await fetch(url, { cache: "no-store" });
+  const body = await r.json().catch(() => ({}));
+  if (!r.ok) throw new Error(body?.error?.message ?? `The server answered ${r.status}.`);
+  return body as T;
+}
+
+const TABS = [
+  { key: "queue", label: "Queue" },
+  { key: "table", label: "All transfers" },
+  { key: "chain", label: "Chain check" },
+] as const;
+
+export function AuditHome() {
+  const [tab, setTab] = useState<(typeof TABS)[number]["key"]>("queue");
+  return (
+    <>
+      <div role="tablist" aria-label="Audit" className="mb-4 flex flex-wrap gap-2">
+        {TABS.map((t) => (
+          <button key={t.key} role="tab" aria-selected={tab === t.key} onClick={() => setTab(t.key)} className={`min-h-12 rounded-xl border-2 px-5 font-semibold ${tab === t.key ? "border-accent bg-sunk" : "border-line"}`}>
+            {t.label}
+          </button>
+        ))}
+      </div>
+      {tab === "queue" && <Queue />}
+      {tab === "table" && <TransferTable />}
+      {tab === "chain" && <ChainCheck />}
+    </>
+  );
+}
+
+function Summary({ i }: { i: AuditItem }) {
+  const p = i.entry.payload as Record<string, unknown>;
+  if (i.entry.kind === "transfer") {
+    const eff = i.figures && "efficiencyPercent" in i.figures ? i.figures.efficiencyPercent : null;
+    return (
+      <span className="num">
+        {trim(Number(p.gainedLitres))} L of {trim(Number(p.suppliedLitres))} L{eff !== null ? ` (${trim(eff)} %)` : ""} · {i.peopleNames.join(", ")}
+      </span>
+    );
+  }
+  if (i.entry.kind === "quench") return <span className="num">at {trim(Number(p.fieldT))} T</span>;
+  return <span>{String(p.title ?? "")}</span>;
+}
+
+function Queue() {
+  const [items, setItems] = useState<AuditItem[] | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  useEffect(() => {
+    getJson<{ items: AuditItem[] }>("/api/audit/queue").then((b) => setItems(b.items), (e: Error) => setError(e.message));
+  }, []);
+  if (error) return <Notice tone="danger" role="alert" title={error} />;
+  if (!items) return <Loading />;
+  if (!items.length) return <Notice tone="ok" title="Nothing waiting: every transfer, quench and incident has a signed audit." />;
+  return (
+    <Panel className="p-0">
+      <table className="w-full text-left">
+        <caption className="px-5 py-3 text-left text-lg font-bold">Waiting for audit ({items.length})</caption>
+        <thead>
+          <tr className="text-sm text-muted">
+            <th className="px-5 py-2">When</th>
+            <th className="px-5 py-2">What</th>
+            <th className="px-5 py-2">Flags</th>
+            <th className="px-5 py-2">
+              <span className="sr-only">Open</span>
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {items.map((i) => (
+            <tr key={i.entry.id} className="border-t border-line align-top" data-record={i.entry.id}>
+              <td className="px-5 py-3 whitespace-nowrap">{formatDate(i.entry.recordedAt)}</td>
+              <td className="px-5 py-3">
+                <span className="font-semibold">
+                  {kindLabel(i.entry.kind)} · {i.cryostatName}
+                </span>
+                <span className="block text-sm text-muted">
+                  by {i.authorName} · <Summary i={i} />
+                </span>
+                {i.findings.length > 0 && <Tag tone="accent">finding not signed</Tag>}
+              </td>
+              <td className="px-5 py-3">
+                <FlagTags flags={i.flags} />
+              </td>
+              <td className="px-5 py-3">
+                <Link className={buttonClass("secondary")} href={`/audit/${i.entry.id}`} aria-label={`Open ${kindLabel(i.entry.kind)} on ${i.cryostatName} of ${formatDate(i.entry.recordedAt)}`}>
+                  Open
+                </Link>
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </Panel>
+  );
+}
+
+type Filters = { cryostat: string; person: string; from: string; to: string; flag: string; sort: string; dir: string };
+
+function TransferTable() {
+  const [f, setF] = useState<Filters>({ cryostat: "", person: "", from: "", to: "", flag: "", sort: "date", dir: "desc" });
+  const [items, setItems] = useState<AuditItem[] | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [options, setOptions] = useState<{ cryostats: { id: string; name: string }[]; people: { id: string; name: string }[] }>({ cryostats: [], people: [] });
+  const query = new URLSearchParams(Object.entries(f).filter(([, v]) => v)).toString();
+  const load = useCallback(() => {
+    setError(null);
+    getJson<{ items: AuditItem[] }>(`/api/audit/transfers?${query}`).then((b) => setItems(b.items), (e: Error) => setError(e.message));
+  }, [query]);
+  useEffect(load, [load]);
+  useEffect(() => {
+    getJson<{ cryostats: { id: string; name: string }[] }>("/api/cryostats").then((b) => setOptions((o) => ({ ...o, cryostats: b.cryostats })), () => undefined);
+  }, []);
+  useEffect(() => {
+    if (!items) return;
+    const people = new Map<string, string>();
+    for (const i of items) {
+      people.set(i.entry.authorId, i.authorName);
+      ((i.entry.payload as { peoplePresent?: string[] }).peoplePresent ?? []).forEach((id, k) => people.set(id, i.peopleNames[k] ?? id));
+    }
+    setOptions((o) => ({ ...o, people: [...new Set([...o.people.map((p) => JSON.stringify(p)), ...[...people].map(([id, name]) => JSON.stringify({ id, name }))])].map((s) => JSON.parse(s)) }));
+  }, [items]);
+  const sel = "min-h-12 rounded-xl border-2 border-line bg-bg px-3";
+  const set = (k: keyof Filters) => (e: { target: { value: string } }) => setF((x) => ({ ...x, [k]: e.target.value }));
+  return (
+    <div className="flex flex-col gap-4">
+      <Panel>
+        <form className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()} aria-label="Filters">
+          <label className="flex flex-col gap-1 font-semibold">
+            Cryostat
+            <select className={sel} value={f.cryostat} onChange={set("cryostat")}>
+              <option value="">All</option>
+              {options.cryostats.map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.name}
+                </option>
+              ))}
+            </select>
+          </label>
+          <label className="flex flex-col gap-1 font-semibold">
+            Person
+            <select className={sel} value={f.person} onChange={set("person")}>
+              <option value="">Anyone</option>
+              {options.people.map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.name}
+                </option>
+              ))}
+            </select>
+          </label>
+          <label className="flex flex-col gap-1 font-semibold">
+            From
+            <input type="date" className={sel} value={f.from} onChange={set("from")} />
+          </label>
+          <label className="flex flex-col gap-1 font-semibold">
+            To
+            <input type="date" className={sel} value={f.to} onChange={set("to")} />
+          </label>
+          <label className="flex flex-col gap-1 font-semibold">
+            Flag
+            <select className={sel} value={f.flag} onChange={set("flag")}>
+              <option value="">Any</option>
+              {FLAG_CODES.map((c) => (
+                <option key={c} value={c}>
+                  {FLAG_LABEL[c]}
+                </option>
+              ))}
+            </select>
+          </label>
+          <label className="flex flex-col gap-1 font-semibold">
+            Sort by
+            <select className={sel} value={f.sort} onChange={set("sort")}>
+              <option value="date">Date</option>
+              <option value="cryostat">Cryostat</option>
+              <option value="efficiency">Efficiency</option>
+              <option value="flags">Number of flags</option>
+            </select>
+          </label>
+          <Button onClick={() => setF((x) => ({ ...x, dir: x.dir === "asc" ? "desc" : "asc" }))} aria-label={`Order: ${f.dir === "asc" ? "ascending" : "descending"}`}>
+            {f.dir === "asc" ? "↑ Ascending" : "↓ Descending"}
+          </Button>
+          <a className={buttonClass("secondary")} href={`/api/exports/transfers?${query}`} download>
+            Export CSV
+          </a>
+          <a className={buttonClass("secondary")} href={`/api/exports/report?${new URLSearchParams(Object.entries({ from: f.from, to: f.to, cryostat: f.cryostat }).filter(([, v]) => v)).toString()}`} download>
+            PDF audit report
+          </a>
+        </form>
+        <p className="mt-2 text-sm text-muted">The PDF report covers the chosen period (default: the last 30 days) with every transfer, quench and incident, its flags and its signatures.</p>
+      </Panel>
+      {error && <Notice tone="danger" role="alert" title={error} />}
+      {!items && !error && <Loading />}
+      {items && (
+        <Panel className="overflow-x-auto p-0">
+          <table className="w-full text-left">
+            <caption className="px-5 py-3 text-left text-lg font-bold">Transfers ({items.length})</caption>
+            <thead>
+              <tr className="text-sm text-muted">
+                <th className="px-4 py-2">When</th>
+                <th className="px-4 py-2">Cryostat</th>
+                <th className="px-4 py-2">People</th>
+                <th className="px-4 py-2">Litres</th>
+                <th className="px-4 py-2">Efficiency</th>
+                <th className="px-4 py-2">Flags</th>
+                <th className="px-4 py-2">Audit</th>
+              </tr>
+            </thead>
+            <tbody>
+              {items.map((i) => {
+                const p = i.entry.payload as Record<string, number>;
+                const eff = i.figures && "efficiencyPercent" in i.figures ? i.figures.efficiencyPercent : null;
+                return (
+                  <tr key={i.entry.id} className="border-t border-line align-top">
+                    <td className="px-4 py-2 whitespace-nowrap">
+                      <Link className="font-semibold text-accent underline" href={`/audit/${i.entry.id}`}>
+                        {formatDate(i.entry.recordedAt)}
+                      </Link>
+                    </td>
+                    <td className="px-4 py-2">{i.cryostatName}</td>
+                    <td className="px-4 py-2">{i.peopleNames.join(", ")}</td>
+                    <td className="num px-4 py-2">
+                      {trim(p.gainedLitres ?? NaN)} / {trim(p.suppliedLitres ?? NaN)} L
+                    </td>
+                    <td className="num px-4 py-2">{eff === null ? "—" : `${trim(eff)} %`}</td>
+                    <td className="px-4 py-2">
+                      <FlagTags flags={i.flags} />
+                    </td>
+                    <td className="px-4 py-2">{i.verdict ? <Tag tone={i.verdict === "acceptable" ? "ok" : "danger"}>{i.verdict === "acceptable" ? "Acceptable" : "Needs action"}</Tag> : <Tag>Not audited</Tag>}</td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </Panel>
+      )}
+    </div>
+  );
+}
+
+function ChainCheck() {
+  const [reports, setReports] = useState<ChainReport[] | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const check = useCallback(() => {
+    setBusy(true);
+    setError(null);
+    getJson<{ reports: ChainReport[] }>("/api/chain")
+      .then((b) => setReports(b.reports), (e: Error) => setError(e.message))
+      .finally(() => setBusy(false));
+  }, []);
+  useEffect(check, [check]);
+  async function signNow() {
+    setBusy(true);
+    try {
+      const r = await fetch("/api/chain", { method: "POST", headers: { "content-type": "application/json" }, body: "{}" });
+      if (!r.ok) throw new Error((await r.json()).error?.message ?? "Could not sign.");
+      check();
+    } catch (e) {
+      setError((e as Error).message);
+      setBusy(false);
+    }
+  }
+  return (
+    <Panel>
+      <p className="mb-3">
+        Every cryostat's log is a hash chain. The check recomputes each link and compares it with the server's signed checkpoints (Ed25519, key kept outside the database), so a row changed, inserted, deleted or reordered in the database — or a
+        chain recomputed after a change — is named here.
+      </p>
+      <div className="mb-3 flex gap-2">
+        <Button variant="primary" onClick={check} disabled={busy}>
+          {busy ? "Checking…" : "Check all chains now"}
+        </Button>
+        <Button onClick={() => void signNow()} disabled={busy}>
+          Sign the chain heads now
+        </Button>
+      </div>
+      {error && <Notice tone="danger" role="alert" title={error} />}
+      {reports && (
+        <ul className="flex flex-col gap-2">
+          {reports.map((r) => (
+            <li key={r.chain} data-chain={r.chain} data-ok={r.ok}>
+              <Notice tone={r.ok ? "ok" : "danger"} title={`${r.chain}: ${r.ok ? "verified" : `broken — ${r.kind}`}`}>
+                {r.ok ? (
+                  <p>
+                    {r.count} entries; {r.checkpointsChecked} signed checkpoint(s) match.
+                  </p>
+                ) : (
+                  <p>
+                    {r.message}
+                    {r.firstBad && (
+                      <span className="block">
+                        First bad entry: seq {r.firstBad.seq}, {kindLabel(r.firstBad.kind)} of {formatDate(r.firstBad.recordedAt)} ({r.firstBad.id}).
+                      </span>
+                    )}
+                  </p>
+                )}
+                {r.untrustedCheckpoints > 0 && <p className="text-warn">{r.untrustedCheckpoints} checkpoint(s) in the database are not signed by this server's key and were ignored.</p>}
+              </Notice>
+            </li>
+          ))}
+        </ul>
+      )}
+    </Panel>
+  );
+}
