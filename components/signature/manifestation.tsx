@@ -4,7 +4,10 @@ import { ROLE_LABEL, type Role } from "@/lib/auth/permissions";
 import { formatDate, meaningLabel } from "@/lib/format";
 import type { SignatureView } from "@/lib/procedures/state";
 
-export function SignatureManifestation({ sig, compact = false }: { sig: Pick<SignatureView, "signerName" | "signerRole" | "signedAt" | "meaning" | "confirmedBy" | "image" | "valid">; compact?: boolean }) {
+/** What a manifestation needs; loose on purpose so audit and handover views can pass their own rows. */
+export type ManifestSig = Pick<SignatureView, "signerName" | "signerRole" | "signedAt" | "valid"> & { meaning: string; confirmedBy?: string | null; image?: string | null };
+
+export function SignatureManifestation({ sig, compact = false }: { sig: ManifestSig; compact?: boolean }) {
   const role = ROLE_LABEL[sig.signerRole as Role] ?? sig.signerRole;
   return (
     <figure data-signature className={`sig-manifest flex flex-wrap items-center gap-3 rounded-xl border-2 ${sig.valid ? "border-ok" : "border-danger"} bg-panel px-3 py-2`}>
