@@ -11,6 +11,7 @@ import { DEFAULT_TEMPLATES } from "./seed-templates";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import type { EntryInput, EntryKind } from "@/lib/schemas/entry";
+import { he4PressureFromTemperature } from "@/lib/cryo";
 import { recordHash } from "@/lib/sync/hash";
 
 export const DEMO_PASSWORD = "cold-hall-demo";
@@ -193,6 +194,15 @@ export function demoHistory(now: number): Draft[] {
         author: "u-tomasz",
       });
     }
+  }
+  // Plover's bath and VTI: a morning reading each day; the VTI pressure is what a vapour-pressure
+  // thermometer reads (ITS-90 4He scale).
+  for (let d = 0; d < 28; d++) {
+    const t0 = start + d * DAY + 8 * HOUR + 10 * 60_000;
+    const vtiK = 1.55 + noise(0.05);
+    push({ at: t0, cryostatId: "plover", kind: "reading", payload: { quantity: "Temperature", stage: "bath", value: round(4.21 + noise(0.01), 3), unit: "K" }, author: "u-tomasz" });
+    push({ at: t0 + 60_000, cryostatId: "plover", kind: "reading", payload: { quantity: "VTI pressure", value: round(he4PressureFromTemperature(vtiK) / 100, 2), unit: "mbar" }, author: "u-tomasz" });
+    push({ at: t0 + 120_000, cryostatId: "plover", kind: "reading", payload: { quantity: "Temperature", stage: "vti", value: round(vtiK, 3), unit: "K" }, author: "u-tomasz" });
   }
   push({ at: start + 5 * DAY + 11 * HOUR, cryostatId: "plover", kind: "field.setting", payload: { currentA: 41.7, fieldT: 5.0, persistent: true, rampRateTPerMin: 0.15 }, author: "u-mateo" });
   push({ at: start + 19 * DAY + 12 * HOUR, cryostatId: "plover", kind: "field.setting", payload: { currentA: 0, fieldT: 0, persistent: false, comment: "After the quench; supply off." }, author: "u-priya" });
