@@ -1,0 +1,44 @@
+"use client";
+// The mail outbox for the facility admin: every message Rimelog queued (one per event), whether it
+// went out, and its text. With the local fake transport this is where the messages are read.
+import { useEffect, useState } from "react";
+import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import type { MailRow } from "@/db/queries/mail";
+import { formatDate } from "@/lib/format";
+
+export function MailAdmin() {
+  const [data, setData] = useState<{ transport: string; messages: (Omit<MailRow, "createdAt" | "sentAt"> & { createdAt: string; sentAt: string | null })[] } | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  useEffect(() => {
+    fetch("/api/mail", { cache: "no-store" })
+      .then(async (r) => {
+        const b = await r.json();
+        if (!r.ok) throw new Error(b.error?.message ?? "Could not load the outbox.");
+        setData(b);
+      })
+      .catch((e: Error) => setError(e.message));
+  }, []);
+  if (error) return <Notice tone="danger" role="alert" title={error} />;
+  if (!data) return <Loading />;
+  return (
+    <div className="flex flex-col gap-3">
+      <Notice tone="neutral" title={data.transport === "fake" ? "Local mail: messages are kept here and not sent anywhere (set RIMELOG_MAIL=smtp and SMTP_URL to send)." : "Messages are sent by SMTP; this is the stored copy."} />
+      {!data.messages.length && <p className="text-muted">No messages yet.</p>}
+      {data.messages.map((m) => (
+        <Panel key={m.id} data-event={m.eventKey}>
+          <details>
+            <summary className="flex min-h-12 cursor-pointer flex-wrap items-center gap-2">
+              <span className="font-semibold">{m.subject}</span>
+              <span className="text-sm text-muted">
+                to {m.to} · {formatDate(m.createdAt)}
+              </span>
+              {m.sentAt ? <Tag tone="ok">sent {formatDate(m.sentAt)}</Tag> : m.error ? <Tag tone="danger">not sent: {m.error}</Tag> : <Tag>queued</Tag>}
+            </summary>
+            <pre className="mt-2 whitespace-pre-wrap font-sans">{m.body}</pre>
+            <p className="mt-1 text-xs text-muted">Event: {m.eventKey}</p>
+          </details>
+        </Panel>
+      ))}
+    </div>
+  );
+}

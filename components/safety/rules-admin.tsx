@@ -1,0 +1,233 @@
+"use client";
+// The facility admin's rules screen: the local values every caution and audit flag uses, the
+// facility's own rules document (PDF), and the reason for each change (each save is an audited entry).
+import { useEffect, useState } from "react";
+import { Button } from "@/components/ui/button";
+import { Loading, Notice, Panel } from "@/components/ui/panel";
+import type { RulesInForce } from "@/db/queries/rules";
+import { formatDate } from "@/lib/format";
+import { RULES_DOCUMENT_MAX_BYTES } from "@/lib/safety/rules-document";
+import type { FacilityRulesValues } from "@/lib/schemas/rules";
+import { rememberRules } from "./use-facility-rules";
+
+const INPUT = "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink focus:border-accent";
+type Cryo = { id: string; name: string; config: { reservoir?: unknown; magnet?: unknown } };
+
+function Row({ id, label, children, hint }: { id: string; label: string; children: React.ReactNode; hint?: string }) {
+  return (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={id} className="font-semibold">
+        {label}
+      </label>
+      {children}
+      {hint && <p className="text-sm text-muted">{hint}</p>}
+    </div>
+  );
+}
+
+export function RulesAdmin() {
+  const [rules, setRules] = useState<RulesInForce | null>(null);
+  const [cryos, setCryos] = useState<Cryo[]>([]);
+  const [v, setV] = useState<FacilityRulesValues | null>(null);
+  const [text, setText] = useState({ ppe: "", contacts: "" });
+  const [reason, setReason] = useState("");
+  const [msg, setMsg] = useState<{ tone: "ok" | "danger"; text: string; details?: string[] } | null>(null);
+  const [docMsg, setDocMsg] = useState<{ tone: "ok" | "danger"; text: string } | null>(null);
+  const [busy, setBusy] = useState(false);
+
+  function adopt(r: RulesInForce | null) {
+    setRules(r);
+    if (!r) return;
+    rememberRules(r);
+    setV(r.values);
+    setText({ ppe: r.values.ppe.join("\n"), contacts: r.values.contacts.map((c) => `${c.name} | ${c.role} | ${c.phone}`).join("\n") });
+  }
+  useEffect(() => {
+    fetch("/api/rules", { cache: "no-store" })
+      .then((r) => r.json())
+      .then((b) => adopt(b.rules))
+      .catch(() => setMsg({ tone: "danger", text: "No connection to the server." }));
+    fetch("/api/cryostats", { cache: "no-store" })
+      .then((r) => r.json())
+      .then((b) => setCryos(b.cryostats ?? []))
+      .catch(() => undefined);
+  }, []);
+
+  if (!v) return msg ? <Notice tone="danger" role="alert" title={msg.text} /> : <Loading />;
+  const set = <K extends keyof FacilityRulesValues>(k: K, val: FacilityRulesValues[K]) => setV((x) => (x ? { ...x, [k]: val } : x));
+  const optNum = (s: string) => (s.trim() === "" ? undefined : Number(s));
+
+  async function save() {
+    if (!v) return;
+    setBusy(true);
+    setMsg(null);
+    const values: FacilityRulesValues = {
+      ...v,
+      ppe: text.ppe.split("\n").map((s) => s.trim()).filter(Boolean),
+      contacts: text.contacts
+        .split("\n")
+        .map((l) => l.split("|").map((s) => s.trim()))
+        .filter((p) => p.some(Boolean))
+        .map(([name = "", role = "", phone = ""]) => ({ name, role, phone })),
+    };
+    try {
+      const r = await fetch("/api/rules", { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify({ values, reason, expectedVersion: rules?.version ?? null }) });
+      const body = await r.json();
+      if (!r.ok) setMsg({ tone: "danger", text: body.error?.message ?? "Not saved.", details: body.error?.details });
+      else {
+        adopt(body.rules);
+        setReason("");
+        setMsg({ tone: "ok", text: `Saved as version ${body.rules.version}. The change is recorded in the facility log.` });
+      }
+    } catch {
+      setMsg({ tone: "danger", text: "No connection to the server: nothing was changed." });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  async function upload(file: File) {
+    setDocMsg(null);
+    if (file.size > RULES_DOCUMENT_MAX_BYTES) {
+      setDocMsg({ tone: "danger", text: `"${file.name}" is ${(file.size / 1048576).toFixed(1)} MB; the limit is ${RULES_DOCUMENT_MAX_BYTES / 1048576} MB. Upload a smaller PDF.` });
+      return;
+    }
+    try {
+      const r = await fetch("/api/rules/document", {
+        method: "POST",
+        headers: { "content-type": "application/octet-stream", "x-rimelog-file-name": encodeURIComponent(file.name), "x-rimelog-reason": encodeURIComponent(reason) },
+        body: file,
+      });
+      const body = await r.json();
+      if (!r.ok) setDocMsg({ tone: "danger", text: body.error?.message ?? "Not uploaded." });
+      else {
+        adopt(body.rules);
+        setDocMsg({ tone: "ok", text: `"${body.rules.document.fileName}" is now the facility's rules document (version ${body.rules.version}).` });
+      }
+    } catch {
+      setDocMsg({ tone: "danger", text: "No connection to the server: the document was not uploaded." });
+    }
+  }
+
+  return (
+    <div className="grid gap-4 lg:grid-cols-[1fr_22rem]">
+      <Panel>
+        <form className="flex flex-col gap-4" noValidate onSubmit={(e) => (e.preventDefault(), void save())}>
+          <Row id="r-name" label="Facility name">
+            <input id="r-name" className={INPUT} value={v.facilityName} onChange={(e) => set("facilityName", e.target.value)} />
+          </Row>
+          <div className="grid gap-3 sm:grid-cols-2">
+            <Row id="r-alarm" label="Oxygen alarm level (%)">
+              <input id="r-alarm" inputMode="decimal" className={`${INPUT} num`} value={v.oxygenAlarmPercent} onChange={(e) => set("oxygenAlarmPercent", Number(e.target.value))} />
+            </Row>
+            <Row id="r-evac" label="Oxygen level to leave the room (%)">
+              <input id="r-evac" inputMode="decimal" className={`${INPUT} num`} value={v.oxygenEvacuatePercent} onChange={(e) => set("oxygenEvacuatePercent", Number(e.target.value))} />
+            </Row>
+          </div>
+          <label className="flex min-h-12 items-center gap-2 font-semibold">
+            <input type="checkbox" className="h-6 w-6" checked={v.twoPersonTransfer} onChange={(e) => set("twoPersonTransfer", e.target.checked)} />
+            Two people must be present for cryogen transfers
+          </label>
+          <Row id="r-ppe" label="Required PPE (one per line)">
+            <textarea id="r-ppe" rows={4} className={INPUT} value={text.ppe} onChange={(e) => setText((t) => ({ ...t, ppe: e.target.value }))} />
+          </Row>
+          <fieldset className="rounded-xl border-2 border-line p-3">
+            <legend className="px-1 font-semibold">Per cryostat</legend>
+            <div className="grid gap-3 sm:grid-cols-2">
+              {cryos.map((c) => (
+                <div key={c.id} className="flex flex-col gap-2">
+                  <p className="font-semibold">{c.name}</p>
+                  {Boolean(c.config.reservoir) && (
+                    <Row id={`r-min-${c.id}`} label="Minimum helium level (%)">
+                      <input id={`r-min-${c.id}`} inputMode="decimal" className={`${INPUT} num`} value={v.minHeliumPercent[c.id] ?? ""} onChange={(e) => set("minHeliumPercent", Object.fromEntries(Object.entries({ ...v.minHeliumPercent, [c.id]: optNum(e.target.value) }).filter(([, x]) => x !== undefined)) as Record<string, number>)} />
+                    </Row>
+                  )}
+                  {Boolean(c.config.magnet) && (
+                    <Row id={`r-ramp-${c.id}`} label="Maximum ramp rate (T/min)">
+                      <input id={`r-ramp-${c.id}`} inputMode="decimal" className={`${INPUT} num`} value={v.maxRampTPerMin[c.id] ?? ""} onChange={(e) => set("maxRampTPerMin", Object.fromEntries(Object.entries({ ...v.maxRampTPerMin, [c.id]: optNum(e.target.value) }).filter(([, x]) => x !== undefined)) as Record<string, number>)} />
+                    </Row>
+                  )}
+                </div>
+              ))}
+            </div>
+          </fieldset>
+          <div className="grid gap-3 sm:grid-cols-2">
+            <Row id="r-mt" label="Controlled-area field line (mT)" hint="0.5 mT is common; some standards use 0.9 mT. Set your facility's own.">
+              <input id="r-mt" inputMode="decimal" className={`${INPUT} num`} value={v.controlledAreaMilliTesla} onChange={(e) => set("controlledAreaMilliTesla", Number(e.target.value))} />
+            </Row>
+            <Row id="r-days" label="Warn when helium reaches the minimum within (days)">
+              <input id="r-days" inputMode="numeric" className={`${INPUT} num`} value={v.forecastWarnDays} onChange={(e) => set("forecastWarnDays", Number(e.target.value))} />
+            </Row>
+            <Row id="r-effmin" label="Plausible transfer efficiency, lowest (%)" hint="Default 40 % when empty.">
+              <input id="r-effmin" inputMode="decimal" className={`${INPUT} num`} value={v.transferEfficiencyMinPercent ?? ""} onChange={(e) => set("transferEfficiencyMinPercent", optNum(e.target.value))} />
+            </Row>
+            <Row id="r-effmax" label="Plausible transfer efficiency, highest (%)" hint="Default 95 % when empty.">
+              <input id="r-effmax" inputMode="decimal" className={`${INPUT} num`} value={v.transferEfficiencyMaxPercent ?? ""} onChange={(e) => set("transferEfficiencyMaxPercent", optNum(e.target.value))} />
+            </Row>
+            <Row id="r-vol" label="Room free volume (m³)" hint="For the oxygen estimate after a quench.">
+              <input id="r-vol" inputMode="decimal" className={`${INPUT} num`} value={v.roomFreeVolumeM3 ?? ""} onChange={(e) => set("roomFreeVolumeM3", optNum(e.target.value))} />
+            </Row>
+            <Row id="r-ach" label="Room ventilation (air changes per hour)">
+              <input id="r-ach" inputMode="decimal" className={`${INPUT} num`} value={v.roomAirChangesPerHour ?? ""} onChange={(e) => set("roomAirChangesPerHour", optNum(e.target.value))} />
+            </Row>
+          </div>
+          <Row id="r-note" label="Controlled-area note">
+            <textarea id="r-note" rows={2} className={INPUT} value={v.controlledAreaNote} onChange={(e) => set("controlledAreaNote", e.target.value)} />
+          </Row>
+          <Row id="r-contacts" label="Emergency contacts (one per line: name | role | phone)">
+            <textarea id="r-contacts" rows={4} className={INPUT} value={text.contacts} onChange={(e) => setText((t) => ({ ...t, contacts: e.target.value }))} />
+          </Row>
+          <Row id="r-reason" label="Reason for the change" hint="Recorded with the change in the facility log.">
+            <input id="r-reason" className={INPUT} value={reason} onChange={(e) => setReason(e.target.value)} />
+          </Row>
+          {msg && (
+            <Notice tone={msg.tone} role={msg.tone === "danger" ? "alert" : "status"} title={msg.text}>
+              {msg.details?.length ? (
+                <ul className="ml-5 list-disc">
+                  {msg.details.map((d) => (
+                    <li key={d}>{d}</li>
+                  ))}
+                </ul>
+              ) : null}
+            </Notice>
+          )}
+          <Button type="submit" variant="primary" disabled={busy}>
+            {busy ? "Saving…" : "Save the rules"}
+          </Button>
+        </form>
+      </Panel>
+      <div className="flex flex-col gap-4">
+        <Panel>
+          <h2 className="mb-2 text-lg font-bold">In force</h2>
+          {rules && (
+            <p>
+              Version {rules.version}, changed {formatDate(rules.changedAt)} by {rules.changedByName}.
+            </p>
+          )}
+        </Panel>
+        <Panel>
+          <h2 className="mb-2 text-lg font-bold">The facility's rules document</h2>
+          {rules?.document ? (
+            <p className="mb-2">
+              <a href="/api/rules/document" className="font-semibold text-accent underline">
+                {rules.document.fileName}
+              </a>{" "}
+              <span className="num text-sm text-muted">({(rules.document.bytes / 1024).toFixed(0)} KB)</span>
+            </p>
+          ) : (
+            <p className="mb-2 text-muted">None uploaded yet.</p>
+          )}
+          <label htmlFor="r-doc" className="font-semibold">
+            Upload a new PDF (up to {RULES_DOCUMENT_MAX_BYTES / 1048576} MB)
+          </label>
+          <input id="r-doc" type="file" accept="application/pdf,.pdf" className="mt-1 block min-h-12 w-full" onChange={(e) => e.target.files?.[0] && void upload(e.target.files[0])} />
+          {docMsg && (
+            <div className="mt-2">
+              <Notice tone={docMsg.tone} role={docMsg.tone === "danger" ? "alert" : "status"} title={docMsg.text} />
+            </div>
+          )}
+        </Panel>
+      </div>
+    </div>
+  );
+}
