@@ -12,9 +12,13 @@ const NAV: { href: string; label: string; roles?: string[] }[] = [
   { href: "/", label: "Room" },
   { href: "/procedures", label: "Procedures" },
   { href: "/calc", label: "Calculators" },
+  { href: "/transfers/new", label: "Transfer", roles: ["technician", "researcher", "safety_officer"] },
+  { href: "/quench/new", label: "Quench" },
   { href: "/audit", label: "Audit", roles: ["safety_officer", "facility_admin"] },
   { href: "/admin/users", label: "Admin", roles: ["facility_admin"] },
   { href: "/admin/templates", label: "Templates", roles: ["facility_admin"] },
+  { href: "/admin/rules", label: "Rules", roles: ["facility_admin"] },
+  { href: "/admin/mail", label: "Mail", roles: ["facility_admin"] },
 ];
 
 export function AppHeader() {
