@@ -78,6 +78,13 @@ export function EntryBody({ entry, names = {} }: { entry: Pick<StoredEntry, "kin
           <span className="font-semibold">{meaningLabel(String(p.meaning))}</span> by {String(p.signerName)} ({String(p.signerRole).replace("_", " ")})
         </p>
       );
+    case "rules.change":
+      return (
+        <p>
+          Facility rules version <span className="num font-semibold">{num(p.version)}</span>: {((p.changes as { field: string }[] | undefined) ?? []).map((c) => c.field).join(", ") || "rules document"}
+          <span className="block text-muted">{String(p.reason)}</span>
+        </p>
+      );
     case "audit.finding":
       return (
         <p>
