@@ -171,7 +171,24 @@ function FieldChart({ series, nowMs }: { series: CryostatSeries; nowMs: number }
   return <UplotChart label="Magnet field settings over time" options={options} data={data} />;
 }
 
-export function CryostatCharts({ cryostatId }: { cryostatId: string }) {
+/** The cryostat id from the address (/cryostats/<id>), for a page whose HTML carries no data. */
+function idFromPath(): string | undefined {
+  const m = /^\/cryostats\/([^/]+)/.exec(window.location.pathname);
+  return m?.[1] ? decodeURIComponent(m[1]) : undefined;
+}
+
+/** Charts of one cryostat; without `cryostatId` it reads the id from the address. */
+export function CryostatCharts({ cryostatId: given }: { cryostatId?: string }) {
+  const [fromPath, setFromPath] = useState<string | undefined>(undefined);
+  useEffect(() => {
+    if (!given) setFromPath(idFromPath());
+  }, [given]);
+  const cryostatId = given ?? fromPath;
+  if (!cryostatId) return null;
+  return <ChartsFor cryostatId={cryostatId} />;
+}
+
+function ChartsFor({ cryostatId }: { cryostatId: string }) {
   const series = useCryostatSeries(cryostatId);
   const [config, setConfig] = useState<CryostatConfig | null>(null);
   const [nowMs, setNowMs] = useState<number | null>(null);

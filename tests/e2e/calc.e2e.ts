@@ -62,7 +62,7 @@ describe("calculators", () => {
 
     await context.setOffline(true);
     await page.reload();
-    await page.getByRole("heading", { level: 2, name: "Helium vapour-pressure thermometry" }).waitFor();
+    await page.getByRole("heading", { level: 2, name: "Helium vapour-pressure thermometry", exact: true }).waitFor();
     expect(await page.evaluate(() => navigator.onLine)).toBe(false);
 
     const pressure = page.getByLabel("Pressure", { exact: true });
@@ -78,7 +78,7 @@ describe("calculators", () => {
 
     // Another section of the same cached page, still offline.
     await page.getByRole("link", { name: "Oxygen", exact: true }).click();
-    await page.getByRole("heading", { level: 2, name: "Oxygen deficiency" }).waitFor();
+    await page.getByRole("heading", { level: 2, name: "Oxygen deficiency", exact: true }).waitFor();
     // 20 m³ into the 220 m³ room, mixed: 0.21·220/240 = 19.25 % O2 (hand arithmetic, FESHM 4240 form).
     await expect.poll(() => page.locator('dl[aria-label="Sudden release: results"]').innerText()).toContain("19.3 % O₂");
 
