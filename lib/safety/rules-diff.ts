@@ -6,12 +6,13 @@ import { canonicalJson } from "@/lib/sync/hash";
 export type RuleChange = { field: string; from: unknown; to: unknown };
 
 export function diffRules(before: FacilityRulesValues | null, after: FacilityRulesValues): RuleChange[] {
-  const keys = Object.keys(after) as (keyof FacilityRulesValues)[];
+  // Optional settings may be absent on either side: absent and null compare equal.
+  const keys = [...new Set([...Object.keys(before ?? {}), ...Object.keys(after)])] as (keyof FacilityRulesValues)[];
   const out: RuleChange[] = [];
   for (const k of keys) {
-    const from = before ? before[k] : null;
-    const to = after[k];
-    if (from === null || canonicalJson(from) !== canonicalJson(to)) out.push({ field: k, from: from ?? null, to });
+    const from = before ? (before[k] ?? null) : null;
+    const to = after[k] ?? null;
+    if (!before || canonicalJson(from) !== canonicalJson(to)) out.push({ field: k, from, to });
   }
   return out;
 }
