@@ -3,7 +3,6 @@
 // template version), finished runs, the signing PIN and the shift handover. All from the tablet
 // store, so it works with no network once the tablet has synced.
 import Link from "next/link";
-import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import { useMe } from "@/components/shell/use-me";
 import { PinPanel } from "@/components/signature/pin-panel";
@@ -24,7 +23,6 @@ export function latestOfEach(templates: LocalTemplate[]): LocalTemplate[] {
 
 export function ProceduresHome() {
   const { me } = useMe();
-  const router = useRouter();
   const cryostats = useCryostats();
   const templates = useTemplates();
   const runEntries = useEntries({ kinds: ["run.start", "run.abort", "run.complete"] });
@@ -52,7 +50,8 @@ export function ProceduresHome() {
     setError(null);
     try {
       const e = await recordEntry({ cryostatId, kind: "run.start", payload: { templateId: t.id, templateKey: t.key, templateVersion: t.version, title: `${t.title} — ${cryostatName}` } });
-      router.push(`/runs?id=${e.id}`);
+      // A full navigation: the one cached /runs page opens it even with no network.
+      window.location.assign(`/runs?id=${e.id}`);
     } catch (err) {
       setError(errorText(err));
       setBusy(null);

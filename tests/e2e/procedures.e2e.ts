@@ -1,0 +1,239 @@
+// A cooldown run with no network, in Chromium against the production build: the technician sets a
+// signing PIN online, goes offline, runs the dry-fridge cooldown from start to finish (ticks,
+// readings on the keypad with one out of range and commented, a photo, hold points signed with a
+// drawn signature and the PIN), reloads mid-run while offline and carries on, completes with a
+// signature, then goes online. The run, its photo and its signatures reach the server, and the
+// safety officer opens the run record with the signature manifestation. Leaves screenshots of the
+// run screen at 1024×768 and 768×1024 in both themes.
+import type { Browser, BrowserContext, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { launchBrowser, newTabletContext, screenshot, signIn, trackPageErrors } from "./support/browser";
+import { DEMO_PASSWORD, DEMO_USERS } from "./support/demo-users";
+
+const baseURL = inject("baseURL");
+let browser: Browser;
+const contexts: BrowserContext[] = [];
+const PIN = "482916";
+
+// A 2×2 PNG, as a camera would hand over a JPEG: the bytes matter only for the upload's type check.
+const PHOTO = Buffer.from("iVBORw0KGgoAAAANSUhEUgAAAAIAAAACCAIAAAD91JpzAAAAFklEQVR4nGP8z8DAwMDAxMDAwMDAAAANHQEDasKb6QAAAABJRU5ErkJggg==", "base64");
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  for (const c of contexts) await c.close().catch(() => undefined);
+  await browser?.close();
+});
+
+async function tablet(email: string): Promise<{ context: BrowserContext; page: Page; errors: string[] }> {
+  const context = await newTabletContext(browser, baseURL);
+  contexts.push(context);
+  const page = await context.newPage();
+  const errors = trackPageErrors(page);
+  await signIn(page, email);
+  await page.evaluate(async () => {
+    await navigator.serviceWorker.ready;
+  });
+  await page.waitForFunction(() => navigator.serviceWorker.controller !== null, undefined, { timeout: 30_000 });
+  await page.getByRole("heading", { level: 2, name: "Wren" }).waitFor();
+  await waitPending(page, 0);
+  return { context, page, errors };
+}
+
+async function waitPending(page: Page, n: number, timeout = 60_000): Promise<void> {
+  await page.waitForFunction((want) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(want), n, { timeout });
+}
+
+const step = (page: Page, id: string) => page.locator(`[data-step="${id}"]`);
+
+async function next(page: Page) {
+  await page.getByRole("button", { name: "Next step →" }).click();
+}
+
+async function tick(page: Page, id: string) {
+  await step(page, id).getByRole("button", { name: "✓ Done" }).click();
+  await page.locator(`[data-step="${id}"][data-status="done"]`).waitFor();
+  await next(page);
+}
+
+async function acknowledge(page: Page, id: string) {
+  await step(page, id).getByRole("button", { name: "I have read this caution" }).click();
+  await page.locator(`[data-step="${id}"][data-status="done"]`).waitFor();
+  await next(page);
+}
+
+async function reading(page: Page, id: string, value: string, { keypad = false } = {}) {
+  const s = step(page, id);
+  if (keypad) {
+    for (const k of value) await s.getByRole("group", { name: /Keypad/ }).getByRole("button", { name: k === "." ? "Decimal point" : k, exact: true }).click();
+  } else {
+    await s.getByLabel(/^Value in/).fill(value);
+  }
+  await s.getByRole("status").filter({ hasText: "Within range." }).waitFor();
+  await s.getByRole("button", { name: "Record reading" }).click();
+  await page.locator(`[data-step="${id}"][data-status="done"]`).waitFor();
+  await next(page);
+}
+
+/** Draws a stroke on the pad like a stylus would, then confirms with the PIN. */
+async function signWithPin(page: Page, buttonName: string, signLabel: string) {
+  await page.getByRole("button", { name: buttonName }).click();
+  const dialog = page.getByRole("dialog");
+  const pad = dialog.getByRole("img", { name: "Signature pad" });
+  const box = (await pad.boundingBox())!;
+  await page.mouse.move(box.x + 30, box.y + 120);
+  await page.mouse.down();
+  for (let i = 1; i <= 20; i++) await page.mouse.move(box.x + 30 + i * 14, box.y + 120 - 40 * Math.sin(i / 3), { steps: 2 });
+  await page.mouse.up();
+  await dialog.getByLabel("Signing PIN").fill(PIN);
+  await dialog.getByRole("button", { name: signLabel }).click();
+  await dialog.waitFor({ state: "detached", timeout: 30_000 });
+}
+
+async function shots(page: Page, name: string) {
+  for (const [w, h] of [
+    [1024, 768],
+    [768, 1024],
+  ] as const) {
+    await page.setViewportSize({ width: w, height: h });
+    await screenshot(page, `${name}-${w}x${h}-light`);
+    await page.getByRole("button", { name: "Dim mode" }).click();
+    await screenshot(page, `${name}-${w}x${h}-dim`);
+    await page.getByRole("button", { name: "Light mode" }).click();
+  }
+  await page.setViewportSize({ width: 1024, height: 768 });
+}
+
+describe("procedures on a tablet with no network", () => {
+  it("runs a cooldown offline end to end, syncs it, and the safety officer sees the signed record", async () => {
+    const t = await tablet(DEMO_USERS.tomasz.email);
+    const { page } = t;
+
+    // Online once: set the signing PIN (needs the password again).
+    await page.getByRole("link", { name: "Procedures" }).click();
+    await page.getByRole("heading", { level: 1, name: "Procedures" }).waitFor();
+    await page.getByRole("button", { name: "Set PIN" }).click();
+    await page.getByLabel("Your password").fill(DEMO_PASSWORD);
+    await page.getByLabel("New PIN (6–12 digits)").fill(PIN);
+    await page.getByLabel("PIN again").fill(PIN);
+    await page.getByRole("button", { name: "Save PIN" }).click();
+    await page.getByRole("status").filter({ hasText: "Signing PIN set on this tablet." }).waitFor();
+
+    // No network from here to the end of the run.
+    await t.context.setOffline(true);
+    await page.getByRole("button", { name: "Start Cooldown — dry dilution refrigerator on Heron" }).click();
+    await page.waitForURL(/\/runs\?id=/);
+    const runId = new URL(page.url()).searchParams.get("id")!;
+    await page.getByRole("heading", { level: 1, name: /Cooldown — dry dilution refrigerator — Heron/ }).waitFor();
+
+    await acknowledge(page, "caution-pressure");
+    await tick(page, "probe-closed");
+    await reading(page, "ovc-pressure", "0.00005");
+    await tick(page, "leak-check");
+
+    // Out of range: flagged at once, the step's own advice shown, and a comment is required.
+    const tank = step(page, "tank-before");
+    for (const k of "640") await tank.getByRole("group", { name: /Keypad/ }).getByRole("button", { name: k, exact: true }).click();
+    await tank.getByRole("status").filter({ hasText: "Out of range: below 700 – 900 mbar." }).waitFor();
+    await tank.getByText("Do not condense.").waitFor();
+    expect(await tank.getByRole("button", { name: "Record flagged reading" }).isDisabled()).toBe(true);
+    await tank.getByLabel(/^Comment/).fill("Tank low after the last warmup: facility admin told, mixture topped up from the reserve.");
+    await shots(page, "run-reading-out-of-range");
+    await tank.getByRole("button", { name: "Record flagged reading" }).click();
+    await page.locator('[data-step="tank-before"][data-status="flagged"]').waitFor();
+    await next(page);
+
+    await tick(page, "cold-trap");
+    await tick(page, "compressor");
+    await reading(page, "precool-pt1", "45", { keypad: true });
+    await reading(page, "precool-pt2", "3.4", { keypad: true });
+
+    // Hold point: the steps after it wait until it is signed.
+    await page.locator('[data-step="hold-precool"][data-status="todo"]').waitFor();
+    await signWithPin(page, "✍ Sign hold point", "Sign: Verified");
+    await page.locator('[data-step="hold-precool"][data-status="done"]').waitFor();
+    await step(page, "hold-precool").locator("[data-signature]").getByText("Verified — Tomasz Okafor").waitFor();
+
+    // Reload in the middle of the run with no network: the run is still there, at the next step.
+    await page.reload();
+    await page.getByRole("heading", { level: 1, name: /Cooldown — dry dilution refrigerator — Heron/ }).waitFor();
+    await step(page, "caution-condense").waitFor();
+    expect(await page.getByRole("progressbar", { name: "Run progress" }).getAttribute("aria-valuenow")).toBe("53");
+
+    await acknowledge(page, "caution-condense");
+    await reading(page, "condense-pressure", "1.8");
+    await reading(page, "tank-after", "20");
+    await tick(page, "circulation");
+    await reading(page, "still-pressure", "0.05");
+    await reading(page, "flow", "450");
+    await reading(page, "mxc-base", "11", { keypad: true });
+
+    // A photo from the camera, kept on the tablet until the sync uploads it.
+    await step(page, "panel-photo").getByLabel("Take a photo").setInputFiles({ name: "gas-panel.png", mimeType: "image/png", buffer: PHOTO });
+    await page.locator('[data-step="panel-photo"][data-status="done"]').waitFor();
+    await step(page, "panel-photo").getByRole("img", { name: "Photo for this step" }).waitFor();
+    await next(page);
+
+    await signWithPin(page, "✍ Sign hold point", "Sign: Verified");
+    await page.locator('[data-step="hold-base"][data-status="done"]').waitFor();
+    await next(page);
+    await step(page, "remarks").getByLabel("Note").fill("Base reached in 58 h; still heater at the usual power.");
+    await step(page, "remarks").getByRole("button", { name: "Save note" }).click();
+    await page.locator('[data-step="remarks"][data-status="done"]').waitFor();
+    await shots(page, "run-step");
+
+    await page.getByRole("tab", { name: "All steps" }).click();
+    await screenshot(page, "run-list-1024x768-light");
+    await page.getByRole("tab", { name: "One step" }).click();
+
+    expect(await page.getByRole("progressbar", { name: "Run progress" }).getAttribute("aria-valuenow")).toBe("100");
+    await signWithPin(page, "✍ Complete and sign", "Sign: Performed");
+    await page.getByText("Completed", { exact: true }).first().waitFor();
+    // Everything is still only on this tablet.
+    expect(Number(await page.getByTestId("sync-indicator").getAttribute("data-pending"))).toBeGreaterThan(20);
+
+    // Back online: the photo and every entry reach the server.
+    await t.context.setOffline(false);
+    await waitPending(page, 0, 90_000);
+    const res = await page.request.get(`/api/runs?id=${runId}`);
+    expect(res.status()).toBe(200);
+    const record = (await res.json()) as { run: { status: string; templateId: string }; template: { version: number }; entries: { kind: string; payload: Record<string, unknown> }[] };
+    expect(record.run.status).toBe("completed");
+    expect(record.template.version).toBe(1);
+    const sigs = record.entries.filter((e) => e.kind === "signature");
+    expect(sigs.map((s) => s.payload.meaning).sort()).toEqual(["performed", "verified", "verified"]);
+    expect(sigs.every((s) => s.payload.confirmedBy === "pin" && String(s.payload.image).startsWith("data:image/png;base64,"))).toBe(true);
+    const flagged = record.entries.find((e) => e.kind === "run.step" && e.payload.stepId === "tank-before");
+    expect(flagged?.payload).toMatchObject({ value: 640, outOfRange: true });
+    const photo = record.entries.find((e) => e.kind === "run.step" && e.payload.kind === "photo");
+    const file = await page.request.get(`/api/attachments/${String(photo?.payload.attachmentId)}`);
+    expect(file.status()).toBe(200);
+    expect(Buffer.from(await file.body()).subarray(0, 8).equals(PHOTO.subarray(0, 8))).toBe(true);
+
+    // The safety officer, on her own tablet, opens the run record with the manifestations.
+    const g = await tablet(DEMO_USERS.grace.email);
+    await g.page.goto(`/runs?id=${runId}&view=record`);
+    const rec = g.page.getByRole("article", { name: "Run record" });
+    await rec.waitFor({ timeout: 60_000 });
+    await rec.locator('[data-record-step="hold-precool"] [data-signature]').getByText("Verified — Tomasz Okafor").waitFor();
+    const manifest = await rec.locator("[data-signature]").allInnerTexts();
+    expect(manifest.length).toBe(3);
+    for (const m of manifest) {
+      expect(m).toMatch(/Tomasz Okafor/);
+      expect(m).toMatch(/Technician/);
+      expect(m).toMatch(/\d{2} \w{3} \d{4}, \d{2}:\d{2}/);
+      expect(m).toMatch(/identity confirmed with PIN/);
+    }
+    expect(manifest.some((m) => /Performed/.test(m))).toBe(true);
+    await rec.getByText("640 mbar (out of range)").waitFor();
+    await rec.getByRole("img", { name: "Photo for this step" }).waitFor();
+    await screenshot(g.page, "run-record-safety-officer");
+    await g.page.emulateMedia({ media: "print" });
+    await screenshot(g.page, "run-record-print");
+    await g.page.emulateMedia({ media: "screen" });
+
+    expect(t.errors).toEqual([]);
+    expect(g.errors).toEqual([]);
+  });
+});
