@@ -79,8 +79,9 @@ describe("calculators", () => {
     // Another section of the same cached page, still offline.
     await page.getByRole("link", { name: "Oxygen", exact: true }).click();
     await page.getByRole("heading", { level: 2, name: "Oxygen deficiency", exact: true }).waitFor();
-    // 20 m³ into the 220 m³ room, mixed: 0.21·220/240 = 19.25 % O2 (hand arithmetic, FESHM 4240 form).
-    await expect.poll(() => page.locator('dl[aria-label="Sudden release: results"]').innerText()).toContain("19.3 % O₂");
+    // 30 m³ into the 220 m³ room, mixed: 0.21·220/250 = 18.48 % O2 (hand arithmetic, FESHM 4240 form).
+    await page.getByLabel("Gas released").fill("30");
+    await expect.poll(() => page.locator('dl[aria-label="Sudden release: results"]').innerText()).toContain("18.5 % O₂");
 
     for (const [section, theme] of [
       ["its90", "light"],
