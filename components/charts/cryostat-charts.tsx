@@ -14,21 +14,20 @@ import { UplotChart, type Palette } from "./uplot-chart";
 
 const HEIGHT = 260;
 
-/** Time ticks as the room reads them: "5 Nov", or "14:00" when the span is short. */
+/** Time ticks as the room reads them: "5 Nov", with the hour under it when the span is a few days. */
 function timeTicks(u: uPlotType, splits: number[]): string[] {
   const span = (u.scales.x?.max ?? 0) - (u.scales.x?.min ?? 0);
   return splits.map((s) => {
     const d = new Date(s * 1000);
-    return span < 2 * 86_400
-      ? d.toLocaleString("en-GB", { day: "numeric", month: "short", hour: "2-digit", minute: "2-digit" })
-      : d.toLocaleDateString("en-GB", { day: "numeric", month: "short" });
+    const day = d.toLocaleDateString("en-GB", { day: "numeric", month: "short" });
+    return span < 6 * 86_400 ? `${day}\n${d.toLocaleTimeString("en-GB", { hour: "2-digit", minute: "2-digit" })}` : day;
   });
 }
 
 function baseAxes(p: Palette, yLabel: string, yValues?: uPlotType.Axis["values"]): uPlotType.Axis[] {
   const common = { stroke: p.axis, grid: { stroke: p.grid, width: 1 }, ticks: { stroke: p.grid, width: 1 }, font: p.font, labelFont: p.font };
   return [
-    { ...common, values: timeTicks, space: 70 },
+    { ...common, values: timeTicks, space: 70, size: 56 },
     { ...common, label: yLabel, size: 64, ...(yValues ? { values: yValues } : {}) },
   ];
 }
