@@ -7,7 +7,7 @@ import { entries, signatures, type EntryRow } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { recordHash } from "@/lib/sync/hash";
-import { auditFindingCheck } from "./audit";
+import { auditChecks } from "./audit";
 import { mailProjector } from "./mail";
 import { projectRuns, runChecks } from "./runs";
 import { toStoredRow } from "./stored";
@@ -45,7 +45,7 @@ const correctionTarget: Check = async (db, e, batch) => {
   return null;
 };
 
-const checks: Check[] = [signatureBinding, correctionTarget, ...runChecks, auditFindingCheck];
+const checks: Check[] = [signatureBinding, correctionTarget, ...runChecks, ...auditChecks];
 const projectors: Projector[] = [
   async (db, rows) => {
     const sigs = rows.filter((r) => r.kind === "signature");
