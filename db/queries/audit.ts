@@ -31,6 +31,21 @@ export async function auditFindingCheck(db: Db, e: EntryInput, batch: Map<string
   return null;
 }
 
+/** An "audited" signature signs a finding, and only with the officer's PIN or password (R5). */
+export async function auditSignatureCheck(db: Db, e: EntryInput, batch: Map<string, EntryInput>): Promise<Problem | null> {
+  if (e.kind !== "signature") return null;
+  const p = e.payload as { signedEntryId: string; meaning: string; confirmedBy?: string; confirmProof?: string };
+  if (p.meaning !== "audited") return null;
+  const inBatch = batch.get(p.signedEntryId);
+  const [row] = inBatch ? [] : await db.select({ kind: entries.kind }).from(entries).where(eq(entries.id, p.signedEntryId));
+  const target = inBatch ?? row;
+  if (target && target.kind !== "audit.finding") return { code: "bad_request:signature", message: "An audit signature signs the officer's finding, not the record itself." };
+  if (!p.confirmedBy || !p.confirmProof) return { code: "forbidden:signature", message: "An audit signature must be confirmed with the officer's PIN or password." };
+  return null;
+}
+
+export const auditChecks = [auditFindingCheck, auditSignatureCheck];
+
 export type SignatureView = { entryId: string; signedEntryId: string; meaning: string; signerId: string; signerName: string; signerRole: string; signedAt: string; signedHash: string; confirmedBy: string | null; image: string | null };
 export type FindingView = { id: string; verdict: "acceptable" | "needs_action"; findings: string; flags: string[]; authorName: string; recordedAt: string; signatures: SignatureView[] };
 
