@@ -146,6 +146,7 @@ export function RunScreen({ runId, initialView = "step" }: { runId: string; init
       ) : null}
 
       {state.status === "open" && mode !== "record" && <RunEnd ctx={ctx} state={state} />}
+      {state.completed && !state.signatures.some((g) => g.valid && g.meaning === "performed" && g.signedEntryId === state.completed?.entry.id) && <SignCompletion ctx={ctx} entry={state.completed.entry as StoredLocalEntry} />}
     </div>
   );
 }
@@ -636,6 +637,24 @@ function RunEnd({ ctx, state }: { ctx: Ctx; state: RunState }) {
           }}
         >
           <p>I performed this procedure as recorded: {state.progress.done} of {state.progress.required} required steps done.</p>
+        </SignDialog>
+      )}
+    </Panel>
+  );
+}
+
+/** A completion whose signature did not go through (e.g. a wrong password) is signed as it stands. */
+function SignCompletion({ ctx, entry }: { ctx: Ctx; entry: StoredLocalEntry }) {
+  const [signing, setSigning] = useState(false);
+  if (ctx.me.id !== entry.authorId) return null;
+  return (
+    <Panel className="no-print">
+      <Button variant="primary" className="min-h-16 text-xl" onClick={() => setSigning(true)}>
+        ✍ Sign the completion
+      </Button>
+      {signing && (
+        <SignDialog me={ctx.me} meaning="performed" title="Sign the completion" onClose={() => setSigning(false)} onSign={async (c) => void (await writeSignature(entry, ctx.me, "performed", c))}>
+          <p>I performed this procedure as recorded.</p>
         </SignDialog>
       )}
     </Panel>

@@ -47,6 +47,8 @@ async function waitPending(page: Page, n: number, timeout = 60_000): Promise<voi
 
 const step = (page: Page, id: string) => page.locator(`[data-step="${id}"]`);
 
+const mark = (what: string) => console.log(`[procedures e2e] ${new Date().toISOString().slice(11, 19)} ${what}`);
+
 async function next(page: Page) {
   await page.getByRole("button", { name: "Next step →" }).click();
 }
@@ -123,10 +125,12 @@ describe("procedures on a tablet with no network", () => {
     // No network from here to the end of the run.
     await t.context.setOffline(true);
     await page.getByRole("button", { name: "Start Cooldown — dry dilution refrigerator on Heron" }).click();
-    await page.waitForURL(/\/runs\?id=/);
+    // Offline, Chromium reports the service worker's answer to a navigation as "aborted": wait for the page instead.
+    await page.getByRole("heading", { level: 1, name: /Cooldown — dry dilution refrigerator — Heron/ }).waitFor({ timeout: 30_000 });
     const runId = new URL(page.url()).searchParams.get("id")!;
-    await page.getByRole("heading", { level: 1, name: /Cooldown — dry dilution refrigerator — Heron/ }).waitFor();
+    expect(runId).toMatch(/^[0-9a-f-]{36}$/);
 
+    mark("run opened offline");
     await acknowledge(page, "caution-pressure");
     await tick(page, "probe-closed");
     await reading(page, "ovc-pressure", "0.00005");
@@ -149,12 +153,14 @@ describe("procedures on a tablet with no network", () => {
     await reading(page, "precool-pt1", "45", { keypad: true });
     await reading(page, "precool-pt2", "3.4", { keypad: true });
 
+    mark("first readings done");
     // Hold point: the steps after it wait until it is signed.
     await page.locator('[data-step="hold-precool"][data-status="todo"]').waitFor();
     await signWithPin(page, "✍ Sign hold point", "Sign: Verified");
     await page.locator('[data-step="hold-precool"][data-status="done"]').waitFor();
     await step(page, "hold-precool").locator("[data-signature]").getByText("Verified — Tomasz Okafor").waitFor();
 
+    mark("first hold signed");
     // Reload in the middle of the run with no network: the run is still there, at the next step.
     await page.reload();
     await page.getByRole("heading", { level: 1, name: /Cooldown — dry dilution refrigerator — Heron/ }).waitFor();
@@ -169,6 +175,7 @@ describe("procedures on a tablet with no network", () => {
     await reading(page, "flow", "450");
     await reading(page, "mxc-base", "11", { keypad: true });
 
+    mark("after reload, readings done");
     // A photo from the camera, kept on the tablet until the sync uploads it.
     await step(page, "panel-photo").getByLabel("Take a photo").setInputFiles({ name: "gas-panel.png", mimeType: "image/png", buffer: PHOTO });
     await page.locator('[data-step="panel-photo"][data-status="done"]').waitFor();
@@ -193,6 +200,7 @@ describe("procedures on a tablet with no network", () => {
     // Everything is still only on this tablet.
     expect(Number(await page.getByTestId("sync-indicator").getAttribute("data-pending"))).toBeGreaterThan(20);
 
+    mark("completed offline");
     // Back online: the photo and every entry reach the server.
     await t.context.setOffline(false);
     await waitPending(page, 0, 90_000);
@@ -211,6 +219,7 @@ describe("procedures on a tablet with no network", () => {
     expect(file.status()).toBe(200);
     expect(Buffer.from(await file.body()).subarray(0, 8).equals(PHOTO.subarray(0, 8))).toBe(true);
 
+    mark("synced to the server");
     // The safety officer, on her own tablet, opens the run record with the manifestations.
     const g = await tablet(DEMO_USERS.grace.email);
     await g.page.goto(`/runs?id=${runId}&view=record`);
@@ -235,5 +244,5 @@ describe("procedures on a tablet with no network", () => {
 
     expect(t.errors).toEqual([]);
     expect(g.errors).toEqual([]);
-  });
+  }, 600_000);
 });
