@@ -12,6 +12,9 @@ declare global {
 declare const self: ServiceWorkerGlobalScope;
 
 const pages = new NetworkFirst({ cacheName: "pages", networkTimeoutSeconds: 4 });
+// A strategy of its own: Serwist adds the /offline fallback plugin to the strategies it is given
+// in runtimeCaching, and that would answer before the cryostat template below could.
+const cryostatPages = new NetworkFirst({ cacheName: "pages", networkTimeoutSeconds: 4 });
 // Every cryostat page has the same HTML (the id is read from the address on the tablet), so a
 // cryostat never opened online is still served offline from the precached template.
 const CRYOSTAT_PAGE = /^\/cryostats\/[^/]+\/?$/;
@@ -29,7 +32,7 @@ const serwist: Serwist = new Serwist({
       matcher: ({ request, url, sameOrigin }) => sameOrigin && request.mode === "navigate" && CRYOSTAT_PAGE.test(url.pathname),
       handler: async (options) => {
         try {
-          return await pages.handle(options);
+          return await cryostatPages.handle(options);
         } catch (e) {
           const template = await serwist.matchPrecache(CRYOSTAT_TEMPLATE);
           if (template) return template;
