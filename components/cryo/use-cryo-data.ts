@@ -4,6 +4,7 @@
 // localStorage so the reading forms keep their derived values with no network. The last good copy
 // is shown at once; a fetch refreshes it when the server answers.
 import { useEffect, useState } from "react";
+import { useCryostats } from "@/lib/local/hooks";
 import type { CalibrationRecord } from "@/db/queries/calibrations";
 import type { CryostatSeries } from "@/db/queries/series";
 
@@ -101,9 +102,17 @@ export function useCalibrations(cryostatId: string | undefined, refresh = 0): Re
   );
 }
 
-/** The cryostats (id, name, config) for presets: the room overview, remembered for offline use. */
+/**
+ * The cryostats (id, name, config) for presets: the tablet store's copy (pulled by sync, there
+ * offline) when it has one, else the room overview fetched and remembered here.
+ */
 export function useCryostatList(): Remote<{ id: string; name: string; config: import("@/lib/schemas/cryostat").CryostatConfig }[]> {
-  return useRemembered("rimelog-cryostat-list", "/api/cryostats", pickCryostats);
+  const local = useCryostats();
+  const remote = useRemembered("rimelog-cryostat-list", "/api/cryostats", pickCryostats);
+  if (local && local.length > 0) {
+    return { data: local.map((c) => ({ id: c.id, name: c.name, config: c.config })), error: null, loading: false, stale: false };
+  }
+  return remote;
 }
 const pickCryostats = (body: unknown) =>
   ((body as { cryostats?: { id: string; name: string; config: import("@/lib/schemas/cryostat").CryostatConfig }[] }).cryostats ?? []).map((c) => ({

@@ -6,6 +6,7 @@ import { GasSection, OxygenSection } from "./safety-gas";
 import { HeliumSection, MagnetSection } from "./helium-magnet";
 import { CalibrationSection, Its90Section, PlatinumSection } from "./thermometry";
 import { TransportSection } from "./transport";
+import { useCryostatList } from "@/components/cryo/use-cryo-data";
 
 const SECTIONS: { id: string; label: string; title: string; render: () => ReactNode }[] = [
   { id: "its90", label: "ITS-90", title: "Helium vapour-pressure thermometry", render: () => <Its90Section /> },
@@ -25,6 +26,8 @@ function fromHash(): string {
 
 export function Calculators() {
   const [active, setActive] = useState<string | null>(null);
+  // Fetch (and remember) the cryostats on any online visit, so the presets are there offline.
+  useCryostatList();
   useEffect(() => {
     setActive(fromHash());
     const onHash = () => setActive(fromHash());

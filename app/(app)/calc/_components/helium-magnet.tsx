@@ -319,7 +319,7 @@ export function MagnetSection() {
             : Number.isFinite(n.bf) && Number.isFinite(n.d)
               ? { fieldT: n.bf! / 1000, distanceM: n.d!, direction: "axis" as const }
               : null;
-          if (!source) throw new RangeError("Dipole moment: give the moment, or a field and its distance");
+          if (!source) return [{ label: "Contour distance", text: "Enter the dipole moment, or a field and its distance" }];
           const est = contourDistance(source, contourT);
           return [
             { label: `${figure(n.c!)} mT line on the axis`, text: `≈ ${figure(est.axisDistanceM, 3)} m` },
