@@ -139,7 +139,7 @@ export function Calculator({
         <dl aria-label={`${title}: results`} className="grid gap-x-6 gap-y-2 rounded-xl bg-sunk px-4 py-3 sm:grid-cols-2">
           {rows.map((r) => (
             <div key={r.label} className="flex flex-col">
-              <dt className="text-xs font-semibold uppercase tracking-wide text-muted">{r.label}</dt>
+              <dt className="text-xs font-semibold tracking-wide text-muted">{r.label}</dt>
               <dd className={`num text-lg font-semibold ${r.tone ? TONE[r.tone] : "text-ink"}`}>{r.text}</dd>
             </div>
           ))}

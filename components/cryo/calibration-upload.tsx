@@ -223,17 +223,17 @@ export function CalibrationUploadPage() {
             <>
               <dl className="num grid gap-x-6 gap-y-1 rounded-xl bg-sunk px-4 py-3 sm:grid-cols-3">
                 <div>
-                  <dt className="text-xs font-semibold uppercase tracking-wide text-muted">Points</dt>
+                  <dt className="text-xs font-semibold tracking-wide text-muted">Points</dt>
                   <dd className="text-lg font-semibold">{preview.table.points.length}</dd>
                 </div>
                 <div>
-                  <dt className="text-xs font-semibold uppercase tracking-wide text-muted">Temperature range</dt>
+                  <dt className="text-xs font-semibold tracking-wide text-muted">Temperature range</dt>
                   <dd className="text-lg font-semibold">
                     {temperatureText(preview.table.range.temperatureMinK)} – {temperatureText(preview.table.range.temperatureMaxK)}
                   </dd>
                 </div>
                 <div>
-                  <dt className="text-xs font-semibold uppercase tracking-wide text-muted">Reading range</dt>
+                  <dt className="text-xs font-semibold tracking-wide text-muted">Reading range</dt>
                   <dd className="text-lg font-semibold">
                     {figure(preview.table.range.valueMin)} – {figure(preview.table.range.valueMax)} {preview.table.valueUnit}
                   </dd>

@@ -74,7 +74,7 @@ export function DerivedValue(props: DerivedValueProps) {
       <dl className="flex flex-wrap gap-x-6 gap-y-1">
         {derived.items.map((item) => (
           <div key={item.label} className="flex flex-col">
-            <dt className="text-xs font-semibold uppercase tracking-wide text-muted">{item.label}</dt>
+            <dt className="text-xs font-semibold tracking-wide text-muted">{item.label}</dt>
             <dd className="num text-lg font-semibold text-ink">{item.text}</dd>
           </div>
         ))}

@@ -28,7 +28,9 @@ import { Caution } from "@/components/safety/caution";
 import { useCryostatList } from "@/components/cryo/use-cryo-data";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 
-export const REFERENCE_OPTIONS = GAS_REFERENCES.map((r) => ({ value: r, label: r.replace("C_", " °C, ").replace("1atm", "1 atm") }));
+/** "20C_1atm" → "20 °C, 1 atm". */
+export const refLabel = (r: string | undefined) => (r ?? "").replace("C_", " °C, ").replace("1atm", "1 atm").replace("100kPa", "100 kPa");
+export const REFERENCE_OPTIONS = GAS_REFERENCES.map((r) => ({ value: r, label: refLabel(r) }));
 
 function PresetPicker({
   label,
@@ -167,7 +169,7 @@ export function HeliumSection() {
         compute={({ n, s }) => {
           const g = gasLitresFromLiquid(n.l!, s.ref as GasReference, s.cry as "helium" | "nitrogen");
           return [
-            { label: `Gas at ${s.ref?.replace("C_", " °C, ")}`, text: `${figure(g.gasLitres / 1000, 4)} m³ (${figure(g.gasLitres, 5)} L)` },
+            { label: `Gas at ${refLabel(s.ref)}`, text: `${figure(g.gasLitres / 1000, 4)} m³ (${figure(g.gasLitres, 5)} L)` },
             { label: "Expansion ratio", text: `1 : ${figure(g.expansionRatio, 4)}` },
           ];
         }}

@@ -22,7 +22,7 @@ import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS, type ResultRow } from "@/
 import { durationText, figure } from "@/components/cryo/derive";
 import { EstimateNote } from "@/components/cryo/estimate-note";
 import { Caution } from "@/components/safety/caution";
-import { REFERENCE_OPTIONS } from "./helium-magnet";
+import { REFERENCE_OPTIONS, refLabel } from "./helium-magnet";
 
 /** The demo room's free volume and ventilation (room B-014); the facility's own figures replace them. */
 export const ROOM_DEFAULTS = { volumeM3: 220, airChangesPerHour: 4 };
@@ -92,7 +92,7 @@ export function OxygenSection() {
         compute={({ n, s }) => {
           const gas = quenchGasVolume(n.l!, s.ref as GasReference);
           return [
-            { label: "Helium gas", text: `${figure(gas.gasM3, 3)} m³ at ${s.ref?.replace("C_", " °C, ")}` },
+            { label: "Helium gas", text: `${figure(gas.gasM3, 3)} m³ at ${refLabel(s.ref)}` },
             oxygenRow("Mixed, pushing air out", oxygenAfterMixedRelease({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 })),
             oxygenRow("Displacing air (worst case)", oxygenAfterDisplacement({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 })),
           ];
@@ -108,7 +108,7 @@ export function OxygenSection() {
   );
 }
 
-const MOLAR_OPTIONS = MOLAR_VOLUME_REFERENCES.map((r) => ({ value: r, label: r.replace("C_", " °C, ").replace("1atm", "1 atm").replace("100kPa", "100 kPa") }));
+const MOLAR_OPTIONS = MOLAR_VOLUME_REFERENCES.map((r) => ({ value: r, label: refLabel(r) }));
 
 export function GasSection() {
   return (
@@ -140,7 +140,7 @@ export function GasSection() {
           const g = gasAmount({ pressurePa: pa, volumeLitres: n.v!, temperatureK: n.t! + 273.15, compressibilityZ: z }, s.ref as MolarVolumeReference);
           return [
             { label: "Amount", text: `${figure(g.mol, 4)} mol` },
-            { label: `Gas at ${s.ref?.replace("C_", " °C, ")}`, text: `${figure(g.litresAtReference, 4)} L` },
+            { label: `Gas at ${refLabel(s.ref)}`, text: `${figure(g.litresAtReference, 4)} L` },
             { label: "Z used", text: `${figure(z, 4)} (${zNote})`, tone: zNote === "ideal gas" && pa > 5e5 ? "warn" : undefined },
           ];
         }}

@@ -37,10 +37,10 @@ export function TransportSection() {
       <Panel className="flex flex-col gap-2">
         <h3 className="text-lg font-bold">Constants (2019 SI, exact e and h)</h3>
         <dl className="num grid gap-1 text-base">
-          <div className="flex justify-between gap-4"><dt>Conductance quantum 2e²/h</dt><dd>{CONDUCTANCE_QUANTUM_S.toPrecision(12)} S</dd></div>
+          <div className="flex justify-between gap-4"><dt>Conductance quantum 2e²/h</dt><dd>{CONDUCTANCE_QUANTUM_S.toExponential(11)} S</dd></div>
           <div className="flex justify-between gap-4"><dt>… as a resistance h/2e²</dt><dd>{figure(1 / CONDUCTANCE_QUANTUM_S, 8)} Ω</dd></div>
-          <div className="flex justify-between gap-4"><dt>Flux quantum h/e</dt><dd>{FLUX_QUANTUM_H_OVER_E_WB.toPrecision(10)} Wb</dd></div>
-          <div className="flex justify-between gap-4"><dt>Superconducting flux quantum h/2e</dt><dd>{FLUX_QUANTUM_H_OVER_2E_WB.toPrecision(10)} Wb</dd></div>
+          <div className="flex justify-between gap-4"><dt>Flux quantum h/e</dt><dd>{FLUX_QUANTUM_H_OVER_E_WB.toExponential(9)} Wb</dd></div>
+          <div className="flex justify-between gap-4"><dt>Superconducting flux quantum h/2e</dt><dd>{FLUX_QUANTUM_H_OVER_2E_WB.toExponential(9)} Wb</dd></div>
         </dl>
       </Panel>
       <Calculator
