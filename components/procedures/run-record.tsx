@@ -6,6 +6,7 @@ import { SignatureManifestation } from "@/components/signature/manifestation";
 import { Button } from "@/components/ui/button";
 import { ROLE_LABEL } from "@/lib/auth/permissions";
 import { formatDate, kindLabel } from "@/lib/format";
+import { useCryostat } from "@/lib/local/hooks";
 import { describeRange } from "@/lib/procedures/state";
 import type { RunStepPayload } from "@/lib/schemas/run";
 import { describeEntry, Photo } from "./step-bits";
@@ -13,6 +14,7 @@ import type { RunView } from "./use-run";
 
 export function RunRecord({ view, names }: { view: RunView; names: Record<string, string> }) {
   const { state, template, start } = view;
+  const cryostat = useCryostat(start.cryostatId ?? "");
   const sigsOn = (id: string) => state.signatures.filter((g) => g.signedEntryId === id);
   const who = (id: string) => names[id] ?? id;
   const ends = [state.completed?.entry, state.aborted?.entry].filter(Boolean);
@@ -32,7 +34,7 @@ export function RunRecord({ view, names }: { view: RunView; names: Record<string
           </div>
           <div>
             <dt className="inline font-semibold">Cryostat: </dt>
-            <dd className="inline">{start.cryostatId}</dd>
+            <dd className="inline">{cryostat?.name ?? start.cryostatId}</dd>
           </div>
           <div>
             <dt className="inline font-semibold">Started: </dt>

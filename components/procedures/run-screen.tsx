@@ -106,7 +106,7 @@ export function RunScreen({ runId, initialView = "step" }: { runId: string; init
           </ul>
         </Notice>
       )}
-      {state.flags.length > 0 && (
+      {state.flags.length > 0 && mode !== "record" && (
         <Notice tone="warn" title="Flags on this run">
           <ul className="list-disc pl-5">
             {state.flags.map((f) => (
@@ -155,7 +155,7 @@ function RunHeader({ state, title, version, cryostatId, mode, setMode }: { state
   const cryostat = useCryostat(cryostatId);
   const { done, required, percent } = state.progress;
   return (
-    <Panel className="flex flex-col gap-3">
+    <Panel className="no-print flex flex-col gap-3">
       <div className="flex flex-wrap items-start justify-between gap-2">
         <div>
           <h1 className="text-2xl font-bold sm:text-3xl">{title}</h1>
