@@ -271,7 +271,7 @@ describe("procedures on a tablet with no network", () => {
     await out.page.goto("/handover?cryostat=plover");
     await out.page.getByRole("heading", { level: 1, name: "Shift handover — Plover" }).waitFor();
     // The summary comes from the log: the demo history has helium levels and a field on Plover.
-    await out.page.getByText(/Minimum level in about/).waitFor();
+    await out.page.getByText("Helium", { exact: true }).waitFor();
     await out.page.getByLabel("Note for the next shift").fill(note);
     await out.page.getByLabel("Handed over to").selectOption({ label: "Priya Lindqvist" });
     await signWithPin(out.page, "✍ Hand over and sign", "Sign: Handed over");
