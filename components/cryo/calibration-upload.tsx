@@ -9,6 +9,7 @@ import { Notice, Panel } from "@/components/ui/panel";
 import { UplotChart, type Palette } from "@/components/charts/uplot-chart";
 import { useMe } from "@/components/shell/use-me";
 import { convertReading, parseCalibration, type CalibrationTable, type SensorKind } from "@/lib/cryo";
+import { putAttachment } from "@/lib/local/record";
 import { MAX_CALIBRATION_BYTES, SENSOR_KIND_VALUES, type CalibrationUpload } from "./calibration-schema";
 import { figure, readNumber, temperatureText } from "./derive";
 import { refreshCryoData, useCalibrations, useCryostatList } from "./use-cryo-data";
@@ -110,6 +111,15 @@ export function CalibrationUploadPage() {
     if (!cryostat || !file || !preview || !("table" in preview)) return;
     setBusy(true);
     setResult(null);
+    // The file itself goes through the tablet's attachment store (uploaded on the next sync);
+    // the table row keeps its id. If the store refuses (no local session), the row still keeps
+    // the file's text.
+    let attachmentId: string | undefined;
+    try {
+      attachmentId = await putAttachment(new Blob([file.text], { type: "text/plain" }), { fileName: file.name, mime: "text/plain" });
+    } catch {
+      attachmentId = undefined;
+    }
     const body: CalibrationUpload = {
       cryostatId: cryostat.id,
       stage: stageKey,
@@ -118,6 +128,7 @@ export function CalibrationUploadPage() {
       fileName: file.name,
       text: file.text,
       ...(columns === "auto" ? {} : { columns }),
+      ...(attachmentId ? { attachmentId } : {}),
     };
     try {
       const r = await fetch("/api/calibrations", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
