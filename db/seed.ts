@@ -78,6 +78,10 @@ export const DEMO_RULES: FacilityRulesValues = {
   controlledAreaMilliTesla: 0.5,
   controlledAreaNote: "The 0.5 mT line around Heron and Plover is marked on the floor. No pacemakers or active implants beyond it; no loose steel tools.",
   forecastWarnDays: 3,
+  transferEfficiencyMinPercent: 50,
+  transferEfficiencyMaxPercent: 95,
+  roomFreeVolumeM3: 220,
+  roomAirChangesPerHour: 4,
   contacts: [
     { name: "Dr. Grace Oyelaran", role: "Safety officer", phone: "+00 555 0142" },
     { name: "Institute emergency desk", role: "Emergencies (24 h)", phone: "+00 555 0100" },
@@ -153,6 +157,7 @@ export function demoHistory(now: number): Draft[] {
   push({ at: start + HOUR, cryostatId: "plover", kind: "state", payload: { state: "cold" }, author: "u-tomasz" });
   let level = 62;
   let dayOfWeek = 0;
+  let transfers = 0;
   for (let d = 0; d < 28; d++) {
     const t0 = start + d * DAY + 8 * HOUR;
     level -= 5.2 + noise(0.6);
@@ -164,13 +169,17 @@ export function demoHistory(now: number): Draft[] {
     }
     push({ at: t0, cryostatId: "plover", kind: "helium.level", payload: { percent: round(level, 1) }, author: d % 2 ? "u-priya" : "u-tomasz" });
     dayOfWeek = d % 7;
-    if ((dayOfWeek === 1 || dayOfWeek === 4) && level < 60) {
+    if (dayOfWeek === 1 || dayOfWeek === 4) {
+      // Two transfers a week, topping up to about 90 % (≈ 1 L per % on Plover).
       const before = level;
-      const gained = round(48 + noise(4), 1);
+      const gained = round(Math.min(88 - before, 50) + noise(1.5), 1);
       const supplied = round(gained / (0.72 + noise(0.06)), 1);
       level = Math.min(92, before + gained);
-      const single = d === 11;
-      const noOxygen = d === 15;
+      transfers += 1;
+      // The audit has something to find: the third transfer was done alone, the fifth without
+      // an oxygen-monitor reading.
+      const single = transfers === 3;
+      const noOxygen = transfers === 5;
       push({
         at: t0 + 2 * HOUR,
         cryostatId: "plover",

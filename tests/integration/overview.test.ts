@@ -23,6 +23,14 @@ describe("room overview", () => {
     expect(wren!.lastEntry).not.toBeNull();
   });
 
+  it("gives the audit something to find: one transfer done alone, one without an oxygen reading", async () => {
+    const { demoHistory } = await import("@/db/seed");
+    const transfers = demoHistory(Date.parse("2026-11-30T12:00:00Z")).filter((d) => d.kind === "transfer");
+    expect(transfers.length).toBeGreaterThanOrEqual(6);
+    expect(transfers.filter((t) => (t.payload.peoplePresent as string[]).length === 1)).toHaveLength(1);
+    expect(transfers.filter((t) => t.payload.oxygenMonitorChecked === false)).toHaveLength(1);
+  });
+
   it("pages a logbook newest first without gaps or repeats", async () => {
     const db = await freshDb({ seeded: true });
     const seen: number[] = [];
