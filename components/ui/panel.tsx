@@ -15,7 +15,7 @@ const TONES: Record<Tone, string> = {
 };
 
 export function Tag({ tone = "neutral", children }: { tone?: Tone; children: ReactNode }) {
-  return <span className={`inline-flex items-center rounded-full border-2 px-3 py-0.5 text-sm font-semibold ${TONES[tone]}`}>{children}</span>;
+  return <span className={`inline-flex items-center rounded-full border-2 px-3 py-0.5 text-base font-semibold ${TONES[tone]}`}>{children}</span>;
 }
 
 export function Notice({ tone = "neutral", title, children, role }: { tone?: Tone; title?: string; children?: ReactNode; role?: "alert" | "status" }) {
