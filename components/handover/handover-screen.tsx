@@ -169,7 +169,8 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
                 {accepted ? <Tag tone="ok">Accepted</Tag> : <Tag tone="accent">Not yet accepted</Tag>}
               </p>
               <p className="whitespace-pre-wrap">{p.note}</p>
-              {p.summary.stages.length > 0 && <SummaryView s={p.summary} />}
+              {/* Older handovers may carry a partial summary: fill the lists before showing it. */}
+              {(p.summary?.stages?.length ?? 0) > 0 && <SummaryView s={{ ...p.summary, stages: p.summary.stages ?? [], openRuns: p.summary.openRuns ?? [], openIssues: p.summary.openIssues ?? [] }} />}
               {sigs.map((g) => (
                 <SignatureManifestation key={g.entryId} sig={g} />
               ))}
