@@ -168,34 +168,25 @@ function magnetCurrent(input: DeriveInput, currentA: number): Derived {
   const magnet = input.cryostat.config.magnet;
   if (!magnet) return NONE;
   const fieldT = fieldFromCurrent(currentA, magnet);
-  const from = input.fromFieldT ?? 0;
-  const ramp = rampTime(from, fieldT, magnet.rampLimitTPerMin, magnet);
-  return {
-    status: "ok",
-    caution: "magnet",
-    items: [
-      { label: "Field at centre", value: fieldT, unit: "T", text: `${figure(fieldT)} T` },
-      {
-        label: `Ramp from ${figure(from, 3)} T at ${figure(magnet.rampLimitTPerMin, 3)} T/min`,
-        value: ramp.minutes,
-        unit: "min",
-        text: durationText(ramp.minutes),
-      },
-    ],
-  };
+  return magnetRamp(input, magnet, fieldT, { label: "Field at centre", value: fieldT, unit: "T", text: `${figure(fieldT)} T` });
 }
 
 function magnetField(input: DeriveInput, fieldT: number): Derived {
   const magnet = input.cryostat.config.magnet;
   if (!magnet) return NONE;
   const currentA = currentFromField(fieldT, magnet);
+  return magnetRamp(input, magnet, fieldT, { label: "Coil current", value: currentA, unit: "A", text: `${figure(currentA)} A` });
+}
+
+// Both magnet directions end the same way: the converted figure, then the ramp from the last field.
+function magnetRamp(input: DeriveInput, magnet: NonNullable<CryostatConfig["magnet"]>, fieldT: number, converted: DerivedItem): Derived {
   const from = input.fromFieldT ?? 0;
   const ramp = rampTime(from, fieldT, magnet.rampLimitTPerMin, magnet);
   return {
     status: "ok",
     caution: "magnet",
     items: [
-      { label: "Coil current", value: currentA, unit: "A", text: `${figure(currentA)} A` },
+      converted,
       {
         label: `Ramp from ${figure(from, 3)} T at ${figure(magnet.rampLimitTPerMin, 3)} T/min`,
         value: ramp.minutes,
