@@ -12,6 +12,9 @@ const withSerwist = withSerwistInit({
   swDest: "public/sw.js",
   register: false,
   disable: process.env.NODE_ENV === "development",
+  // Serwist reloads every page on the `online` event by default: that would wipe what a
+  // technician is typing when the Wi-Fi comes back. The sync loop handles reconnects instead.
+  reloadOnOnline: false,
   additionalPrecacheEntries: offlinePages.map((url) => ({ url, revision })),
 });
 
