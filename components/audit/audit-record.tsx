@@ -10,6 +10,7 @@ import { SignatureManifestation } from "@/components/signature/manifestation";
 import { SignDialog } from "@/components/signature/sign-dialog";
 import { EntryBody } from "@/components/logbook/entry-body";
 import { Button, buttonClass } from "@/components/ui/button";
+import { ChoiceButtons } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import type { AuditItem, SignatureView } from "@/db/queries/audit";
 import type { QuenchFigures, TransferFigures } from "@/lib/audit/figures";
@@ -17,6 +18,11 @@ import { formatDate, kindLabel, trim } from "@/lib/format";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { signatureEntry, signingSubject } from "@/lib/signing/sign";
 import { FlagTags } from "./flag-tags";
+
+const VERDICTS = [
+  { value: "acceptable", label: "Acceptable" },
+  { value: "needs_action", label: "Needs action" },
+] as const;
 
 function Manifest({ s }: { s: SignatureView }) {
   return <SignatureManifestation sig={{ signerName: s.signerName, signerRole: s.signerRole, signedAt: s.signedAt, meaning: s.meaning as never, confirmedBy: (s.confirmedBy ?? undefined) as never, image: s.image as never, valid: true }} />;
@@ -124,7 +130,7 @@ export function AuditRecord({ id }: { id: string }) {
           </div>
           <h3 className="mt-4 font-bold">Automatic flags</h3>
           <FlagTags flags={item.flags} />
-          <ul className="mt-1 ml-5 list-disc text-sm">
+          <ul className="mt-1 ml-5 list-disc text-base">
             {item.flags.map((f) => (
               <li key={f.code}>{f.detail}</li>
             ))}
@@ -159,13 +165,7 @@ export function AuditRecord({ id }: { id: string }) {
         {officer && (
           <Panel>
             <h3 className="mb-2 text-lg font-bold">Your finding</h3>
-            <div className="mb-3 flex flex-wrap gap-2" role="radiogroup" aria-label="Verdict">
-              {(["acceptable", "needs_action"] as const).map((v) => (
-                <button key={v} type="button" role="radio" aria-checked={verdict === v} onClick={() => setVerdict(v)} className={`min-h-12 rounded-xl border-2 px-4 font-semibold ${verdict === v ? "border-accent bg-sunk" : "border-line"}`}>
-                  {v === "acceptable" ? "Acceptable" : "Needs action"}
-                </button>
-              ))}
-            </div>
+            <ChoiceButtons className="mb-3 flex flex-wrap gap-2" label="Verdict" options={VERDICTS} value={verdict} onChange={setVerdict} />
             <label htmlFor="finding-text" className="font-semibold">
               Findings
             </label>

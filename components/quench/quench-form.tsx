@@ -6,14 +6,19 @@ import { useMemo, useState } from "react";
 import { Caution } from "@/components/safety/caution";
 import { useFacilityRules } from "@/components/safety/use-facility-rules";
 import { Button } from "@/components/ui/button";
-import { Notice, Panel } from "@/components/ui/panel";
+import { ChoiceButtons, FieldRow, INPUT_CLASS, NumberField, OptionList, ProblemNotice } from "@/components/ui/form";
+import { Panel } from "@/components/ui/panel";
 import { quenchFigures } from "@/lib/audit/figures";
 import { trim } from "@/lib/format";
 import { useCryostats } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry } from "@/lib/local/record";
 import { heliumLostText, oxygenEstimateText } from "@/lib/safety/estimates";
 
-const INPUT = "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink focus:border-accent";
+const INPUT = INPUT_CLASS;
+const MODES = [
+  { value: "quench", label: "Magnet quench" },
+  { value: "incident", label: "Other incident" },
+] as const;
 const n = (s: string) => (s.trim() === "" ? undefined : Number(s.replace(",", ".")));
 const localNow = () => {
   const d = new Date();
@@ -72,46 +77,23 @@ export function QuenchForm() {
     }
   }
 
-  const field = (id: keyof typeof f, label: string, numeric = true) => (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={`q-${id}`} className="font-semibold">
-        {label}
-      </label>
-      <input id={`q-${id}`} inputMode={numeric ? "decimal" : "text"} className={`${INPUT} ${numeric ? "num" : ""}`} value={f[id]} onChange={(e) => set(id, e.target.value)} />
-    </div>
-  );
+  const field = (id: keyof typeof f, label: string) => <NumberField id={`q-${id}`} label={label} value={f[id]} onChange={(v) => set(id, v)} />;
 
   return (
     <div className="grid gap-4 lg:grid-cols-[1fr_24rem]">
       <Panel>
-        <div className="mb-3 flex gap-2" role="radiogroup" aria-label="What happened">
-          {(["quench", "incident"] as const).map((m) => (
-            <button key={m} type="button" role="radio" aria-checked={mode === m} onClick={() => setMode(m)} className={`min-h-12 rounded-xl border-2 px-4 font-semibold ${mode === m ? "border-accent bg-sunk" : "border-line"}`}>
-              {m === "quench" ? "Magnet quench" : "Other incident"}
-            </button>
-          ))}
-        </div>
+        <ChoiceButtons className="mb-3 flex gap-2" label="What happened" options={MODES} value={mode} onChange={setMode} />
         <form className="flex flex-col gap-3" noValidate onSubmit={(e) => (e.preventDefault(), void save())}>
-          <div className="flex flex-col gap-1">
-            <label htmlFor="q-cryostat" className="font-semibold">
-              Cryostat
-            </label>
+          <FieldRow id="q-cryostat" label="Cryostat">
             <select id="q-cryostat" className={INPUT} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
-              {list.map((c) => (
-                <option key={c.id} value={c.id}>
-                  {c.name}
-                </option>
-              ))}
+              <OptionList options={list.map((c) => ({ value: c.id, label: c.name }))} />
             </select>
-          </div>
+          </FieldRow>
           {mode === "quench" ? (
             <>
-              <div className="flex flex-col gap-1">
-                <label htmlFor="q-at" className="font-semibold">
-                  Time of the quench
-                </label>
+              <FieldRow id="q-at" label="Time of the quench">
                 <input id="q-at" type="datetime-local" className={INPUT} value={f.at} onChange={(e) => set("at", e.target.value)} />
-              </div>
+              </FieldRow>
               <div className="grid gap-3 sm:grid-cols-2">
                 {field("fieldT", "Field at quench (T)")}
                 {field("currentA", "Current at quench (A)")}
@@ -123,32 +105,18 @@ export function QuenchForm() {
             </>
           ) : (
             <>
-              {field("title", "What happened (short title)", false)}
-              <div className="flex flex-col gap-1">
-                <label htmlFor="q-description" className="font-semibold">
-                  Description
-                </label>
+              <FieldRow id="q-title" label="What happened (short title)">
+                <input id="q-title" inputMode="text" className={INPUT} value={f.title} onChange={(e) => set("title", e.target.value)} />
+              </FieldRow>
+              <FieldRow id="q-description" label="Description">
                 <textarea id="q-description" rows={3} className={INPUT} value={f.description} onChange={(e) => set("description", e.target.value)} />
-              </div>
+              </FieldRow>
             </>
           )}
-          <div className="flex flex-col gap-1">
-            <label htmlFor="q-actions" className="font-semibold">
-              Actions taken
-            </label>
+          <FieldRow id="q-actions" label="Actions taken">
             <textarea id="q-actions" rows={3} className={INPUT} value={f.actions} onChange={(e) => set("actions", e.target.value)} />
-          </div>
-          {msg && (
-            <Notice tone={msg.tone} role={msg.tone === "danger" ? "alert" : "status"} title={msg.title}>
-              {msg.problems?.length ? (
-                <ul className="ml-5 list-disc">
-                  {msg.problems.map((p) => (
-                    <li key={p}>{p}</li>
-                  ))}
-                </ul>
-              ) : null}
-            </Notice>
-          )}
+          </FieldRow>
+          {msg && <ProblemNotice tone={msg.tone} title={msg.title} problems={msg.problems} />}
           <Button type="submit" variant="primary" disabled={!cid}>
             Save {mode === "quench" ? "quench" : "incident"}
           </Button>
@@ -168,7 +136,11 @@ export function QuenchForm() {
             ) : (
               <p className="text-muted">Enter the field and the levels (or current) to estimate the helium lost.</p>
             )}
-            {figures?.gasM3 != null && <p className="num mt-1">≈ {trim(figures.gasM3)} m³ of helium gas at 20 °C, 1 atm.</p>}
+            {figures?.gasM3 != null && (
+              <p className="mt-1">
+                ≈ <span className="num">{trim(figures.gasM3)}</span> m³ of helium gas at 20 °C, 1 atm.
+              </p>
+            )}
             {figures?.oxygenEstimateFraction != null && rules && (
               <p data-figure="oxygen-estimate" className="mt-1">
                 {oxygenEstimateText(figures.oxygenEstimateFraction, rules.values, `${trim(figures.gasM3 ?? 0)} m³ mixed into the room's ${rules.values.roomFreeVolumeM3} m³`)}

@@ -45,7 +45,7 @@ export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: 
         </p>
       )}
       {facts && rules && (
-        <dl className="mt-2 grid gap-x-4 gap-y-1 text-sm sm:grid-cols-[auto_1fr]" aria-label="The facility's values">
+        <dl className="mt-2 grid gap-x-4 gap-y-1 text-base sm:grid-cols-[auto_1fr]" aria-label="The facility's values">
           <dt className="font-semibold text-muted">Oxygen</dt>
           <dd data-fact="oxygen">{facts.oxygen}</dd>
           {(topic === "transfer" || topic === "cooldown" || topic === "oxygen") && (
@@ -111,7 +111,7 @@ export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: 
         ))}
       </div>
       {sections[0] && (
-        <p data-deferral className="mt-2 text-sm font-semibold">
+        <p data-deferral className="mt-2 text-base font-semibold">
           {sections[0].deferral}
         </p>
       )}

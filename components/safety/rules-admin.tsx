@@ -3,6 +3,7 @@
 // facility's own rules document (PDF), and the reason for each change (each save is an audited entry).
 import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
+import { FieldRow as Row, INPUT_CLASS, ProblemNotice } from "@/components/ui/form";
 import { Loading, Notice, Panel } from "@/components/ui/panel";
 import type { RulesInForce } from "@/db/queries/rules";
 import { formatDate } from "@/lib/format";
@@ -10,20 +11,8 @@ import { RULES_DOCUMENT_MAX_BYTES } from "@/lib/safety/rules-document";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import { rememberRules } from "./use-facility-rules";
 
-const INPUT = "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink focus:border-accent";
+const INPUT = INPUT_CLASS;
 type Cryo = { id: string; name: string; config: { reservoir?: unknown; magnet?: unknown } };
-
-function Row({ id, label, children, hint }: { id: string; label: string; children: React.ReactNode; hint?: string }) {
-  return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="font-semibold">
-        {label}
-      </label>
-      {children}
-      {hint && <p className="text-sm text-muted">{hint}</p>}
-    </div>
-  );
-}
 
 export function RulesAdmin() {
   const [rules, setRules] = useState<RulesInForce | null>(null);
@@ -180,17 +169,7 @@ export function RulesAdmin() {
           <Row id="r-reason" label="Reason for the change" hint="Recorded with the change in the facility log.">
             <input id="r-reason" className={INPUT} value={reason} onChange={(e) => setReason(e.target.value)} />
           </Row>
-          {msg && (
-            <Notice tone={msg.tone} role={msg.tone === "danger" ? "alert" : "status"} title={msg.text}>
-              {msg.details?.length ? (
-                <ul className="ml-5 list-disc">
-                  {msg.details.map((d) => (
-                    <li key={d}>{d}</li>
-                  ))}
-                </ul>
-              ) : null}
-            </Notice>
-          )}
+          {msg && <ProblemNotice tone={msg.tone} title={msg.text} problems={msg.details} />}
           <Button type="submit" variant="primary" disabled={busy}>
             {busy ? "Saving…" : "Save the rules"}
           </Button>

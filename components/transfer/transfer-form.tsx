@@ -9,6 +9,7 @@ import { useMe } from "@/components/shell/use-me";
 import { SignDialog } from "@/components/signature/sign-dialog";
 import { writeSignature } from "@/components/signature/write-signature";
 import { Button } from "@/components/ui/button";
+import { ChoiceButtons, FieldRow as Field, INPUT_CLASS, NumberField, OptionList, ProblemNotice } from "@/components/ui/form";
 import { Notice, Panel } from "@/components/ui/panel";
 import { transferFigures } from "@/lib/audit/figures";
 import { litresFromLevel, litresFromMass } from "@/lib/cryo";
@@ -16,20 +17,12 @@ import { trim } from "@/lib/format";
 import { useCryostats, useEntries, useUsers } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
 
-const INPUT = "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink focus:border-accent";
+const INPUT = INPUT_CLASS;
+const SUPPLIED_BY = [
+  { value: "level", label: "By level" },
+  { value: "weight", label: "By weight" },
+] as const;
 const numOrUndef = (s: string) => (s.trim() === "" ? undefined : Number(s.replace(",", ".")));
-
-function Field({ id, label, hint, children }: { id: string; label: string; hint?: string; children: React.ReactNode }) {
-  return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="font-semibold">
-        {label}
-      </label>
-      {children}
-      {hint && <p className="text-sm text-muted">{hint}</p>}
-    </div>
-  );
-}
 
 export function TransferForm({ initialCryostatId }: { initialCryostatId?: string }) {
   const { me } = useMe();
@@ -195,11 +188,7 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
           <div className="grid gap-3 sm:grid-cols-2">
             <Field id="t-cryostat" label="Cryostat">
               <select id="t-cryostat" className={INPUT} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
-                {withReservoir.map((c) => (
-                  <option key={c.id} value={c.id}>
-                    {c.name}
-                  </option>
-                ))}
+                <OptionList options={withReservoir.map((c) => ({ value: c.id, label: c.name }))} />
               </select>
             </Field>
             <Field id="t-supply" label="Supply dewar">
@@ -235,74 +224,38 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
               <input type="checkbox" className="h-6 w-6" checked={f.oxygenMonitorChecked} onChange={(e) => set("oxygenMonitorChecked", e.target.checked)} />
               Oxygen monitor checked before starting
             </label>
-            <Field id="t-oxygen" label="Lowest oxygen reading during the transfer (%)" hint={rules ? `Facility alarm level ${rules.values.oxygenAlarmPercent} %` : undefined}>
-              <input id="t-oxygen" inputMode="decimal" className={`${INPUT} num`} value={f.oxygenLowest} onChange={(e) => set("oxygenLowest", e.target.value)} />
-            </Field>
+            <NumberField id="t-oxygen" label="Lowest oxygen reading during the transfer (%)" hint={rules ? `Facility alarm level ${rules.values.oxygenAlarmPercent} %` : undefined} value={f.oxygenLowest} onChange={(v) => set("oxygenLowest", v)} />
           </fieldset>
 
           <div className="grid gap-3 sm:grid-cols-2">
-            <Field id="t-level-before" label="Level before (%)">
-              <input id="t-level-before" inputMode="decimal" className={`${INPUT} num`} value={f.levelBefore} onChange={(e) => set("levelBefore", e.target.value)} />
-            </Field>
-            <Field id="t-level-after" label="Level after (%)">
-              <input id="t-level-after" inputMode="decimal" className={`${INPUT} num`} value={f.levelAfter} onChange={(e) => set("levelAfter", e.target.value)} />
-            </Field>
-            <Field id="t-p-before" label="Pressure before (mbar)">
-              <input id="t-p-before" inputMode="decimal" className={`${INPUT} num`} value={f.pressureBefore} onChange={(e) => set("pressureBefore", e.target.value)} />
-            </Field>
-            <Field id="t-p-after" label="Pressure after (mbar)">
-              <input id="t-p-after" inputMode="decimal" className={`${INPUT} num`} value={f.pressureAfter} onChange={(e) => set("pressureAfter", e.target.value)} />
-            </Field>
+            <NumberField id="t-level-before" label="Level before (%)" value={f.levelBefore} onChange={(v) => set("levelBefore", v)} />
+            <NumberField id="t-level-after" label="Level after (%)" value={f.levelAfter} onChange={(v) => set("levelAfter", v)} />
+            <NumberField id="t-p-before" label="Pressure before (mbar)" value={f.pressureBefore} onChange={(v) => set("pressureBefore", v)} />
+            <NumberField id="t-p-after" label="Pressure after (mbar)" value={f.pressureAfter} onChange={(v) => set("pressureAfter", v)} />
           </div>
 
           <fieldset className="rounded-xl border-2 border-line p-3">
             <legend className="px-1 font-semibold">Taken from the supply</legend>
-            <div className="mb-2 flex gap-2" role="radiogroup" aria-label="Litres taken measured by">
-              {(["level", "weight"] as const).map((m) => (
-                <button key={m} type="button" role="radio" aria-checked={f.suppliedBy === m} onClick={() => set("suppliedBy", m)} className={`min-h-12 rounded-xl border-2 px-4 font-semibold ${f.suppliedBy === m ? "border-accent bg-sunk" : "border-line"}`}>
-                  {m === "level" ? "By level" : "By weight"}
-                </button>
-              ))}
-            </div>
+            <ChoiceButtons className="mb-2 flex gap-2" label="Litres taken measured by" options={SUPPLIED_BY} value={f.suppliedBy} onChange={(m) => set("suppliedBy", m)} />
             {f.suppliedBy === "level" ? (
-              <Field id="t-supplied" label="Litres taken from the supply">
-                <input id="t-supplied" inputMode="decimal" className={`${INPUT} num`} value={f.supplied} onChange={(e) => set("supplied", e.target.value)} />
-              </Field>
+              <NumberField id="t-supplied" label="Litres taken from the supply" value={f.supplied} onChange={(v) => set("supplied", v)} />
             ) : (
               <div className="grid gap-3 sm:grid-cols-2">
-                <Field id="t-mass-before" label="Supply dewar mass before (kg)">
-                  <input id="t-mass-before" inputMode="decimal" className={`${INPUT} num`} value={f.massBefore} onChange={(e) => set("massBefore", e.target.value)} />
-                </Field>
-                <Field id="t-mass-after" label="Supply dewar mass after (kg)" hint={suppliedLitres !== undefined ? `≈ ${trim(suppliedLitres)} L of liquid (density 0.1247 kg/L)` : undefined}>
-                  <input id="t-mass-after" inputMode="decimal" className={`${INPUT} num`} value={f.massAfter} onChange={(e) => set("massAfter", e.target.value)} />
-                </Field>
+                <NumberField id="t-mass-before" label="Supply dewar mass before (kg)" value={f.massBefore} onChange={(v) => set("massBefore", v)} />
+                <NumberField id="t-mass-after" label="Supply dewar mass after (kg)" hint={suppliedLitres !== undefined ? `≈ ${trim(suppliedLitres)} L of liquid (density 0.1247 kg/L)` : undefined} value={f.massAfter} onChange={(v) => set("massAfter", v)} />
               </div>
             )}
           </fieldset>
 
           <div className="grid gap-3 sm:grid-cols-2">
-            <Field id="t-gained" label="Litres gained in the cryostat" hint={gainedFromLevels !== undefined ? `From the level change: ${trim(gainedFromLevels)} L (leave empty to use it)` : undefined}>
-              <input id="t-gained" inputMode="decimal" className={`${INPUT} num`} value={f.gained} placeholder={gainedFromLevels !== undefined ? String(gainedFromLevels) : ""} onChange={(e) => set("gained", e.target.value)} />
-            </Field>
-            <Field id="t-duration" label="Duration (min)">
-              <input id="t-duration" inputMode="decimal" className={`${INPUT} num`} value={f.duration} onChange={(e) => set("duration", e.target.value)} />
-            </Field>
+            <NumberField id="t-gained" label="Litres gained in the cryostat" hint={gainedFromLevels !== undefined ? `From the level change: ${trim(gainedFromLevels)} L (leave empty to use it)` : undefined} placeholder={gainedFromLevels !== undefined ? String(gainedFromLevels) : ""} value={f.gained} onChange={(v) => set("gained", v)} />
+            <NumberField id="t-duration" label="Duration (min)" value={f.duration} onChange={(v) => set("duration", v)} />
           </div>
           <Field id="t-anomalies" label="Anomalies">
             <textarea id="t-anomalies" rows={3} className={INPUT} value={f.anomalies} onChange={(e) => set("anomalies", e.target.value)} />
           </Field>
 
-          {error && (
-            <Notice tone="danger" role="alert" title={error.title}>
-              {error.problems.length > 0 && (
-                <ul className="ml-5 list-disc">
-                  {error.problems.map((p) => (
-                    <li key={p}>{p}</li>
-                  ))}
-                </ul>
-              )}
-            </Notice>
-          )}
+          {error && <ProblemNotice tone="danger" title={error.title} problems={error.problems} />}
           <Button type="submit" variant="primary" disabled={busy || !cid}>
             {busy ? "Saving…" : "Save transfer"}
           </Button>
