@@ -278,6 +278,7 @@ describe("procedures on a tablet with no network", () => {
     const mine = out.page.locator("[data-handover]").filter({ hasText: note });
     await mine.getByText("Handed over — Tomasz Okafor").waitFor();
     await waitPending(out.page, 0);
+    await out.page.evaluate(() => window.scrollTo(0, 0));
     await screenshot(out.page, "handover-given");
 
     await inc.page.goto("/handover?cryostat=plover");
