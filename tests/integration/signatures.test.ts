@@ -81,7 +81,7 @@ describe("signatures", () => {
     expect(res.rejected[0]?.code).toBe("conflict:signature");
   });
 
-  it("refuses a procedure signature without an identity proof, or with a proof for another signature or a wrong PIN", async () => {
+  it("refuses a procedure signature without an identity proof, with a proof made for another meaning, or with a wrong PIN", async () => {
     const db = await freshDb({ seeded: true });
     const { hold } = await startRun(db);
     const good = await pinSignature(db, hold, tomasz, "verified");
