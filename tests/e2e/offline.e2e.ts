@@ -46,14 +46,14 @@ async function waitPending(page: Page, n: number, timeout = 30_000): Promise<voi
 
 async function recordReading(page: Page, value: string): Promise<void> {
   await page.getByRole("tab", { name: "Reading" }).click();
-  await page.getByLabel("Value").fill(value);
+  await page.getByRole("textbox", { name: "Value", exact: true }).fill(value);
   await page.getByRole("button", { name: "Save reading" }).click();
   await page.getByRole("status").filter({ hasText: "Reading saved on this tablet." }).waitFor();
 }
 
 async function recordNote(page: Page, text: string): Promise<void> {
   await page.getByRole("tab", { name: "Note" }).click();
-  await page.getByLabel("Note", { exact: true }).fill(text);
+  await page.getByRole("textbox", { name: "Note", exact: true }).fill(text);
   await page.getByRole("button", { name: "Save note" }).click();
   await page.getByRole("status").filter({ hasText: "Note saved on this tablet." }).waitFor();
 }
