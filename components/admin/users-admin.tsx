@@ -5,10 +5,13 @@ import { useCallback, useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
+import { OptionList, TableHead } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import type { AdminUser } from "@/db/queries/users";
 import { ROLE_LABEL } from "@/lib/auth/permissions";
 import { newUserSchema, type NewUser } from "@/lib/schemas/user";
+
+const ROLE_OPTIONS = Object.entries(ROLE_LABEL).map(([value, label]) => ({ value, label }));
 
 export function UsersAdmin() {
   const [users, setUsers] = useState<AdminUser[] | null>(null);
@@ -39,19 +42,12 @@ export function UsersAdmin() {
     <div className="grid gap-4 lg:grid-cols-[1fr_22rem]">
       <Panel className="p-0">
         {error && <Notice tone="danger" title={error} role="alert" />}
-        <p className="px-5 pt-4 text-sm text-muted">A change of role or access ends that person&apos;s sessions and is kept on the audit trail.</p>
+        <p className="px-5 pt-4 text-base text-muted">A change of role or access ends that person&apos;s sessions and is kept on the audit trail.</p>
         {!users && !error && <Loading />}
         {users && (
           <table className="w-full text-left">
             <caption className="sr-only">People with access to Rimelog</caption>
-            <thead>
-              <tr className="text-sm text-muted">
-                <th className="px-5 py-3">Name</th>
-                <th className="px-5 py-3">Email</th>
-                <th className="px-5 py-3">Role</th>
-                <th className="px-5 py-3">Access</th>
-              </tr>
-            </thead>
+            <TableHead cell="px-5 py-3" columns={["Name", "Email", "Role", "Access"]} />
             <tbody>
               {users.map((u) => (
                 <tr key={u.id} className="border-t border-line">
@@ -67,11 +63,7 @@ export function UsersAdmin() {
                       onChange={(ev) => void change(u, { role: ev.target.value as AdminUser["role"] })}
                       className="min-h-12 rounded-xl border-2 border-line bg-bg px-3"
                     >
-                      {Object.entries(ROLE_LABEL).map(([value, label]) => (
-                        <option key={value} value={value}>
-                          {label}
-                        </option>
-                      ))}
+                      <OptionList options={ROLE_OPTIONS} />
                     </select>
                   </td>
                   <td className="px-5 py-3">
@@ -127,7 +119,7 @@ function AddUserForm({ onAdded }: { onAdded: () => Promise<void> }) {
           label="Role"
           {...register("role")}
           error={errors.role?.message}
-          options={Object.entries(ROLE_LABEL).map(([value, label]) => ({ value, label }))}
+          options={ROLE_OPTIONS}
         />
         <TextField label="First password" type="password" {...register("password")} error={errors.password?.message} hint="At least 10 characters; they can change it later." autoComplete="new-password" />
         {message && <Notice tone={message.tone} title={message.text} role={message.tone === "danger" ? "alert" : "status"} />}

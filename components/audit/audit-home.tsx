@@ -4,19 +4,14 @@
 import Link from "next/link";
 import { useCallback, useEffect, useState } from "react";
 import { Button, buttonClass } from "@/components/ui/button";
+import { OptionList, TableHead } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import { getJson, useJson } from "@/components/ui/use-json";
 import type { AuditItem } from "@/db/queries/audit";
 import type { ChainReport } from "@/db/queries/chain";
 import { FLAG_CODES, FLAG_LABEL } from "@/lib/audit/flags";
 import { formatDate, kindLabel, trim } from "@/lib/format";
 import { FlagTags } from "./flag-tags";
-
-async function getJson<T>(url: string): Promise<T> {
-  const r = await fetch(url, { cache: "no-store" });
-  const body = await r.json().catch(() => ({}));
-  if (!r.ok) throw new Error(body?.error?.message ?? `The server answered ${r.status}.`);
-  return body as T;
-}
 
 const TABS = [
   { key: "queue", label: "Queue" },
@@ -47,21 +42,30 @@ function Summary({ i }: { i: AuditItem }) {
   if (i.entry.kind === "transfer") {
     const eff = i.figures && "efficiencyPercent" in i.figures ? i.figures.efficiencyPercent : null;
     return (
-      <span className="num">
-        {trim(Number(p.gainedLitres))} L of {trim(Number(p.suppliedLitres))} L{eff !== null ? ` (${trim(eff)} %)` : ""} · {i.peopleNames.join(", ")}
+      <span>
+        <span className="num">{trim(Number(p.gainedLitres))}</span> L of <span className="num">{trim(Number(p.suppliedLitres))}</span> L
+        {eff !== null && (
+          <>
+            {" ("}
+            <span className="num">{trim(eff)}</span> %)
+          </>
+        )}{" "}
+        · {i.peopleNames.join(", ")}
       </span>
     );
   }
-  if (i.entry.kind === "quench") return <span className="num">at {trim(Number(p.fieldT))} T</span>;
+  if (i.entry.kind === "quench")
+    return (
+      <span>
+        at <span className="num">{trim(Number(p.fieldT))}</span> T
+      </span>
+    );
   return <span>{String(p.title ?? "")}</span>;
 }
 
 function Queue() {
-  const [items, setItems] = useState<AuditItem[] | null>(null);
-  const [error, setError] = useState<string | null>(null);
-  useEffect(() => {
-    getJson<{ items: AuditItem[] }>("/api/audit/queue").then((b) => setItems(b.items), (e: Error) => setError(e.message));
-  }, []);
+  const { data, error } = useJson<{ items: AuditItem[] }>("/api/audit/queue");
+  const items = data?.items;
   if (error) return <Notice tone="danger" role="alert" title={error} />;
   if (!items) return <Loading />;
   if (!items.length) return <Notice tone="ok" title="Nothing waiting: every transfer, quench and incident has a signed audit." />;
@@ -69,16 +73,7 @@ function Queue() {
     <Panel className="p-0">
       <table className="w-full text-left">
         <caption className="px-5 py-3 text-left text-lg font-bold">Waiting for audit ({items.length})</caption>
-        <thead>
-          <tr className="text-sm text-muted">
-            <th className="px-5 py-2">When</th>
-            <th className="px-5 py-2">What</th>
-            <th className="px-5 py-2">Flags</th>
-            <th className="px-5 py-2">
-              <span className="sr-only">Open</span>
-            </th>
-          </tr>
-        </thead>
+        <TableHead columns={["When", "What", "Flags", { srOnly: "Open" }]} />
         <tbody>
           {items.map((i) => (
             <tr key={i.entry.id} className="border-t border-line align-top" data-record={i.entry.id}>
@@ -87,7 +82,7 @@ function Queue() {
                 <span className="font-semibold">
                   {kindLabel(i.entry.kind)} · {i.cryostatName}
                 </span>
-                <span className="block text-sm text-muted">
+                <span className="block text-base text-muted">
                   by {i.authorName} · <Summary i={i} />
                 </span>
                 {i.findings.length > 0 && <Tag tone="accent">finding not signed</Tag>}
@@ -112,15 +107,10 @@ type Filters = { cryostat: string; person: string; from: string; to: string; fla
 
 function TransferTable() {
   const [f, setF] = useState<Filters>({ cryostat: "", person: "", from: "", to: "", flag: "", sort: "date", dir: "desc" });
-  const [items, setItems] = useState<AuditItem[] | null>(null);
-  const [error, setError] = useState<string | null>(null);
   const [options, setOptions] = useState<{ cryostats: { id: string; name: string }[]; people: { id: string; name: string }[] }>({ cryostats: [], people: [] });
   const query = new URLSearchParams(Object.entries(f).filter(([, v]) => v)).toString();
-  const load = useCallback(() => {
-    setError(null);
-    getJson<{ items: AuditItem[] }>(`/api/audit/transfers?${query}`).then((b) => setItems(b.items), (e: Error) => setError(e.message));
-  }, [query]);
-  useEffect(load, [load]);
+  const { data, error } = useJson<{ items: AuditItem[] }>(`/api/audit/transfers?${query}`);
+  const items = data?.items ?? null;
   useEffect(() => {
     getJson<{ cryostats: { id: string; name: string }[] }>("/api/cryostats").then((b) => setOptions((o) => ({ ...o, cryostats: b.cryostats })), () => undefined);
   }, []);
@@ -143,22 +133,14 @@ function TransferTable() {
             Cryostat
             <select className={sel} value={f.cryostat} onChange={set("cryostat")}>
               <option value="">All</option>
-              {options.cryostats.map((c) => (
-                <option key={c.id} value={c.id}>
-                  {c.name}
-                </option>
-              ))}
+              <OptionList options={options.cryostats.map((c) => ({ value: c.id, label: c.name }))} />
             </select>
           </label>
           <label className="flex flex-col gap-1 font-semibold">
             Person
             <select className={sel} value={f.person} onChange={set("person")}>
               <option value="">Anyone</option>
-              {options.people.map((p) => (
-                <option key={p.id} value={p.id}>
-                  {p.name}
-                </option>
-              ))}
+              <OptionList options={options.people.map((p) => ({ value: p.id, label: p.name }))} />
             </select>
           </label>
           <label className="flex flex-col gap-1 font-semibold">
@@ -173,11 +155,7 @@ function TransferTable() {
             Flag
             <select className={sel} value={f.flag} onChange={set("flag")}>
               <option value="">Any</option>
-              {FLAG_CODES.map((c) => (
-                <option key={c} value={c}>
-                  {FLAG_LABEL[c]}
-                </option>
-              ))}
+              <OptionList options={FLAG_CODES.map((c) => ({ value: c, label: FLAG_LABEL[c] }))} />
             </select>
           </label>
           <label className="flex flex-col gap-1 font-semibold">
@@ -207,17 +185,7 @@ function TransferTable() {
         <Panel className="overflow-x-auto p-0">
           <table className="w-full text-left">
             <caption className="px-5 py-3 text-left text-lg font-bold">Transfers ({items.length})</caption>
-            <thead>
-              <tr className="text-sm text-muted">
-                <th className="px-4 py-2">When</th>
-                <th className="px-4 py-2">Cryostat</th>
-                <th className="px-4 py-2">People</th>
-                <th className="px-4 py-2">Litres</th>
-                <th className="px-4 py-2">Efficiency</th>
-                <th className="px-4 py-2">Flags</th>
-                <th className="px-4 py-2">Audit</th>
-              </tr>
-            </thead>
+            <TableHead cell="px-4 py-2" columns={["When", "Cryostat", "People", "Litres", "Efficiency", "Flags", "Audit"]} />
             <tbody>
               {items.map((i) => {
                 const p = i.entry.payload as Record<string, number>;

@@ -4,6 +4,7 @@
 // (matched by the field's `match` pattern on the message), else under the inputs — never NaN,
 // never a crash. Everything runs in the browser: the page works offline once cached.
 import { useId, useState, type ReactNode } from "react";
+import { OptionList } from "@/components/ui/form";
 import { Panel } from "@/components/ui/panel";
 import { readNumber } from "./derive";
 
@@ -19,7 +20,7 @@ export type NumberSpec = {
   /** Empty is allowed (the compute function gets NaN and decides). */
   optional?: boolean;
 };
-export type SelectSpec = { kind: "select"; key: string; label: string; initial: string; options: { value: string; label: string }[]; match?: RegExp };
+export type SelectSpec = { kind: "select"; key: string; label: string; initial: string; options: readonly { readonly value: string; readonly label: string }[]; match?: RegExp };
 export type TextSpec = { kind: "text"; key: string; label: string; initial: string; hint?: string; rows?: number; match?: RegExp };
 export type FieldSpec = NumberSpec | SelectSpec | TextSpec;
 
@@ -29,6 +30,8 @@ export type Inputs = { n: Record<string, number>; s: Record<string, string> };
 const INPUT =
   "w-full rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg text-ink placeholder:text-muted focus:border-accent aria-[invalid=true]:border-danger";
 
+/** A result that is a figure (set in the number font); a sentence stays in the text font. */
+const FIGURE = /^[≈±−+\-\d]/;
 const TONE: Record<NonNullable<ResultRow["tone"]>, string> = { ok: "text-ok", warn: "text-warn", danger: "text-danger" };
 
 export function Calculator({
@@ -77,7 +80,7 @@ export function Calculator({
   return (
     <Panel className={`flex flex-col gap-3 ${wide ? "lg:col-span-2" : ""}`}>
       <h3 className="text-lg font-bold">{title}</h3>
-      {intro && <div className="text-sm text-muted">{intro}</div>}
+      {intro && <div className="text-base text-muted">{intro}</div>}
       <div className={`grid gap-3 ${wide ? "" : "sm:grid-cols-2"}`}>
         {fields.map((f) => {
           const id = `${uid}-${f.key}`;
@@ -91,11 +94,7 @@ export function Calculator({
               </label>
               {f.kind === "select" ? (
                 <select id={id} className={INPUT} value={values[f.key]} onChange={(e) => set(e.target.value)}>
-                  {f.options.map((o) => (
-                    <option key={o.value} value={o.value}>
-                      {o.label}
-                    </option>
-                  ))}
+                  <OptionList options={f.options} />
                 </select>
               ) : f.kind === "text" ? (
                 <textarea
@@ -120,9 +119,9 @@ export function Calculator({
                   onChange={(e) => set(e.target.value)}
                 />
               )}
-              {f.kind !== "select" && f.hint && !err && <p className="text-sm text-muted">{f.hint}</p>}
+              {f.kind !== "select" && f.hint && !err && <p className="text-base text-muted">{f.hint}</p>}
               {err && (
-                <p id={`${id}-err`} role="alert" className="text-sm font-semibold text-danger">
+                <p id={`${id}-err`} role="alert" className="text-base font-semibold text-danger">
                   {err}
                 </p>
               )}
@@ -131,7 +130,7 @@ export function Calculator({
         })}
       </div>
       {general && (
-        <p role="alert" className="text-sm font-semibold text-danger">
+        <p role="alert" className="text-base font-semibold text-danger">
           {general}
         </p>
       )}
@@ -139,8 +138,8 @@ export function Calculator({
         <dl aria-label={`${title}: results`} className="grid gap-x-6 gap-y-2 rounded-xl bg-sunk px-4 py-3 sm:grid-cols-2">
           {rows.map((r) => (
             <div key={r.label} className="flex flex-col">
-              <dt className="text-xs font-semibold tracking-wide text-muted">{r.label}</dt>
-              <dd className={`num text-lg font-semibold ${r.tone ? TONE[r.tone] : "text-ink"}`}>{r.text}</dd>
+              <dt className="text-base font-semibold text-muted">{r.label}</dt>
+              <dd className={`${FIGURE.test(r.text) ? "num" : ""} text-lg font-semibold ${r.tone ? TONE[r.tone] : "text-ink"}`}>{r.text}</dd>
             </div>
           ))}
         </dl>

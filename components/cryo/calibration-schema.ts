@@ -5,6 +5,13 @@ import { z } from "zod";
 
 export const SENSOR_KIND_VALUES = ["ruthenium-oxide", "germanium", "silicon-diode", "carbon"] as const;
 
+/** How the two columns of a calibration file are read; "auto" looks at the header line. */
+export const COLUMN_ORDER_OPTIONS = [
+  { value: "auto", label: "From the header (else temperature first)" },
+  { value: "temperature-value", label: "Temperature, then value" },
+  { value: "value-temperature", label: "Value, then temperature" },
+] as const;
+
 /** A calibration file is a small text table; anything bigger is not one. */
 export const MAX_CALIBRATION_BYTES = 200_000;
 

@@ -5,12 +5,13 @@
 import { useCallback, useMemo, useState } from "react";
 import type uPlotType from "uplot";
 import { Button } from "@/components/ui/button";
+import { OptionList } from "@/components/ui/form";
 import { Notice, Panel } from "@/components/ui/panel";
 import { UplotChart, type Palette } from "@/components/charts/uplot-chart";
 import { useMe } from "@/components/shell/use-me";
 import { convertReading, parseCalibration, type CalibrationTable, type SensorKind } from "@/lib/cryo";
 import { putAttachment } from "@/lib/local/record";
-import { MAX_CALIBRATION_BYTES, SENSOR_KIND_VALUES, type CalibrationUpload } from "./calibration-schema";
+import { COLUMN_ORDER_OPTIONS, MAX_CALIBRATION_BYTES, SENSOR_KIND_VALUES, type CalibrationUpload } from "./calibration-schema";
 import { figure, readNumber, temperatureText } from "./derive";
 import { refreshCryoData, useCalibrations, useCryostatList } from "./use-cryo-data";
 
@@ -167,31 +168,19 @@ export function CalibrationUploadPage() {
           <label className="flex flex-col gap-1 font-semibold">
             Cryostat
             <select className={SELECT} value={cryostat?.id ?? ""} onChange={(e) => setCryostatId(e.target.value)}>
-              {list.map((c) => (
-                <option key={c.id} value={c.id}>
-                  {c.name}
-                </option>
-              ))}
+              <OptionList options={list.map((c) => ({ value: c.id, label: c.name }))} />
             </select>
           </label>
           <label className="flex flex-col gap-1 font-semibold">
             Stage
             <select className={SELECT} value={stageKey} onChange={(e) => setStage(e.target.value)}>
-              {cryostat?.config.stages.map((s) => (
-                <option key={s.key} value={s.key}>
-                  {s.label}
-                </option>
-              ))}
+              <OptionList options={(cryostat?.config.stages ?? []).map((s) => ({ value: s.key, label: s.label }))} />
             </select>
           </label>
           <label className="flex flex-col gap-1 font-semibold">
             Sensor kind
             <select className={SELECT} value={sensorKind} onChange={(e) => setSensorKind(e.target.value as SensorKind)}>
-              {SENSOR_KIND_VALUES.map((k) => (
-                <option key={k} value={k}>
-                  {KIND_LABEL[k]}
-                </option>
-              ))}
+              <OptionList options={SENSOR_KIND_VALUES.map((k) => ({ value: k, label: KIND_LABEL[k] }))} />
             </select>
           </label>
           <label className="flex flex-col gap-1 font-semibold">
@@ -201,9 +190,7 @@ export function CalibrationUploadPage() {
           <label className="flex flex-col gap-1 font-semibold">
             Column order
             <select className={SELECT} value={columns} onChange={(e) => setColumns(e.target.value as typeof columns)}>
-              <option value="auto">From the header (else temperature first)</option>
-              <option value="temperature-value">Temperature, then value</option>
-              <option value="value-temperature">Value, then temperature</option>
+              <OptionList options={COLUMN_ORDER_OPTIONS} />
             </select>
           </label>
           <label className="flex flex-col gap-1 font-semibold">
@@ -232,20 +219,20 @@ export function CalibrationUploadPage() {
             </Notice>
           ) : (
             <>
-              <dl className="num grid gap-x-6 gap-y-1 rounded-xl bg-sunk px-4 py-3 sm:grid-cols-3">
+              <dl className="grid gap-x-6 gap-y-1 rounded-xl bg-sunk px-4 py-3 sm:grid-cols-3">
                 <div>
-                  <dt className="text-xs font-semibold tracking-wide text-muted">Points</dt>
-                  <dd className="text-lg font-semibold">{preview.table.points.length}</dd>
+                  <dt className="text-base font-semibold text-muted">Points</dt>
+                  <dd className="num text-lg font-semibold">{preview.table.points.length}</dd>
                 </div>
                 <div>
-                  <dt className="text-xs font-semibold tracking-wide text-muted">Temperature range</dt>
-                  <dd className="text-lg font-semibold">
+                  <dt className="text-base font-semibold text-muted">Temperature range</dt>
+                  <dd className="num text-lg font-semibold">
                     {temperatureText(preview.table.range.temperatureMinK)} – {temperatureText(preview.table.range.temperatureMaxK)}
                   </dd>
                 </div>
                 <div>
-                  <dt className="text-xs font-semibold tracking-wide text-muted">Reading range</dt>
-                  <dd className="text-lg font-semibold">
+                  <dt className="text-base font-semibold text-muted">Reading range</dt>
+                  <dd className="num text-lg font-semibold">
                     {figure(preview.table.range.valueMin)} – {figure(preview.table.range.valueMax)} {preview.table.valueUnit}
                   </dd>
                 </div>
@@ -258,7 +245,7 @@ export function CalibrationUploadPage() {
                 </label>
                 <div className="flex items-end" role="status" aria-live="polite">
                   {trialResult && "ok" in trialResult && <p className="num text-xl font-semibold">{trialResult.ok}</p>}
-                  {trialResult && "error" in trialResult && <p className="text-sm font-semibold text-danger">{trialResult.error}</p>}
+                  {trialResult && "error" in trialResult && <p className="text-base font-semibold text-danger">{trialResult.error}</p>}
                 </div>
               </div>
               {mayAccept && (
@@ -266,7 +253,7 @@ export function CalibrationUploadPage() {
                   <Button variant="primary" disabled={busy || sensorLabel.trim() === ""} onClick={() => void accept()}>
                     {busy ? "Accepting…" : `Accept for ${cryostat?.name ?? ""}, ${stageName(cryostat?.id ?? "", stageKey)}`}
                   </Button>
-                  {sensorLabel.trim() === "" && <p className="text-sm text-muted">Give the sensor&apos;s name or serial first.</p>}
+                  {sensorLabel.trim() === "" && <p className="text-base text-muted">Give the sensor&apos;s name or serial first.</p>}
                 </div>
               )}
             </>
@@ -289,8 +276,8 @@ export function CalibrationUploadPage() {
               <span>
                 <span className="font-semibold">{stageName(c.cryostatId, c.stage)}</span> — {c.sensorLabel} ({KIND_LABEL[c.sensorKind]})
               </span>
-              <span className="num text-sm text-muted">
-                {c.table.points.length} points, {temperatureText(c.table.range.temperatureMinK)}–{temperatureText(c.table.range.temperatureMaxK)} · {c.fileName} ·{" "}
+              <span className="text-base text-muted">
+                <span className="num">{c.table.points.length}</span> points, {temperatureText(c.table.range.temperatureMinK)}–{temperatureText(c.table.range.temperatureMaxK)} · {c.fileName} ·{" "}
                 {new Date(c.acceptedAt).toLocaleDateString("en-GB", { day: "2-digit", month: "short", year: "numeric" })}
               </span>
             </li>

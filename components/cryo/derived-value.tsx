@@ -64,7 +64,7 @@ export function DerivedValue(props: DerivedValueProps) {
   if (derived.status === "none") return <div id={id} role="status" aria-live="polite" className="sr-only" />;
   if (derived.status === "error") {
     return (
-      <div id={id} role="status" aria-live="polite" data-derived="error" className={`block text-sm font-semibold text-danger ${className}`}>
+      <div id={id} role="status" aria-live="polite" data-derived="error" className={`block text-base font-semibold text-danger ${className}`}>
         {derived.message}
       </div>
     );
@@ -74,12 +74,12 @@ export function DerivedValue(props: DerivedValueProps) {
       <dl className="flex flex-wrap gap-x-6 gap-y-1">
         {derived.items.map((item) => (
           <div key={item.label} className="flex flex-col">
-            <dt className="text-xs font-semibold tracking-wide text-muted">{item.label}</dt>
+            <dt className="text-base font-semibold text-muted">{item.label}</dt>
             <dd className="num text-lg font-semibold text-ink">{item.text}</dd>
           </div>
         ))}
       </dl>
-      {derived.note && <p className="mt-1 text-sm text-muted">{derived.note}</p>}
+      {derived.note && <p className="mt-1 text-base text-muted">{derived.note}</p>}
       {derived.caution === "magnet" && !props.hideCaution && (
         <div className="mt-2">
           <EstimateNote topic="magnet" />

@@ -16,7 +16,7 @@ const TEXT: Record<EstimateTopic, string> = {
 
 export function EstimateNote({ topic, children }: { topic: EstimateTopic; children?: ReactNode }) {
   return (
-    <p role="note" className="rounded-lg border-l-4 border-warn bg-sunk px-3 py-2 text-sm text-ink">
+    <p role="note" className="rounded-lg border-l-4 border-warn bg-sunk px-3 py-2 text-base text-ink">
       <span className="font-semibold text-warn">Caution: </span>
       {TEXT[topic]}
       {children ? <> {children}</> : null}

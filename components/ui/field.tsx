@@ -1,5 +1,6 @@
 // A labelled form field with its error message, usable with react-hook-form's register().
 import { forwardRef, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
+import { OptionList } from "./form";
 
 const INPUT = "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink placeholder:text-muted focus:border-accent";
 
@@ -13,9 +14,9 @@ function FieldFrame({ id, label, error, hint, className, children }: Common & { 
         {label}
       </label>
       {children}
-      {hint && !error && <p className="text-sm text-muted">{hint}</p>}
+      {hint && !error && <p className="text-base text-muted">{hint}</p>}
       {error && (
-        <p id={`${id}-error`} className="text-sm font-semibold text-danger">
+        <p id={`${id}-error`} className="text-base font-semibold text-danger">
           {error}
         </p>
       )}
@@ -41,11 +42,7 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HT
     return (
       <FieldFrame id={fid} label={label} error={error} hint={hint} className={className}>
         <select ref={ref} id={fid} aria-invalid={Boolean(error)} aria-describedby={error ? `${fid}-error` : undefined} className={INPUT} {...rest}>
-          {options.map((o) => (
-            <option key={o.value} value={o.value}>
-              {o.label}
-            </option>
-          ))}
+          <OptionList options={options} />
         </select>
       </FieldFrame>
     );

@@ -26,36 +26,34 @@ import { durationText, figure } from "@/components/cryo/derive";
 import { EstimateNote } from "@/components/cryo/estimate-note";
 import { Caution } from "@/components/safety/caution";
 import { useCryostatList } from "@/components/cryo/use-cryo-data";
+import { OptionList, type Choice } from "@/components/ui/form";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 
 /** "20C_1atm" → "20 °C, 1 atm". */
 export const refLabel = (r: string | undefined) => (r ?? "").replace("C_", " °C, ").replace("1atm", "1 atm").replace("100kPa", "100 kPa");
 export const REFERENCE_OPTIONS = GAS_REFERENCES.map((r) => ({ value: r, label: refLabel(r) }));
 
-function PresetPicker({
-  label,
-  value,
-  onChange,
-  options,
-}: {
-  label: string;
-  value: string;
-  onChange: (v: string) => void;
-  options: { value: string; label: string }[];
-}) {
+const CRYOGEN_FIELD = {
+  kind: "select",
+  key: "cry",
+  label: "Cryogen",
+  initial: "helium",
+  options: [
+    { value: "helium", label: "Helium" },
+    { value: "nitrogen", label: "Nitrogen" },
+  ],
+} as const;
+const TIME_UNITS = [
+  { value: "d", label: "days" },
+  { value: "h", label: "hours" },
+];
+
+function PresetPicker({ label, value, onChange, options }: { label: string; value: string; onChange: (v: string) => void; options: Choice[] }) {
   return (
     <label className="flex flex-wrap items-center gap-3 font-semibold">
       {label}
-      <select
-        className="min-h-12 rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg text-ink focus:border-accent"
-        value={value}
-        onChange={(e) => onChange(e.target.value)}
-      >
-        {options.map((o) => (
-          <option key={o.value} value={o.value}>
-            {o.label}
-          </option>
-        ))}
+      <select className="min-h-12 rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg text-ink focus:border-accent" value={value} onChange={(e) => onChange(e.target.value)}>
+        <OptionList options={options} />
       </select>
     </label>
   );
@@ -87,9 +85,9 @@ export function HeliumSection() {
             options={withReservoir.map((c) => ({ value: c.id, label: `${c.name} (${figure(c.config.reservoir.capacityLitres)} L)` }))}
           />
         ) : (
-          <p className="text-sm text-muted">No cryostats remembered on this tablet yet: a 1 L per % reservoir is assumed.</p>
+          <p className="text-base text-muted">No cryostats remembered on this tablet yet: a 1 L per % reservoir is assumed.</p>
         )}
-        <p className="text-sm text-muted">Level calibration — {calibrationText(calibration)}; minimum {figure(minimumPercent)} %.</p>
+        <p className="text-base text-muted">Level calibration — {calibrationText(calibration)}; minimum {figure(minimumPercent)} %.</p>
       </div>
       <Calculator
         key={`level-${chosen?.id ?? "custom"}`}
@@ -110,16 +108,7 @@ export function HeliumSection() {
             rows: 5,
             match: /Reading|readings|line \d/,
           },
-          {
-            kind: "select",
-            key: "tu",
-            label: "Time unit",
-            initial: "d",
-            options: [
-              { value: "d", label: "days" },
-              { value: "h", label: "hours" },
-            ],
-          },
+          { kind: "select", key: "tu", label: "Time unit", initial: "d", options: TIME_UNITS },
           { key: "min", label: "Minimum level", unit: "%", initial: String(minimumPercent), match: /^Level|Minimum/ },
         ]}
         compute={({ n, s }) => {
@@ -155,16 +144,7 @@ export function HeliumSection() {
         fields={[
           { key: "l", label: "Liquid", unit: "L", initial: "100", match: /Liquid/ },
           { kind: "select", key: "ref", label: "Gas at", initial: "20C_1atm", options: REFERENCE_OPTIONS },
-          {
-            kind: "select",
-            key: "cry",
-            label: "Cryogen",
-            initial: "helium",
-            options: [
-              { value: "helium", label: "Helium" },
-              { value: "nitrogen", label: "Nitrogen" },
-            ],
-          },
+          CRYOGEN_FIELD,
         ]}
         compute={({ n, s }) => {
           const g = gasLitresFromLiquid(n.l!, s.ref as GasReference, s.cry as "helium" | "nitrogen");
@@ -187,22 +167,13 @@ export function HeliumSection() {
             { label: "Lost", text: t.exceedsSupply ? "More arrived than was taken: check both readings" : `${figure(t.lossLitres, 3)} L` },
           ];
         }}
-        footer={<p className="text-sm text-muted">Losses of 20–40 % are common practice for a transfer through a warm line.</p>}
+        footer={<p className="text-base text-muted">Losses of 20–40 % are common practice for a transfer through a warm line.</p>}
       />
       <Calculator
         title="Heat load → boil-off"
         fields={[
           { key: "w", label: "Heat load", unit: "W", initial: "0.1", match: /Heat/ },
-          {
-            kind: "select",
-            key: "cry",
-            label: "Cryogen",
-            initial: "helium",
-            options: [
-              { value: "helium", label: "Helium" },
-              { value: "nitrogen", label: "Nitrogen" },
-            ],
-          },
+          CRYOGEN_FIELD,
         ]}
         compute={({ n, s }) => {
           const b = boilOffFromHeatLoad(n.w!, s.cry as "helium" | "nitrogen");
@@ -211,7 +182,7 @@ export function HeliumSection() {
             { label: "Per day", text: `${figure(b.litresPerDay, 3)} L/day` },
           ];
         }}
-        footer={<p className="text-sm text-muted">Q/(ρ·L) at the normal boiling point; 1 W ≈ 1.4 L/h of liquid helium.</p>}
+        footer={<p className="text-base text-muted">Q/(ρ·L) at the normal boiling point; 1 W ≈ 1.4 L/h of liquid helium.</p>}
       />
     </>
   );
@@ -244,7 +215,7 @@ export function MagnetSection() {
         {magnets.length > 0 ? (
           <PresetPicker label="Magnet" value={key} onChange={setPreset} options={magnets.map((c) => ({ value: c.id, label: c.name }))} />
         ) : (
-          <p className="text-sm text-muted">No cryostats remembered on this tablet yet: enter the magnet's figures.</p>
+          <p className="text-base text-muted">No cryostats remembered on this tablet yet: enter the magnet's figures.</p>
         )}
       </div>
       <Calculator
@@ -292,7 +263,7 @@ export function MagnetSection() {
         }}
         footer={
           <>
-            <p className="text-sm text-muted">Upper bound: all stored energy into latent heat. A real quench puts part of it into the coil and the dump resistor.</p>
+            <p className="text-base text-muted">Upper bound: all stored energy into latent heat. A real quench puts part of it into the coil and the dump resistor.</p>
             {caution}
           </>
         }
@@ -331,7 +302,7 @@ export function MagnetSection() {
         }}
         footer={
           <>
-            <p className="text-sm text-muted">0.5 mT: IEC 60601-2-33 up to its 3rd edition (the 4th uses 0.9 mT); the facility sets its own line.</p>
+            <p className="text-base text-muted">0.5 mT: IEC 60601-2-33 up to its 3rd edition (the 4th uses 0.9 mT); the facility sets its own line.</p>
             <EstimateNote topic="fringe" />
           </>
         }

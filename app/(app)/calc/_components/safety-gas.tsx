@@ -40,7 +40,7 @@ function oxygenRow(label: string, fraction: number): ResultRow {
 
 const caution = <EstimateNote topic="oxygen" />;
 const thresholds = (
-  <p className="text-sm text-muted">Alarm 19.5 % (OSHA 29 CFR 1910.146: oxygen-deficient below it), leave at 18 % (common practice) — the facility sets its own points.</p>
+  <p className="text-base text-muted">Alarm 19.5 % (OSHA 29 CFR 1910.146: oxygen-deficient below it), leave at 18 % (common practice) — the facility sets its own points.</p>
 );
 
 export function OxygenSection() {
@@ -99,7 +99,7 @@ export function OxygenSection() {
         }}
         footer={
           <>
-            <p className="text-sm text-muted">Helium rises and collects under the ceiling; a low room or a pit holds cold gas for a while. {`Liquid → gas uses the ${figure(gasLitresFromLiquid(1, "20C_1atm").expansionRatio, 4)}:1 ratio at 20 °C.`}</p>
+            <p className="text-base text-muted">Helium rises and collects under the ceiling; a low room or a pit holds cold gas for a while. {`Liquid → gas uses the ${figure(gasLitresFromLiquid(1, "20C_1atm").expansionRatio, 4)}:1 ratio at 20 °C.`}</p>
             {caution}
           </>
         }
@@ -144,7 +144,7 @@ export function GasSection() {
             { label: "Z used", text: `${figure(z, 4)} (${zNote})`, tone: zNote === "ideal gas" && pa > 5e5 ? "warn" : undefined },
           ];
         }}
-        footer={<p className="text-sm text-muted">High-pressure cylinders: the usual cylinder cautions and the supplier&apos;s instructions apply.</p>}
+        footer={<p className="text-base text-muted">High-pressure cylinders: the usual cylinder cautions and the supplier&apos;s instructions apply.</p>}
       />
       <Calculator
         title="Mixture loss (warmup → next cooldown)"
@@ -164,7 +164,7 @@ export function GasSection() {
             { label: "Before / after", text: `${figure(loss.before.litresAtReference, 4)} / ${figure(loss.after.litresAtReference, 4)} L` },
           ];
         }}
-        footer={<p className="text-sm text-muted">A negative loss means the tank gained gas: look for air leaking in.</p>}
+        footer={<p className="text-base text-muted">A negative loss means the tank gained gas: look for air leaking in.</p>}
       />
     </>
   );

@@ -17,6 +17,7 @@ import {
   type SensorKind,
 } from "@/lib/cryo";
 import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS } from "@/components/cryo/calc-kit";
+import { COLUMN_ORDER_OPTIONS } from "@/components/cryo/calibration-schema";
 import { figure, temperatureText } from "@/components/cryo/derive";
 
 const ISOTOPES = [
@@ -58,7 +59,7 @@ export function Its90Section() {
           return pressureRows(pa);
         }}
         footer={
-          <p className="text-sm text-muted">
+          <p className="text-base text-muted">
             Ranges: ⁴He {HE4_RANGE.temperatureMinK}–{HE4_RANGE.temperatureMaxK} K ({figure(HE4_RANGE.pressureMinPa, 4)}–{figure(HE4_RANGE.pressureMaxPa, 4)} Pa);
             ³He {HE3_RANGE.temperatureMinK}–{HE3_RANGE.temperatureMaxK} K. Outside them the scale defines nothing, and nothing is extrapolated.
           </p>
@@ -140,17 +141,7 @@ export function CalibrationSection() {
       }
       fields={[
         { kind: "select", key: "kind", label: "Sensor kind", initial: "ruthenium-oxide", options: SENSOR_KINDS },
-        {
-          kind: "select",
-          key: "cols",
-          label: "Columns",
-          initial: "auto",
-          options: [
-            { value: "auto", label: "From the header (else temperature first)" },
-            { value: "temperature-value", label: "Temperature, then value" },
-            { value: "value-temperature", label: "Value, then temperature" },
-          ],
-        },
+        { kind: "select", key: "cols", label: "Columns", initial: "auto", options: COLUMN_ORDER_OPTIONS },
         { kind: "text", key: "table", label: "Table", initial: EXAMPLE_TABLE, rows: 8, match: /^Line|calibration table needs/ },
         { key: "reading", label: "Reading (Ω, or V for a diode)", initial: "3500", match: /^Reading/ },
       ]}

@@ -29,6 +29,11 @@ const EXAMPLE_G = `# T (K)  G (2e²/h) — example data
 0.8   0.2639
 1.0   0.2346`;
 
+const BACKGROUND_OPTIONS = [
+  { value: "no", label: "None" },
+  { value: "yes", label: "Fit a constant background" },
+];
+
 const lengthText = (m: number) => (m >= 1e-3 ? `${figure(m * 1000, 3)} mm` : m >= 1e-6 ? `${figure(m * 1e6, 3)} µm` : `${figure(m * 1e9, 3)} nm`);
 
 export function TransportSection() {
@@ -83,16 +88,7 @@ export function TransportSection() {
         fields={[
           { kind: "text", key: "data", label: "Data (T, G)", initial: EXAMPLE_G, rows: 8, match: /Data|Kondo fit needs|^Temperature|^Conductance/ },
           { key: "s", label: "s", initial: "0.22", match: /^s / },
-          {
-            kind: "select",
-            key: "bg",
-            label: "Background",
-            initial: "no",
-            options: [
-              { value: "no", label: "None" },
-              { value: "yes", label: "Fit a constant background" },
-            ],
-          },
+          { kind: "select", key: "bg", label: "Background", initial: "no", options: BACKGROUND_OPTIONS },
         ]}
         compute={({ n, s }) => {
           const points = parsePairs(s.data ?? "", "Data").map(([temperatureK, conductance]) => ({ temperatureK, conductance }));
