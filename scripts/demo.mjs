@@ -10,9 +10,8 @@ import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import { chmodSync, existsSync, mkdirSync, readdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
 import { dirname, join, resolve } from "node:path";
-import { fileURLToPath } from "node:url";
+import { ROOT, run } from "./lib.mjs";
 
-const ROOT = join(dirname(fileURLToPath(import.meta.url)), "..");
 process.chdir(ROOT);
 
 const args = new Set(process.argv.slice(2));
@@ -39,16 +38,6 @@ const DEMO_ACCOUNTS = [
   ["grace@larchmere.example", "safety officer", "Dr. Grace Oyelaran"],
 ];
 
-function run(cmd, argv, env = {}) {
-  return new Promise((done) => {
-    const child = spawn(cmd, argv, { cwd: ROOT, stdio: "inherit", env: { ...process.env, ...env } });
-    child.on("error", (error) => {
-      console.error(`could not start ${cmd}: ${error.message}`);
-      done(127);
-    });
-    child.on("exit", (code, signal) => done(code ?? (signal ? 128 : 1)));
-  });
-}
 
 async function mustRun(what, cmd, argv, env) {
   const code = await run(cmd, argv, env);

@@ -5,12 +5,10 @@
 // Ends with the line "N passed, N failed" (tests counted from both vitest runs; a stage that fails
 // without running tests counts as one failure) and a non-zero exit code on any failure.
 // Plain Node ESM with built-ins only: it must run before `npm ci`.
-import { spawn } from "node:child_process";
 import { accessSync, constants, existsSync, mkdirSync, readFileSync, rmSync, statSync } from "node:fs";
-import { dirname, join } from "node:path";
-import { fileURLToPath } from "node:url";
+import { join } from "node:path";
+import { ROOT, run } from "./lib.mjs";
 
-const ROOT = join(dirname(fileURLToPath(import.meta.url)), "..");
 process.chdir(ROOT);
 
 const E2E_DIST_DIR = ".next-e2e";
@@ -30,16 +28,6 @@ function seconds(ms) {
   return `${(ms / 1000).toFixed(1)} s`;
 }
 
-function run(cmd, args, env = {}) {
-  return new Promise((resolve) => {
-    const child = spawn(cmd, args, { cwd: ROOT, stdio: "inherit", env: { ...process.env, ...env } });
-    child.on("error", (error) => {
-      console.error(`could not start ${cmd}: ${error.message}`);
-      resolve(127);
-    });
-    child.on("exit", (code, signal) => resolve(code ?? (signal ? 128 : 1)));
-  });
-}
 
 function finish(failedStage) {
   console.log("\nStage timings:");

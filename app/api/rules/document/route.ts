@@ -9,45 +9,23 @@ import { requireUser } from "@/lib/auth/require";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { handle, json } from "@/lib/http/respond";
+import { readUploadBytes, requireByteUpload, uploadHeader } from "@/lib/http/upload";
 import { checkRulesDocument, RULES_DOCUMENT_MAX_BYTES } from "@/lib/safety/rules-document";
 import { cleanFileName, fileStore, newStorageKey } from "@/lib/storage/objects";
 
 export const dynamic = "force-dynamic";
 
-function sameOrigin(req: Request): void {
-  const origin = req.headers.get("origin");
-  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
-  let originHost = "";
-  try {
-    originHost = origin ? new URL(origin).host : "";
-  } catch {
-    /* refused below */
-  }
-  if (!host || originHost !== host) throw new AppError("forbidden", "origin", "Uploads are accepted only from Rimelog's own pages.");
-}
-
-function headerText(req: Request, name: string): string {
-  try {
-    return decodeURIComponent(req.headers.get(name) ?? "");
-  } catch {
-    return "";
-  }
-}
-
 export async function POST(req: Request) {
   return handle(async () => {
     const user = await requireUser("facility_admin");
-    sameOrigin(req);
-    if ((req.headers.get("content-type") ?? "").toLowerCase() !== "application/octet-stream") {
-      throw new AppError("unsupported", "rules_document", "Send the file as application/octet-stream.");
-    }
-    const fileName = headerText(req, "x-rimelog-file-name").slice(0, 200) || "rules.pdf";
-    const declared = Number(req.headers.get("content-length") ?? "0");
-    // Refuse early on the declared length; the bytes are checked again below (the header can lie).
-    if (declared > RULES_DOCUMENT_MAX_BYTES) {
-      throw new AppError("too_large", "rules_document", `"${fileName}" is ${(declared / 1048576).toFixed(1)} MB; the limit is ${RULES_DOCUMENT_MAX_BYTES / 1048576} MB. Upload a smaller PDF.`);
-    }
-    const bytes = new Uint8Array(await req.arrayBuffer());
+    requireByteUpload(req, "rules_document");
+    const fileName = uploadHeader(req, "x-rimelog-file-name").slice(0, 200) || "rules.pdf";
+    // Refused early on the declared length; checkRulesDocument checks the bytes again (the header can lie).
+    const bytes = await readUploadBytes(req, {
+      surface: "rules_document",
+      maxBytes: RULES_DOCUMENT_MAX_BYTES,
+      tooLarge: (declared) => `"${fileName}" is ${(declared / 1048576).toFixed(1)} MB; the limit is ${RULES_DOCUMENT_MAX_BYTES / 1048576} MB. Upload a smaller PDF.`,
+    });
     const check = checkRulesDocument(bytes, fileName);
     if (!check.ok) throw new AppError(check.status === 413 ? "too_large" : check.status === 415 ? "unsupported" : "bad_request", "rules_document", check.message);
     const db = await getDb();
@@ -56,7 +34,7 @@ export async function POST(req: Request) {
     const storageKey = newStorageKey();
     await fileStore(env().RIMELOG_STORAGE_DIR).put(storageKey, bytes);
     const { row } = await saveAttachment(db, { id: randomUUID(), fileName: cleanFileName(fileName, "pdf"), mime: "application/pdf", bytes: bytes.length, sha256, storageKey, uploadedBy: user.id });
-    const reason = headerText(req, "x-rimelog-reason").trim() || `New rules document "${row.fileName}" uploaded.`;
+    const reason = uploadHeader(req, "x-rimelog-reason").trim() || `New rules document "${row.fileName}" uploaded.`;
     const rules = await changeRules(db, user, { values: current.values, reason, expectedVersion: current.version, documentAttachmentId: row.id });
     return json({ rules }, 201);
   });
