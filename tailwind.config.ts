@@ -18,6 +18,7 @@ const config: Config = {
         ok: "var(--c-ok)",
         warn: "var(--c-warn)",
         danger: "var(--c-danger)",
+        "danger-ink": "var(--c-danger-ink)",
       },
       minHeight: { touch: "44px" },
       minWidth: { touch: "44px" },

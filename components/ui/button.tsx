@@ -6,7 +6,7 @@ type Variant = "primary" | "secondary" | "danger" | "ghost";
 const VARIANTS: Record<Variant, string> = {
   primary: "bg-accent text-accent-ink hover:brightness-110 border-transparent",
   secondary: "bg-panel text-ink border-line hover:bg-sunk",
-  danger: "bg-danger text-white border-transparent hover:brightness-110",
+  danger: "bg-danger text-danger-ink border-transparent hover:brightness-110",
   ghost: "bg-transparent text-ink border-transparent hover:bg-sunk",
 };
 
