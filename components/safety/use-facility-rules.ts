@@ -2,18 +2,12 @@
 // The facility rules on the tablet: fetched from the server when online and remembered in
 // localStorage, so the cautions keep showing the facility's own values with no network.
 import { useEffect, useState } from "react";
+import { recall, remember } from "@/components/ui/remembered";
 import type { RulesInForce } from "@/db/queries/rules";
 
 const KEY = "rimelog-rules";
 
-function remembered(): RulesInForce | null {
-  try {
-    const raw = localStorage.getItem(KEY);
-    return raw ? (JSON.parse(raw) as RulesInForce) : null;
-  } catch {
-    return null;
-  }
-}
+const remembered = () => recall<RulesInForce>(KEY);
 
 export type RulesState = { rules: RulesInForce | null; loading: boolean; offline: boolean };
 
@@ -42,9 +36,5 @@ export function useFacilityRules(): RulesState {
 
 /** Called by the admin screen after saving, so this tablet shows the new values at once. */
 export function rememberRules(rules: RulesInForce): void {
-  try {
-    localStorage.setItem(KEY, JSON.stringify(rules));
-  } catch {
-    /* storage full or disabled: the next fetch brings them */
-  }
+  remember(KEY, rules);
 }
