@@ -2,25 +2,15 @@
 // The signed-in user for the client. The page HTML is the same for everyone (so the service
 // worker can cache it); who is signed in comes from /api/me, remembered for offline use.
 import { useEffect, useState } from "react";
+import { forget, recall } from "@/components/ui/remembered";
 import type { SessionUser } from "@/lib/auth/session-user";
 
 const KEY = "rimelog-me";
 
-function remembered(): SessionUser | null {
-  try {
-    const raw = localStorage.getItem(KEY);
-    return raw ? (JSON.parse(raw) as SessionUser) : null;
-  } catch {
-    return null;
-  }
-}
+const remembered = () => recall<SessionUser>(KEY);
 
 export function forgetMe(): void {
-  try {
-    localStorage.removeItem(KEY);
-  } catch {
-    /* nothing stored */
-  }
+  forget(KEY);
 }
 
 export function useMe(): { me: SessionUser | null; loading: boolean } {
