@@ -1,0 +1,17 @@
+// The frame of a page for some roles only (facility admin, safety officer): its heading and the
+// screen for those roles, or the "not allowed" notice for everyone else. A server component.
+import type { ReactNode } from "react";
+import { NotAllowed } from "@/components/shell/not-allowed";
+import { currentUser } from "@/lib/auth/require";
+import type { Role } from "@/lib/auth/permissions";
+
+export async function RolePage({ roles, need, title, children }: { roles: readonly Role[]; need: string; title: string; children: ReactNode }) {
+  const me = await currentUser();
+  if (!me || !roles.includes(me.role)) return <NotAllowed need={need} />;
+  return (
+    <>
+      <h1 className="mb-4 text-3xl font-bold">{title}</h1>
+      {children}
+    </>
+  );
+}
