@@ -14,6 +14,7 @@ export function newestFirst(a: StoredLocalEntry, b: StoredLocalEntry): number {
 }
 
 export async function queryEntries(db: RimelogDexie, f: EntryFilter = {}): Promise<StoredLocalEntry[]> {
+  if (typeof f.cryostatId === "string" && f.limit && !f.runId && !f.kinds) return newestOfCryostat(db, f.cryostatId, f.limit);
   let list: StoredLocalEntry[];
   if (f.runId) list = await db.entries.where("runId").equals(f.runId).toArray();
   else if (typeof f.cryostatId === "string") list = await db.entries.where("cryostatId").equals(f.cryostatId).toArray();
@@ -26,6 +27,21 @@ export async function queryEntries(db: RimelogDexie, f: EntryFilter = {}): Promi
   );
   list.sort(newestFirst);
   return f.limit ? list.slice(0, f.limit) : list;
+}
+
+/**
+ * A cryostat's newest entries without reading its whole log: the unsent and refused ones (few),
+ * then the synced ones from the [cryostatId+seq] index, newest first, up to `limit`.
+ */
+async function newestOfCryostat(db: RimelogDexie, cryostatId: string, limit: number): Promise<StoredLocalEntry[]> {
+  const unsent = (await db.entries.where("sync").anyOf("pending", "rejected").toArray()).filter((e) => e.cryostatId === cryostatId);
+  const synced = await db.entries
+    .where("[cryostatId+seq]")
+    .between([cryostatId, -Infinity], [cryostatId, Infinity])
+    .reverse()
+    .limit(limit)
+    .toArray();
+  return [...unsent, ...synced].sort(newestFirst).slice(0, limit);
 }
 
 export type SyncSummary = {

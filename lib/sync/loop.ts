@@ -6,6 +6,7 @@
 import type { RimelogDexie } from "@/lib/local/db";
 import { onLocalWrite } from "@/lib/local/events";
 import { syncOnce, TransportError, type SyncResult, type Transport } from "./client";
+import { PUSH_LIMITS } from "./protocol";
 
 export type LoopState = { running: boolean; online: boolean; nextRetryAt: number | null };
 type Options = { debounceMs?: number; intervalMs?: number; minBackoffMs?: number; maxBackoffMs?: number };
@@ -93,7 +94,7 @@ export class SyncLoop {
     this.emit();
     let outcome: SyncResult | TransportError | Error;
     try {
-      outcome = await withLock(() => syncOnce(this.db, this.transport));
+      outcome = await withLock(() => syncOnce(this.db, this.transport, { maxBatch: PUSH_LIMITS.maxEntries, maxBytes: 1_000_000 }));
       this.failures = 0;
     } catch (e) {
       outcome = e instanceof Error ? e : new Error(String(e));

@@ -62,3 +62,22 @@ describe("tablet store: recording", () => {
     await expect(putAttachmentIn(db, new Blob([]), { fileName: "x.jpg", mime: "image/jpeg" })).rejects.toMatchObject({ code: "invalid" });
   });
 });
+
+describe("tablet store: reading a cryostat's newest entries", () => {
+  it("gives unsent entries first, then synced ones by server order, without the rest of the log", async () => {
+    const db = tablet();
+    await confirmSession(db, tomasz);
+    const synced = Array.from({ length: 30 }, (_, i) => ({
+      id: crypto.randomUUID(), cryostatId: i % 2 ? "wren" : "heron", runId: null, kind: "note" as const, payload: { text: `s${i}` },
+      authorId: "u-priya", deviceId: "tab-p", recordedAt: new Date(Date.UTC(2026, 10, 1, 0, i)).toISOString(), supersedes: null, reason: null,
+      sync: "synced" as const, seq: 100 + i, hash: "h", prevHash: "p", receivedAt: new Date().toISOString(), rejection: null,
+    }));
+    await db.entries.bulkPut(synced);
+    const [mine] = await recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "unsent" } }]);
+    const got = await queryEntries(db, { cryostatId: "wren", limit: 4 });
+    expect(got.map((e) => e.id)).toEqual([mine!.id, synced[29]!.id, synced[27]!.id, synced[25]!.id]);
+    const all = await queryEntries(db, { cryostatId: "wren" });
+    expect(all.length).toBe(16);
+    expect(all.slice(0, 4).map((e) => e.id)).toEqual(got.map((e) => e.id));
+  });
+});
