@@ -1,5 +1,7 @@
 // The audit table's filters as URL query parameters, parsed once for the table, the CSV and the PDF.
 import { z } from "zod";
+import { AppError } from "@/lib/errors";
+import { formatIssues } from "@/lib/schemas/entry";
 import { FLAG_CODES } from "./flags";
 
 export const auditFilterSchema = z.object({
@@ -33,4 +35,11 @@ export function toFilter(p: AuditFilterParams) {
 export function parseSearch(url: string) {
   const params = Object.fromEntries([...new URL(url).searchParams.entries()].filter(([, v]) => v !== ""));
   return auditFilterSchema.safeParse(params);
+}
+
+/** The filter of a request's URL, or a 400 naming what is wrong (`message` says what to check). */
+export function filterFromUrl(url: string, surface: string, message = "Check the filters.") {
+  const p = parseSearch(url);
+  if (!p.success) throw new AppError("bad_request", surface, message, formatIssues(p.error));
+  return toFilter(p.data);
 }

@@ -4,25 +4,21 @@ import { getDb } from "@/db";
 import { auditTable } from "@/db/queries/audit";
 import { checkChain, listChains } from "@/db/queries/chain";
 import { getRules } from "@/db/queries/rules";
-import { parseSearch, toFilter } from "@/lib/audit/filter-params";
+import { filterFromUrl } from "@/lib/audit/filter-params";
 import { keyDir } from "@/lib/audit/server-tick";
 import { requireUser } from "@/lib/auth/require";
-import { AppError } from "@/lib/errors";
 import { auditReportPdf } from "@/lib/export/pdf";
 import { toReportRecord } from "@/lib/export/records";
 import { handle } from "@/lib/http/respond";
 import { deferral } from "@/lib/safety/cautions";
-import { formatIssues } from "@/lib/schemas/entry";
 
 export const dynamic = "force-dynamic";
 
 export async function GET(req: Request) {
   return handle(async () => {
     const user = await requireUser("safety_officer", "facility_admin");
-    const p = parseSearch(req.url);
-    if (!p.success) throw new AppError("bad_request", "export", "Check the period.", formatIssues(p.error));
+    const f = filterFromUrl(req.url, "export", "Check the period.");
     const db = await getDb();
-    const f = toFilter(p.data);
     const to = f.to ?? new Date().toISOString();
     const from = f.from ?? new Date(Date.parse(to) - 30 * 86_400_000).toISOString();
     const items = await auditTable(db, { ...f, from, to, kinds: f.kinds ?? ["transfer", "quench", "incident"], sort: "date", dir: "asc", keyDir: keyDir() });
