@@ -4,7 +4,7 @@
 import Link from "next/link";
 import { useCallback, useEffect, useState } from "react";
 import { Button, buttonClass } from "@/components/ui/button";
-import { OptionList, TableHead } from "@/components/ui/form";
+import { OptionList, TableHead, type Choice } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { getJson, useJson } from "@/components/ui/use-json";
 import type { AuditItem } from "@/db/queries/audit";
@@ -103,6 +103,13 @@ function Queue() {
   );
 }
 
+const SORTS: Choice[] = [
+  { value: "date", label: "Date" },
+  { value: "cryostat", label: "Cryostat" },
+  { value: "efficiency", label: "Efficiency" },
+  { value: "flags", label: "Number of flags" },
+];
+
 type Filters = { cryostat: string; person: string; from: string; to: string; flag: string; sort: string; dir: string };
 
 function TransferTable() {
@@ -125,48 +132,30 @@ function TransferTable() {
   }, [items]);
   const sel = "min-h-12 rounded-xl border-2 border-line bg-bg px-3";
   const set = (k: keyof Filters) => (e: { target: { value: string } }) => setF((x) => ({ ...x, [k]: e.target.value }));
+  const pick = (k: keyof Filters, label: string, choices: Choice[]) => (
+    <label className="flex flex-col gap-1 font-semibold">
+      {label}
+      <select className={sel} value={f[k]} onChange={set(k)}>
+        <OptionList options={choices} />
+      </select>
+    </label>
+  );
+  const day = (k: keyof Filters, label: string) => (
+    <label className="flex flex-col gap-1 font-semibold">
+      {label}
+      <input type="date" className={sel} value={f[k]} onChange={set(k)} />
+    </label>
+  );
   return (
     <div className="flex flex-col gap-4">
       <Panel>
         <form className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()} aria-label="Filters">
-          <label className="flex flex-col gap-1 font-semibold">
-            Cryostat
-            <select className={sel} value={f.cryostat} onChange={set("cryostat")}>
-              <option value="">All</option>
-              <OptionList options={options.cryostats.map((c) => ({ value: c.id, label: c.name }))} />
-            </select>
-          </label>
-          <label className="flex flex-col gap-1 font-semibold">
-            Person
-            <select className={sel} value={f.person} onChange={set("person")}>
-              <option value="">Anyone</option>
-              <OptionList options={options.people.map((p) => ({ value: p.id, label: p.name }))} />
-            </select>
-          </label>
-          <label className="flex flex-col gap-1 font-semibold">
-            From
-            <input type="date" className={sel} value={f.from} onChange={set("from")} />
-          </label>
-          <label className="flex flex-col gap-1 font-semibold">
-            To
-            <input type="date" className={sel} value={f.to} onChange={set("to")} />
-          </label>
-          <label className="flex flex-col gap-1 font-semibold">
-            Flag
-            <select className={sel} value={f.flag} onChange={set("flag")}>
-              <option value="">Any</option>
-              <OptionList options={FLAG_CODES.map((c) => ({ value: c, label: FLAG_LABEL[c] }))} />
-            </select>
-          </label>
-          <label className="flex flex-col gap-1 font-semibold">
-            Sort by
-            <select className={sel} value={f.sort} onChange={set("sort")}>
-              <option value="date">Date</option>
-              <option value="cryostat">Cryostat</option>
-              <option value="efficiency">Efficiency</option>
-              <option value="flags">Number of flags</option>
-            </select>
-          </label>
+          {pick("cryostat", "Cryostat", [{ value: "", label: "All" }, ...options.cryostats.map((c) => ({ value: c.id, label: c.name }))])}
+          {pick("person", "Person", [{ value: "", label: "Anyone" }, ...options.people.map((p) => ({ value: p.id, label: p.name }))])}
+          {day("from", "From")}
+          {day("to", "To")}
+          {pick("flag", "Flag", [{ value: "", label: "Any" }, ...FLAG_CODES.map((c) => ({ value: c, label: FLAG_LABEL[c] }))])}
+          {pick("sort", "Sort by", SORTS)}
           <Button onClick={() => setF((x) => ({ ...x, dir: x.dir === "asc" ? "desc" : "asc" }))} aria-label={`Order: ${f.dir === "asc" ? "ascending" : "descending"}`}>
             {f.dir === "asc" ? "↑ Ascending" : "↓ Descending"}
           </Button>
