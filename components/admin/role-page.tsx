@@ -1,6 +1,6 @@
 // The frame of a page for some roles only (facility admin, safety officer): its heading and the
 // screen for those roles, or the "not allowed" notice for everyone else. A server component.
-import type { ReactNode } from "react";
+import type { ComponentType, ReactNode } from "react";
 import { NotAllowed } from "@/components/shell/not-allowed";
 import { currentUser } from "@/lib/auth/require";
 import type { Role } from "@/lib/auth/permissions";
@@ -14,4 +14,15 @@ export async function RolePage({ roles, need, title, children }: { roles: readon
       {children}
     </>
   );
+}
+
+/** A whole page (its default export) that shows one screen, with no props, to the given roles. */
+export function rolePage({ Screen, ...frame }: { roles: readonly Role[]; need: string; title: string; Screen: ComponentType }) {
+  return function Page() {
+    return (
+      <RolePage {...frame}>
+        <Screen />
+      </RolePage>
+    );
+  };
 }

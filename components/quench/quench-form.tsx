@@ -6,7 +6,7 @@ import { useMemo, useState } from "react";
 import { Caution } from "@/components/safety/caution";
 import { useFacilityRules } from "@/components/safety/use-facility-rules";
 import { Button } from "@/components/ui/button";
-import { ChoiceButtons, FieldRow, INPUT_CLASS, NumberField, OptionList, ProblemNotice } from "@/components/ui/form";
+import { ChoiceButtons, FieldRow, INPUT_CLASS, NumberField, typedNumber, OptionList, ProblemNotice } from "@/components/ui/form";
 import { Panel } from "@/components/ui/panel";
 import { quenchFigures } from "@/lib/audit/figures";
 import { trim } from "@/lib/format";
@@ -14,12 +14,11 @@ import { useCryostats } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry } from "@/lib/local/record";
 import { heliumLostText, oxygenEstimateText } from "@/lib/safety/estimates";
 
-const INPUT = INPUT_CLASS;
 const MODES = [
   { value: "quench", label: "Magnet quench" },
   { value: "incident", label: "Other incident" },
 ] as const;
-const n = (s: string) => (s.trim() === "" ? undefined : Number(s.replace(",", ".")));
+const n = typedNumber;
 const localNow = () => {
   const d = new Date();
   return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 16);
@@ -85,14 +84,14 @@ export function QuenchForm() {
         <ChoiceButtons className="mb-3 flex gap-2" label="What happened" options={MODES} value={mode} onChange={setMode} />
         <form className="flex flex-col gap-3" noValidate onSubmit={(e) => (e.preventDefault(), void save())}>
           <FieldRow id="q-cryostat" label="Cryostat">
-            <select id="q-cryostat" className={INPUT} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
+            <select id="q-cryostat" className={INPUT_CLASS} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
               <OptionList options={list.map((c) => ({ value: c.id, label: c.name }))} />
             </select>
           </FieldRow>
           {mode === "quench" ? (
             <>
               <FieldRow id="q-at" label="Time of the quench">
-                <input id="q-at" type="datetime-local" className={INPUT} value={f.at} onChange={(e) => set("at", e.target.value)} />
+                <input id="q-at" type="datetime-local" className={INPUT_CLASS} value={f.at} onChange={(e) => set("at", e.target.value)} />
               </FieldRow>
               <div className="grid gap-3 sm:grid-cols-2">
                 {field("fieldT", "Field at quench (T)")}
@@ -106,15 +105,15 @@ export function QuenchForm() {
           ) : (
             <>
               <FieldRow id="q-title" label="What happened (short title)">
-                <input id="q-title" inputMode="text" className={INPUT} value={f.title} onChange={(e) => set("title", e.target.value)} />
+                <input id="q-title" inputMode="text" className={INPUT_CLASS} value={f.title} onChange={(e) => set("title", e.target.value)} />
               </FieldRow>
               <FieldRow id="q-description" label="Description">
-                <textarea id="q-description" rows={3} className={INPUT} value={f.description} onChange={(e) => set("description", e.target.value)} />
+                <textarea id="q-description" rows={3} className={INPUT_CLASS} value={f.description} onChange={(e) => set("description", e.target.value)} />
               </FieldRow>
             </>
           )}
           <FieldRow id="q-actions" label="Actions taken">
-            <textarea id="q-actions" rows={3} className={INPUT} value={f.actions} onChange={(e) => set("actions", e.target.value)} />
+            <textarea id="q-actions" rows={3} className={INPUT_CLASS} value={f.actions} onChange={(e) => set("actions", e.target.value)} />
           </FieldRow>
           {msg && <ProblemNotice tone={msg.tone} title={msg.title} problems={msg.problems} />}
           <Button type="submit" variant="primary" disabled={!cid}>

@@ -3,7 +3,7 @@
 // facility's own rules document (PDF), and the reason for each change (each save is an audited entry).
 import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
-import { FieldRow as Row, INPUT_CLASS, ProblemNotice } from "@/components/ui/form";
+import { FieldGroup, FieldRow as Row, INPUT_CLASS, ProblemNotice } from "@/components/ui/form";
 import { Loading, Notice, Panel } from "@/components/ui/panel";
 import type { RulesInForce } from "@/db/queries/rules";
 import { formatDate } from "@/lib/format";
@@ -11,7 +11,6 @@ import { RULES_DOCUMENT_MAX_BYTES } from "@/lib/safety/rules-document";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import { rememberRules } from "./use-facility-rules";
 
-const INPUT = INPUT_CLASS;
 type Cryo = { id: string; name: string; config: { reservoir?: unknown; magnet?: unknown } };
 
 export function RulesAdmin() {
@@ -103,14 +102,14 @@ export function RulesAdmin() {
       <Panel>
         <form className="flex flex-col gap-4" noValidate onSubmit={(e) => (e.preventDefault(), void save())}>
           <Row id="r-name" label="Facility name">
-            <input id="r-name" className={INPUT} value={v.facilityName} onChange={(e) => set("facilityName", e.target.value)} />
+            <input id="r-name" className={INPUT_CLASS} value={v.facilityName} onChange={(e) => set("facilityName", e.target.value)} />
           </Row>
           <div className="grid gap-3 sm:grid-cols-2">
             <Row id="r-alarm" label="Oxygen alarm level (%)">
-              <input id="r-alarm" inputMode="decimal" className={`${INPUT} num`} value={v.oxygenAlarmPercent} onChange={(e) => set("oxygenAlarmPercent", Number(e.target.value))} />
+              <input id="r-alarm" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.oxygenAlarmPercent} onChange={(e) => set("oxygenAlarmPercent", Number(e.target.value))} />
             </Row>
             <Row id="r-evac" label="Oxygen level to leave the room (%)">
-              <input id="r-evac" inputMode="decimal" className={`${INPUT} num`} value={v.oxygenEvacuatePercent} onChange={(e) => set("oxygenEvacuatePercent", Number(e.target.value))} />
+              <input id="r-evac" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.oxygenEvacuatePercent} onChange={(e) => set("oxygenEvacuatePercent", Number(e.target.value))} />
             </Row>
           </div>
           <label className="flex min-h-12 items-center gap-2 font-semibold">
@@ -118,56 +117,55 @@ export function RulesAdmin() {
             Two people must be present for cryogen transfers
           </label>
           <Row id="r-ppe" label="Required PPE (one per line)">
-            <textarea id="r-ppe" rows={4} className={INPUT} value={text.ppe} onChange={(e) => setText((t) => ({ ...t, ppe: e.target.value }))} />
+            <textarea id="r-ppe" rows={4} className={INPUT_CLASS} value={text.ppe} onChange={(e) => setText((t) => ({ ...t, ppe: e.target.value }))} />
           </Row>
-          <fieldset className="rounded-xl border-2 border-line p-3">
-            <legend className="px-1 font-semibold">Per cryostat</legend>
+          <FieldGroup legend="Per cryostat">
             <div className="grid gap-3 sm:grid-cols-2">
               {cryos.map((c) => (
                 <div key={c.id} className="flex flex-col gap-2">
                   <p className="font-semibold">{c.name}</p>
                   {Boolean(c.config.reservoir) && (
                     <Row id={`r-min-${c.id}`} label="Minimum helium level (%)">
-                      <input id={`r-min-${c.id}`} inputMode="decimal" className={`${INPUT} num`} value={v.minHeliumPercent[c.id] ?? ""} onChange={(e) => set("minHeliumPercent", Object.fromEntries(Object.entries({ ...v.minHeliumPercent, [c.id]: optNum(e.target.value) }).filter(([, x]) => x !== undefined)) as Record<string, number>)} />
+                      <input id={`r-min-${c.id}`} inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.minHeliumPercent[c.id] ?? ""} onChange={(e) => set("minHeliumPercent", Object.fromEntries(Object.entries({ ...v.minHeliumPercent, [c.id]: optNum(e.target.value) }).filter(([, x]) => x !== undefined)) as Record<string, number>)} />
                     </Row>
                   )}
                   {Boolean(c.config.magnet) && (
                     <Row id={`r-ramp-${c.id}`} label="Maximum ramp rate (T/min)">
-                      <input id={`r-ramp-${c.id}`} inputMode="decimal" className={`${INPUT} num`} value={v.maxRampTPerMin[c.id] ?? ""} onChange={(e) => set("maxRampTPerMin", Object.fromEntries(Object.entries({ ...v.maxRampTPerMin, [c.id]: optNum(e.target.value) }).filter(([, x]) => x !== undefined)) as Record<string, number>)} />
+                      <input id={`r-ramp-${c.id}`} inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.maxRampTPerMin[c.id] ?? ""} onChange={(e) => set("maxRampTPerMin", Object.fromEntries(Object.entries({ ...v.maxRampTPerMin, [c.id]: optNum(e.target.value) }).filter(([, x]) => x !== undefined)) as Record<string, number>)} />
                     </Row>
                   )}
                 </div>
               ))}
             </div>
-          </fieldset>
+          </FieldGroup>
           <div className="grid gap-3 sm:grid-cols-2">
             <Row id="r-mt" label="Controlled-area field line (mT)" hint="0.5 mT is common; some standards use 0.9 mT. Set your facility's own.">
-              <input id="r-mt" inputMode="decimal" className={`${INPUT} num`} value={v.controlledAreaMilliTesla} onChange={(e) => set("controlledAreaMilliTesla", Number(e.target.value))} />
+              <input id="r-mt" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.controlledAreaMilliTesla} onChange={(e) => set("controlledAreaMilliTesla", Number(e.target.value))} />
             </Row>
             <Row id="r-days" label="Warn when helium reaches the minimum within (days)">
-              <input id="r-days" inputMode="numeric" className={`${INPUT} num`} value={v.forecastWarnDays} onChange={(e) => set("forecastWarnDays", Number(e.target.value))} />
+              <input id="r-days" inputMode="numeric" className={`${INPUT_CLASS} num`} value={v.forecastWarnDays} onChange={(e) => set("forecastWarnDays", Number(e.target.value))} />
             </Row>
             <Row id="r-effmin" label="Plausible transfer efficiency, lowest (%)" hint="Default 40 % when empty.">
-              <input id="r-effmin" inputMode="decimal" className={`${INPUT} num`} value={v.transferEfficiencyMinPercent ?? ""} onChange={(e) => set("transferEfficiencyMinPercent", optNum(e.target.value))} />
+              <input id="r-effmin" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.transferEfficiencyMinPercent ?? ""} onChange={(e) => set("transferEfficiencyMinPercent", optNum(e.target.value))} />
             </Row>
             <Row id="r-effmax" label="Plausible transfer efficiency, highest (%)" hint="Default 95 % when empty.">
-              <input id="r-effmax" inputMode="decimal" className={`${INPUT} num`} value={v.transferEfficiencyMaxPercent ?? ""} onChange={(e) => set("transferEfficiencyMaxPercent", optNum(e.target.value))} />
+              <input id="r-effmax" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.transferEfficiencyMaxPercent ?? ""} onChange={(e) => set("transferEfficiencyMaxPercent", optNum(e.target.value))} />
             </Row>
             <Row id="r-vol" label="Room free volume (m³)" hint="For the oxygen estimate after a quench.">
-              <input id="r-vol" inputMode="decimal" className={`${INPUT} num`} value={v.roomFreeVolumeM3 ?? ""} onChange={(e) => set("roomFreeVolumeM3", optNum(e.target.value))} />
+              <input id="r-vol" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.roomFreeVolumeM3 ?? ""} onChange={(e) => set("roomFreeVolumeM3", optNum(e.target.value))} />
             </Row>
             <Row id="r-ach" label="Room ventilation (air changes per hour)">
-              <input id="r-ach" inputMode="decimal" className={`${INPUT} num`} value={v.roomAirChangesPerHour ?? ""} onChange={(e) => set("roomAirChangesPerHour", optNum(e.target.value))} />
+              <input id="r-ach" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.roomAirChangesPerHour ?? ""} onChange={(e) => set("roomAirChangesPerHour", optNum(e.target.value))} />
             </Row>
           </div>
           <Row id="r-note" label="Controlled-area note">
-            <textarea id="r-note" rows={2} className={INPUT} value={v.controlledAreaNote} onChange={(e) => set("controlledAreaNote", e.target.value)} />
+            <textarea id="r-note" rows={2} className={INPUT_CLASS} value={v.controlledAreaNote} onChange={(e) => set("controlledAreaNote", e.target.value)} />
           </Row>
           <Row id="r-contacts" label="Emergency contacts (one per line: name | role | phone)">
-            <textarea id="r-contacts" rows={4} className={INPUT} value={text.contacts} onChange={(e) => setText((t) => ({ ...t, contacts: e.target.value }))} />
+            <textarea id="r-contacts" rows={4} className={INPUT_CLASS} value={text.contacts} onChange={(e) => setText((t) => ({ ...t, contacts: e.target.value }))} />
           </Row>
           <Row id="r-reason" label="Reason for the change" hint="Recorded with the change in the facility log.">
-            <input id="r-reason" className={INPUT} value={reason} onChange={(e) => setReason(e.target.value)} />
+            <input id="r-reason" className={INPUT_CLASS} value={reason} onChange={(e) => setReason(e.target.value)} />
           </Row>
           {msg && <ProblemNotice tone={msg.tone} title={msg.text} problems={msg.details} />}
           <Button type="submit" variant="primary" disabled={busy}>

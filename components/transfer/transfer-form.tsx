@@ -9,7 +9,7 @@ import { useMe } from "@/components/shell/use-me";
 import { SignDialog } from "@/components/signature/sign-dialog";
 import { writeSignature } from "@/components/signature/write-signature";
 import { Button } from "@/components/ui/button";
-import { ChoiceButtons, FieldRow as Field, INPUT_CLASS, NumberField, OptionList, ProblemNotice } from "@/components/ui/form";
+import { ChoiceButtons, FieldGroup, FieldRow as Field, INPUT_CLASS, NumberField, typedNumber, OptionList, ProblemNotice } from "@/components/ui/form";
 import { Notice, Panel } from "@/components/ui/panel";
 import { transferFigures } from "@/lib/audit/figures";
 import { litresFromLevel, litresFromMass } from "@/lib/cryo";
@@ -17,12 +17,10 @@ import { trim } from "@/lib/format";
 import { useCryostats, useEntries, useUsers } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
 
-const INPUT = INPUT_CLASS;
 const SUPPLIED_BY = [
   { value: "level", label: "By level" },
   { value: "weight", label: "By weight" },
 ] as const;
-const numOrUndef = (s: string) => (s.trim() === "" ? undefined : Number(s.replace(",", ".")));
 
 export function TransferForm({ initialCryostatId }: { initialCryostatId?: string }) {
   const { me } = useMe();
@@ -63,17 +61,17 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
   const [busy, setBusy] = useState(false);
 
   const suppliedLitres = useMemo(() => {
-    if (f.suppliedBy === "level") return numOrUndef(f.supplied);
-    const b = numOrUndef(f.massBefore);
-    const a = numOrUndef(f.massAfter);
+    if (f.suppliedBy === "level") return typedNumber(f.supplied);
+    const b = typedNumber(f.massBefore);
+    const a = typedNumber(f.massAfter);
     if (b === undefined || a === undefined || b < a) return undefined;
     return Number(litresFromMass(b - a).toFixed(1));
   }, [f.suppliedBy, f.supplied, f.massBefore, f.massAfter]);
 
   const gainedFromLevels = useMemo(() => {
     const cal = cryostat?.config.reservoir?.calibration;
-    const b = numOrUndef(f.levelBefore);
-    const a = numOrUndef(f.levelAfter);
+    const b = typedNumber(f.levelBefore);
+    const a = typedNumber(f.levelAfter);
     if (!cal || b === undefined || a === undefined) return undefined;
     try {
       return Number((litresFromLevel(a, cal) - litresFromLevel(b, cal)).toFixed(1));
@@ -81,12 +79,12 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
       return undefined;
     }
   }, [cryostat, f.levelBefore, f.levelAfter]);
-  const gainedLitres = numOrUndef(f.gained) ?? gainedFromLevels;
+  const gainedLitres = typedNumber(f.gained) ?? gainedFromLevels;
 
   const prev = previous?.[0];
   const figures = useMemo(() => {
-    const b = numOrUndef(f.levelBefore);
-    const a = numOrUndef(f.levelAfter);
+    const b = typedNumber(f.levelBefore);
+    const a = typedNumber(f.levelAfter);
     if (b === undefined || a === undefined || suppliedLitres === undefined || gainedLitres === undefined) return null;
     try {
       return transferFigures(
@@ -111,16 +109,16 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
         peoplePresent: people,
         ppeConfirmed: f.ppeConfirmed,
         oxygenMonitorChecked: f.oxygenMonitorChecked,
-        ...(numOrUndef(f.oxygenLowest) !== undefined ? { oxygenLowestPercent: numOrUndef(f.oxygenLowest) } : {}),
-        levelBeforePercent: numOrUndef(f.levelBefore) ?? Number.NaN,
-        levelAfterPercent: numOrUndef(f.levelAfter) ?? Number.NaN,
-        ...(numOrUndef(f.pressureBefore) !== undefined ? { pressureBeforeMbar: numOrUndef(f.pressureBefore) } : {}),
-        ...(numOrUndef(f.pressureAfter) !== undefined ? { pressureAfterMbar: numOrUndef(f.pressureAfter) } : {}),
+        ...(typedNumber(f.oxygenLowest) !== undefined ? { oxygenLowestPercent: typedNumber(f.oxygenLowest) } : {}),
+        levelBeforePercent: typedNumber(f.levelBefore) ?? Number.NaN,
+        levelAfterPercent: typedNumber(f.levelAfter) ?? Number.NaN,
+        ...(typedNumber(f.pressureBefore) !== undefined ? { pressureBeforeMbar: typedNumber(f.pressureBefore) } : {}),
+        ...(typedNumber(f.pressureAfter) !== undefined ? { pressureAfterMbar: typedNumber(f.pressureAfter) } : {}),
         suppliedLitres: suppliedLitres ?? Number.NaN,
         suppliedBy: f.suppliedBy,
-        ...(f.suppliedBy === "weight" ? { supplyMassBeforeKg: numOrUndef(f.massBefore), supplyMassAfterKg: numOrUndef(f.massAfter) } : {}),
+        ...(f.suppliedBy === "weight" ? { supplyMassBeforeKg: typedNumber(f.massBefore), supplyMassAfterKg: typedNumber(f.massAfter) } : {}),
         gainedLitres: gainedLitres ?? Number.NaN,
-        durationMin: numOrUndef(f.duration) ?? Number.NaN,
+        durationMin: typedNumber(f.duration) ?? Number.NaN,
         anomalies: f.anomalies,
       };
       const e = await recordEntry({ cryostatId: cid, kind: "transfer", payload: payload as never });
@@ -131,6 +129,11 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
     } finally {
       setBusy(false);
     }
+  }
+
+  async function signPerformed(entry: StoredLocalEntry, signer: NonNullable<typeof me>, c: Parameters<typeof writeSignature>[3]) {
+    await writeSignature(entry, signer, "performed", c);
+    setSigned(true);
   }
 
   if (saved) {
@@ -155,18 +158,7 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
             Record another transfer
           </Button>
         </div>
-        {signing && me && (
-          <SignDialog
-            me={me}
-            meaning="performed"
-            title="Sign the helium transfer"
-            onClose={() => setSigning(false)}
-            onSign={async (c) => {
-              await writeSignature(saved, me, "performed", c);
-              setSigned(true);
-            }}
-          />
-        )}
+        {signing && me && <SignDialog me={me} meaning="performed" title="Sign the helium transfer" onClose={() => setSigning(false)} onSign={(c) => signPerformed(saved, me, c)} />}
       </Panel>
     );
   }
@@ -187,17 +179,16 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
         >
           <div className="grid gap-3 sm:grid-cols-2">
             <Field id="t-cryostat" label="Cryostat">
-              <select id="t-cryostat" className={INPUT} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
+              <select id="t-cryostat" className={INPUT_CLASS} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
                 <OptionList options={withReservoir.map((c) => ({ value: c.id, label: c.name }))} />
               </select>
             </Field>
             <Field id="t-supply" label="Supply dewar">
-              <input id="t-supply" className={INPUT} value={f.supplyDewar} onChange={(e) => set("supplyDewar", e.target.value)} placeholder="e.g. D-250-A" />
+              <input id="t-supply" className={INPUT_CLASS} value={f.supplyDewar} onChange={(e) => set("supplyDewar", e.target.value)} placeholder="e.g. D-250-A" />
             </Field>
           </div>
 
-          <fieldset className="rounded-xl border-2 border-line p-3">
-            <legend className="px-1 font-semibold">People present</legend>
+          <FieldGroup legend="People present">
             <div className="flex flex-wrap gap-2">
               {active.map((u) => (
                 <label key={u.id} className="flex min-h-12 items-center gap-2 rounded-xl border-2 border-line px-3">
@@ -212,10 +203,9 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
               ))}
             </div>
             {rules?.values.twoPersonTransfer && people.length < 2 && <p className="mt-2 font-semibold text-warn">The facility's rules require two people present for a transfer.</p>}
-          </fieldset>
+          </FieldGroup>
 
-          <fieldset className="rounded-xl border-2 border-line p-3">
-            <legend className="px-1 font-semibold">Safety checks</legend>
+          <FieldGroup legend="Safety checks">
             <label className="flex min-h-12 items-center gap-2">
               <input type="checkbox" className="h-6 w-6" checked={f.ppeConfirmed} onChange={(e) => set("ppeConfirmed", e.target.checked)} />
               PPE worn{ppe.length ? `: ${ppe.join(", ")}` : ""}
@@ -225,7 +215,7 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
               Oxygen monitor checked before starting
             </label>
             <NumberField id="t-oxygen" label="Lowest oxygen reading during the transfer (%)" hint={rules ? `Facility alarm level ${rules.values.oxygenAlarmPercent} %` : undefined} value={f.oxygenLowest} onChange={(v) => set("oxygenLowest", v)} />
-          </fieldset>
+          </FieldGroup>
 
           <div className="grid gap-3 sm:grid-cols-2">
             <NumberField id="t-level-before" label="Level before (%)" value={f.levelBefore} onChange={(v) => set("levelBefore", v)} />
@@ -234,8 +224,7 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
             <NumberField id="t-p-after" label="Pressure after (mbar)" value={f.pressureAfter} onChange={(v) => set("pressureAfter", v)} />
           </div>
 
-          <fieldset className="rounded-xl border-2 border-line p-3">
-            <legend className="px-1 font-semibold">Taken from the supply</legend>
+          <FieldGroup legend="Taken from the supply">
             <ChoiceButtons className="mb-2 flex gap-2" label="Litres taken measured by" options={SUPPLIED_BY} value={f.suppliedBy} onChange={(m) => set("suppliedBy", m)} />
             {f.suppliedBy === "level" ? (
               <NumberField id="t-supplied" label="Litres taken from the supply" value={f.supplied} onChange={(v) => set("supplied", v)} />
@@ -245,14 +234,14 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
                 <NumberField id="t-mass-after" label="Supply dewar mass after (kg)" hint={suppliedLitres !== undefined ? `≈ ${trim(suppliedLitres)} L of liquid (density 0.1247 kg/L)` : undefined} value={f.massAfter} onChange={(v) => set("massAfter", v)} />
               </div>
             )}
-          </fieldset>
+          </FieldGroup>
 
           <div className="grid gap-3 sm:grid-cols-2">
             <NumberField id="t-gained" label="Litres gained in the cryostat" hint={gainedFromLevels !== undefined ? `From the level change: ${trim(gainedFromLevels)} L (leave empty to use it)` : undefined} placeholder={gainedFromLevels !== undefined ? String(gainedFromLevels) : ""} value={f.gained} onChange={(v) => set("gained", v)} />
             <NumberField id="t-duration" label="Duration (min)" value={f.duration} onChange={(v) => set("duration", v)} />
           </div>
           <Field id="t-anomalies" label="Anomalies">
-            <textarea id="t-anomalies" rows={3} className={INPUT} value={f.anomalies} onChange={(e) => set("anomalies", e.target.value)} />
+            <textarea id="t-anomalies" rows={3} className={INPUT_CLASS} value={f.anomalies} onChange={(e) => set("anomalies", e.target.value)} />
           </Field>
 
           {error && <ProblemNotice tone="danger" title={error.title} problems={error.problems} />}

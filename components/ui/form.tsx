@@ -4,6 +4,9 @@
 import type { ReactNode } from "react";
 import { Notice } from "./panel";
 
+/** A typed figure: undefined when empty, NaN when it is not a number (the save names the problem). A decimal comma is accepted. */
+export const typedNumber = (s: string): number | undefined => (s.trim() === "" ? undefined : Number(s.replace(",", ".")));
+
 /** The class of a text input, select or textarea on the entry forms. */
 export const INPUT_CLASS = "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink focus:border-accent";
 
@@ -110,5 +113,15 @@ export function NumberField({
     <FieldRow id={id} label={label} hint={hint}>
       <input id={id} inputMode="decimal" className={`${INPUT_CLASS} num`} value={value} placeholder={placeholder} onChange={(e) => onChange(e.target.value)} />
     </FieldRow>
+  );
+}
+
+/** A bordered group of controls under a legend (people present, safety checks, per cryostat). */
+export function FieldGroup({ legend, children }: { legend: string; children: ReactNode }) {
+  return (
+    <fieldset className="rounded-xl border-2 border-line p-3">
+      <legend className="px-1 font-semibold">{legend}</legend>
+      {children}
+    </fieldset>
   );
 }

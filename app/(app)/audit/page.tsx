@@ -1,13 +1,6 @@
-import { RolePage } from "@/components/admin/role-page";
+import { rolePage } from "@/components/admin/role-page";
 import { AuditHome } from "@/components/audit/audit-home";
 
 export const metadata = { title: "Audit" };
 export const dynamic = "force-dynamic";
-
-export default function AuditPage() {
-  return (
-    <RolePage roles={["safety_officer", "facility_admin"]} need="safety officer" title="Safety audit">
-      <AuditHome />
-    </RolePage>
-  );
-}
+export default rolePage({ roles: ["safety_officer", "facility_admin"], need: "safety officer", title: "Safety audit", Screen: AuditHome });

@@ -1,13 +1,6 @@
-import { RolePage } from "@/components/admin/role-page";
+import { rolePage } from "@/components/admin/role-page";
 import { MailAdmin } from "@/components/audit/mail-admin";
 
 export const metadata = { title: "Mail outbox" };
 export const dynamic = "force-dynamic";
-
-export default function MailPage() {
-  return (
-    <RolePage roles={["facility_admin"]} need="facility admin" title="Mail outbox">
-      <MailAdmin />
-    </RolePage>
-  );
-}
+export default rolePage({ roles: ["facility_admin"], need: "facility admin", title: "Mail outbox", Screen: MailAdmin });

@@ -1,13 +1,6 @@
-import { RolePage } from "@/components/admin/role-page";
+import { rolePage } from "@/components/admin/role-page";
 import { RulesAdmin } from "@/components/safety/rules-admin";
 
 export const metadata = { title: "Facility rules" };
 export const dynamic = "force-dynamic";
-
-export default function RulesPage() {
-  return (
-    <RolePage roles={["facility_admin"]} need="facility admin" title="Facility rules">
-      <RulesAdmin />
-    </RolePage>
-  );
-}
+export default rolePage({ roles: ["facility_admin"], need: "facility admin", title: "Facility rules", Screen: RulesAdmin });
