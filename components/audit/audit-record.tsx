@@ -7,7 +7,7 @@ import { useCallback, useEffect, useState } from "react";
 import { Caution } from "@/components/safety/caution";
 import { useMe } from "@/components/shell/use-me";
 import { SignatureManifestation } from "@/components/signature/manifestation";
-import { SignDialog } from "@/components/signature/sign-dialog";
+import { SignDialog, type Confirmation } from "@/components/signature/sign-dialog";
 import { EntryBody } from "@/components/logbook/entry-body";
 import { Button, buttonClass } from "@/components/ui/button";
 import { ChoiceButtons } from "@/components/ui/form";
@@ -15,6 +15,7 @@ import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import type { AuditItem, SignatureView } from "@/db/queries/audit";
 import type { QuenchFigures, TransferFigures } from "@/lib/audit/figures";
 import { formatDate, kindLabel, trim } from "@/lib/format";
+import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { signatureEntry, signingSubject } from "@/lib/signing/sign";
 import { FlagTags } from "./flag-tags";
@@ -82,6 +83,19 @@ export function AuditRecord({ id }: { id: string }) {
   if (!item) return <Loading />;
 
   const officer = me?.role === "safety_officer";
+  /** Sign the finding and send it with its signature; a refusal is shown in the dialog (thrown). */
+  async function signFinding(finding: EntryInput, signer: SessionUser, c: Confirmation) {
+    const subject = signingSubject(finding, signer, "audited");
+    const proof = await c.prove(subject);
+    const signature = signatureEntry({ target: finding, subject, signer, deviceId: "audit-desk", image: c.image, confirmedBy: c.confirmedBy, proof });
+    const r = await fetch("/api/audit/findings", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ finding, signature }) });
+    const body = await r.json().catch(() => ({}));
+    if (!r.ok) throw new Error([body?.error?.message, ...(body?.error?.details ?? [])].filter(Boolean).join(" ") || `The server answered ${r.status}.`);
+    setDone(`Finding signed: ${verdict === "acceptable" ? "acceptable" : "needs action"}.`);
+    setFindings("");
+    await load();
+  }
+
   function startSigning() {
     if (!me || !item) return;
     setDone(null);
@@ -182,23 +196,7 @@ export function AuditRecord({ id }: { id: string }) {
           </Panel>
         )}
         {signing && me && (
-          <SignDialog
-            me={me}
-            meaning="audited"
-            title="Sign the audit finding"
-            onClose={() => setSigning(null)}
-            onSign={async (c) => {
-              const subject = signingSubject(signing, me, "audited");
-              const proof = await c.prove(subject);
-              const signature = signatureEntry({ target: signing, subject, signer: me, deviceId: "audit-desk", image: c.image, confirmedBy: c.confirmedBy, proof });
-              const r = await fetch("/api/audit/findings", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ finding: signing, signature }) });
-              const body = await r.json().catch(() => ({}));
-              if (!r.ok) throw new Error([body?.error?.message, ...(body?.error?.details ?? [])].filter(Boolean).join(" ") || `The server answered ${r.status}.`);
-              setDone(`Finding signed: ${verdict === "acceptable" ? "acceptable" : "needs action"}.`);
-              setFindings("");
-              await load();
-            }}
-          >
+          <SignDialog me={me} meaning="audited" title="Sign the audit finding" onClose={() => setSigning(null)} onSign={(c) => signFinding(signing, me, c)}>
             <p>
               {kindLabel(item.entry.kind)} on {item.cryostatName}, {formatDate(item.entry.recordedAt)} — verdict <strong>{verdict === "acceptable" ? "acceptable" : "needs action"}</strong>.
             </p>
