@@ -1,23 +1,18 @@
 // CSV export of audited records (RFC 4180: CRLF lines, fields quoted when needed). Each row
 // carries the record, its computed figures, its flags and every signature's manifestation
 // (printed name, role, date-time UTC, meaning) as R3 requires.
-export type CsvSignature = { meaning: string; signerName: string; signerRole: string; signedAt: string };
-export type CsvRecord = {
-  id: string;
-  kind: string;
-  recordedAt: string;
-  cryostatName: string;
-  authorName: string;
+import type { ExportRecordBase, ExportSignature } from "./types";
+
+export type CsvSignature = ExportSignature;
+export type CsvRecord = ExportRecordBase & {
   peopleNames: string[];
   payload: Record<string, unknown>;
   efficiencyPercent: number | null;
   gasToRecoveryLitres: number | null;
   boilOffLitresPerDay: number | null;
-  flags: string[];
   verdict: string | null;
   findings: string[];
   signatures: CsvSignature[];
-  hash: string;
 };
 
 export function csvField(v: unknown): string {

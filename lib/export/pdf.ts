@@ -2,21 +2,15 @@
 // with its figures, flags, findings and every signature's manifestation (printed name, role, date
 // and time, meaning — R3), plus the chain check of each cryostat. Standard fonts only (no files).
 import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from "pdf-lib";
+import type { ExportRecordBase, ExportSignature } from "./types";
 
-export type ReportSignature = { meaning: string; signerName: string; signerRole: string; signedAt: string; confirmedBy?: string | null };
-export type ReportRecord = {
-  id: string;
-  kind: string;
+export type ReportSignature = ExportSignature & { confirmedBy?: string | null };
+export type ReportRecord = ExportRecordBase & {
   title: string;
-  recordedAt: string;
-  cryostatName: string;
-  authorName: string;
   lines: string[];
   figures: string[];
-  flags: string[];
   findings: { verdict: string; text: string; by: string; at: string; signatures: ReportSignature[] }[];
   signatures: ReportSignature[];
-  hash: string;
 };
 export type ReportChain = { chain: string; ok: boolean; count: number; message: string };
 export type ReportInput = {
