@@ -2,8 +2,17 @@
 // stage). One zod schema for the upload page and the route handler; the file's text travels
 // with it and is parsed again on the server with the same lib/cryo parser the preview used.
 import { z } from "zod";
+import type { SensorKind } from "@/lib/cryo";
 
 export const SENSOR_KIND_VALUES = ["ruthenium-oxide", "germanium", "silicon-diode", "carbon"] as const;
+
+/** Sensor kinds in plain words, with the quantity the table maps to temperature. */
+export const SENSOR_KIND_LABEL: Record<SensorKind, string> = {
+  "ruthenium-oxide": "Ruthenium oxide (Ω)",
+  germanium: "Germanium (Ω)",
+  carbon: "Carbon (Ω)",
+  "silicon-diode": "Silicon diode (V)",
+};
 
 /** How the two columns of a calibration file are read; "auto" looks at the header line. */
 export const COLUMN_ORDER_OPTIONS = [

@@ -11,16 +11,10 @@ import { UplotChart, type Palette } from "@/components/charts/uplot-chart";
 import { useMe } from "@/components/shell/use-me";
 import { convertReading, parseCalibration, type CalibrationTable, type SensorKind } from "@/lib/cryo";
 import { putAttachment } from "@/lib/local/record";
-import { COLUMN_ORDER_OPTIONS, MAX_CALIBRATION_BYTES, SENSOR_KIND_VALUES, type CalibrationUpload } from "./calibration-schema";
+import { COLUMN_ORDER_OPTIONS, MAX_CALIBRATION_BYTES, SENSOR_KIND_LABEL, SENSOR_KIND_VALUES, type CalibrationUpload } from "./calibration-schema";
 import { figure, readNumber, temperatureText } from "./derive";
 import { refreshCryoData, useCalibrations, useCryostatList } from "./use-cryo-data";
 
-const KIND_LABEL: Record<SensorKind, string> = {
-  "ruthenium-oxide": "Ruthenium oxide (Ω)",
-  germanium: "Germanium (Ω)",
-  carbon: "Carbon (Ω)",
-  "silicon-diode": "Silicon diode (V)",
-};
 
 const SELECT = "min-h-12 w-full rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg text-ink focus:border-accent";
 
@@ -180,7 +174,7 @@ export function CalibrationUploadPage() {
           <label className="flex flex-col gap-1 font-semibold">
             Sensor kind
             <select className={SELECT} value={sensorKind} onChange={(e) => setSensorKind(e.target.value as SensorKind)}>
-              <OptionList options={SENSOR_KIND_VALUES.map((k) => ({ value: k, label: KIND_LABEL[k] }))} />
+              <OptionList options={SENSOR_KIND_VALUES.map((k) => ({ value: k, label: SENSOR_KIND_LABEL[k] }))} />
             </select>
           </label>
           <label className="flex flex-col gap-1 font-semibold">
@@ -274,7 +268,7 @@ export function CalibrationUploadPage() {
           {(inForce.data ?? []).map((c) => (
             <li key={c.id} className="flex flex-wrap justify-between gap-2 py-2">
               <span>
-                <span className="font-semibold">{stageName(c.cryostatId, c.stage)}</span> — {c.sensorLabel} ({KIND_LABEL[c.sensorKind]})
+                <span className="font-semibold">{stageName(c.cryostatId, c.stage)}</span> — {c.sensorLabel} ({SENSOR_KIND_LABEL[c.sensorKind]})
               </span>
               <span className="text-base text-muted">
                 <span className="num">{c.table.points.length}</span> points, {temperatureText(c.table.range.temperatureMinK)}–{temperatureText(c.table.range.temperatureMaxK)} · {c.fileName} ·{" "}

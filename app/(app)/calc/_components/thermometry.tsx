@@ -17,7 +17,7 @@ import {
   type SensorKind,
 } from "@/lib/cryo";
 import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS } from "@/components/cryo/calc-kit";
-import { COLUMN_ORDER_OPTIONS } from "@/components/cryo/calibration-schema";
+import { COLUMN_ORDER_OPTIONS, SENSOR_KIND_LABEL } from "@/components/cryo/calibration-schema";
 import { figure, temperatureText } from "@/components/cryo/derive";
 
 const ISOTOPES = [
@@ -74,6 +74,10 @@ const R0_OPTIONS = [
   { value: "1000", label: "Pt1000 (R0 = 1000 Ω)" },
 ];
 
+const R0_FIELD = { kind: "select", key: "r0", label: "Sensor", initial: "100", options: R0_OPTIONS } as const;
+/** IEC 60751 class A and B tolerances at a temperature (°C). */
+const toleranceRow = (c: number) => ({ label: "Class A / B tolerance", text: `±${figure(ptToleranceC(c, "A"), 3)} / ±${figure(ptToleranceC(c, "B"), 3)} °C` });
+
 export function PlatinumSection() {
   return (
     <>
@@ -81,7 +85,7 @@ export function PlatinumSection() {
         title="Platinum sensor: resistance → temperature"
         intro="IEC 60751 (Callendar–Van Dusen), −200…850 °C. Below −200 °C the standard says nothing: use a calibrated sensor."
         fields={[
-          { kind: "select", key: "r0", label: "Sensor", initial: "100", options: R0_OPTIONS },
+          R0_FIELD,
           { key: "r", label: "Resistance", unit: "Ω", initial: "20.2465", match: /^Resistance|finite/ },
         ]}
         compute={({ n, s }) => {
@@ -89,31 +93,26 @@ export function PlatinumSection() {
           return [
             { label: "Temperature", text: `${figure(c, 6)} °C` },
             { label: "Temperature", text: `${figure(c + 273.15, 6)} K` },
-            { label: "Class A / B tolerance", text: `±${figure(ptToleranceC(c, "A"), 3)} / ±${figure(ptToleranceC(c, "B"), 3)} °C` },
+            toleranceRow(c),
           ];
         }}
       />
       <Calculator
         title="Platinum sensor: temperature → resistance"
         fields={[
-          { kind: "select", key: "r0", label: "Sensor", initial: "100", options: R0_OPTIONS },
+          R0_FIELD,
           { key: "t", label: "Temperature", unit: "°C", initial: "-196", match: /^Temperature|finite/ },
         ]}
         compute={({ n, s }) => [
           { label: "Resistance", text: `${figure(ptResistance(n.t!, Number(s.r0)), 6)} Ω` },
-          { label: "Class A / B tolerance", text: `±${figure(ptToleranceC(n.t!, "A"), 3)} / ±${figure(ptToleranceC(n.t!, "B"), 3)} °C` },
+          toleranceRow(n.t!),
         ]}
       />
     </>
   );
 }
 
-export const SENSOR_KINDS: { value: SensorKind; label: string }[] = [
-  { value: "ruthenium-oxide", label: "Ruthenium oxide (Ω)" },
-  { value: "germanium", label: "Germanium (Ω)" },
-  { value: "carbon", label: "Carbon (Ω)" },
-  { value: "silicon-diode", label: "Silicon diode (V)" },
-];
+export const SENSOR_KINDS = (["ruthenium-oxide", "germanium", "carbon", "silicon-diode"] as const satisfies readonly SensorKind[]).map((k) => ({ value: k, label: SENSOR_KIND_LABEL[k] }));
 
 const EXAMPLE_TABLE = `# T (K)   R (Ω) — an example ruthenium-oxide curve
 0.010  21500
