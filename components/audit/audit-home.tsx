@@ -182,7 +182,7 @@ function TransferTable() {
                 return (
                   <tr key={i.entry.id} className="border-t border-line align-top">
                     <td className="px-4 py-2 whitespace-nowrap">
-                      <Link className="font-semibold text-accent underline" href={`/audit/${i.entry.id}`}>
+                      <Link className="inline-flex min-h-12 items-center font-semibold text-accent underline" href={`/audit/${i.entry.id}`}>
                         {formatDate(i.entry.recordedAt)}
                       </Link>
                     </td>

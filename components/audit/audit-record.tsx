@@ -51,11 +51,35 @@ function Figures({ item }: { item: AuditItem }) {
   return (
     <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1">
       <dt className="text-muted">Helium lost (estimate)</dt>
-      <dd className="num">{q.heliumLostLitres === null ? "—" : `${trim(q.heliumLostLitres)} L (${q.heliumLostBasis?.replaceAll("_", " ")})`}</dd>
+      <dd>
+        {q.heliumLostLitres === null ? (
+          "—"
+        ) : (
+          <>
+            <span className="num">{trim(q.heliumLostLitres)}</span> L ({q.heliumLostBasis?.replaceAll("_", " ")})
+          </>
+        )}
+      </dd>
       <dt className="text-muted">Gas released (estimate)</dt>
-      <dd className="num">{q.gasM3 === null ? "—" : `${trim(q.gasM3)} m³ at 20 °C, 1 atm`}</dd>
+      <dd>
+        {q.gasM3 === null ? (
+          "—"
+        ) : (
+          <>
+            <span className="num">{trim(q.gasM3)}</span> m³ at 20 °C, 1 atm
+          </>
+        )}
+      </dd>
       <dt className="text-muted">Room oxygen (estimate)</dt>
-      <dd className="num">{q.oxygenEstimateFraction === null ? "room volume not set in the facility rules" : `${trim(q.oxygenEstimateFraction * 100)} % if mixed into the room`}</dd>
+      <dd>
+        {q.oxygenEstimateFraction === null ? (
+          "room volume not set in the facility rules"
+        ) : (
+          <>
+            <span className="num">{trim(q.oxygenEstimateFraction * 100)}</span> % if mixed into the room
+          </>
+        )}
+      </dd>
     </dl>
   );
 }
@@ -118,7 +142,7 @@ export function AuditRecord({ id }: { id: string }) {
       <div className="flex flex-col gap-4">
         <Panel>
           <p className="text-sm text-muted">
-            <Link href="/audit" className="underline">
+            <Link href="/audit" className="inline-flex min-h-12 items-center underline">
               Audit
             </Link>{" "}
             / {kindLabel(item.entry.kind)}

@@ -29,13 +29,13 @@ export function MailAdmin() {
           <details>
             <summary className="flex min-h-12 cursor-pointer flex-wrap items-center gap-2">
               <span className="font-semibold">{m.subject}</span>
-              <span className="text-sm text-muted">
+              <span className="text-base text-muted">
                 to {m.to} · {formatDate(m.createdAt)}
               </span>
               {m.sentAt ? <Tag tone="ok">sent {formatDate(m.sentAt)}</Tag> : m.error ? <Tag tone="danger">not sent: {m.error}</Tag> : <Tag>queued</Tag>}
             </summary>
             <pre className="mt-2 whitespace-pre-wrap font-sans">{m.body}</pre>
-            <p className="mt-1 text-xs text-muted">Event: {m.eventKey}</p>
+            <p className="mt-1 text-sm text-muted">Event: {m.eventKey}</p>
           </details>
         </Panel>
       ))}

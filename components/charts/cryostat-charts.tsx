@@ -119,7 +119,7 @@ function HeliumChart({ series, config, nowMs }: { series: CryostatSeries; config
   return (
     <>
       <UplotChart label="Helium level with the boil-off fit since the last fill and the minimum level" options={options} data={data} />
-      <p className="num mt-2 text-sm text-ink" data-testid="helium-forecast">
+      <p className="mt-2 text-base text-ink" data-testid="helium-forecast">
         {model.rate ? (
           <>
             Boil-off since the last fill: {figure(model.rate.litresPerDay, 3)} ± {figure(model.rate.standardErrorLitresPerDay, 2)} {model.unit}/day
@@ -224,7 +224,7 @@ function ChartsFor({ cryostatId }: { cryostatId: string }) {
           {series.error} The charts need one online visit.
         </Notice>
       )}
-      {series.stale && series.error && <p className="text-sm text-muted">Charts from the last online visit ({series.error})</p>}
+      {series.stale && series.error && <p className="text-base text-muted">Charts from the last online visit ({series.error})</p>}
       {!data && !series.error && <p className="text-muted">Loading charts…</p>}
       {data && nowMs !== null && (
         <>

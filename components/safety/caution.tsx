@@ -65,8 +65,8 @@ export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: 
           {facts.maxRamp !== undefined && (topic === "ramp" || topic === "magnet") && (
             <>
               <dt className="font-semibold text-muted">Ramp limit</dt>
-              <dd data-fact="ramp-limit" className="num">
-                {facts.maxRamp} T/min (facility)
+              <dd data-fact="ramp-limit">
+                <span className="num">{facts.maxRamp}</span> T/min (facility)
               </dd>
             </>
           )}
@@ -83,7 +83,7 @@ export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: 
             {facts.contacts.map((c, i) => (
               <span key={i} className="mr-3 inline-block">
                 {c.role}: {c.name},{" "}
-                <a className="num font-semibold underline" href={`tel:${c.phone.replace(/[^+\d]/g, "")}`}>
+                <a className="num inline-flex min-h-12 items-center font-semibold underline" href={`tel:${c.phone.replace(/[^+\d]/g, "")}`}>
                   {c.phone}
                 </a>
               </span>

@@ -186,7 +186,7 @@ export function RulesAdmin() {
           <h2 className="mb-2 text-lg font-bold">The facility's rules document</h2>
           {rules?.document ? (
             <p className="mb-2">
-              <a href="/api/rules/document" className="font-semibold text-accent underline">
+              <a href="/api/rules/document" className="inline-flex min-h-12 items-center font-semibold text-accent underline">
                 {rules.document.fileName}
               </a>{" "}
               <span className="num text-sm text-muted">({(rules.document.bytes / 1024).toFixed(0)} KB)</span>

@@ -132,7 +132,7 @@ export function CalibrationSection() {
         <>
           Paste a two-column table (CSV or spaces; # comments and a header line allowed). Monotone cubic interpolation, in log–log for
           resistors; nothing outside the table. To keep a table for a thermometer channel, use{" "}
-          <Link href="/calibrations" className="font-semibold text-accent underline">
+          <Link href="/calibrations" className="inline-flex min-h-12 items-center font-semibold text-accent underline">
             Sensor calibrations
           </Link>
           .
