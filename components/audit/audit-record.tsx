@@ -29,6 +29,22 @@ function Manifest({ s }: { s: SignatureView }) {
   return <SignatureManifestation sig={{ signerName: s.signerName, signerRole: s.signerRole, signedAt: s.signedAt, meaning: s.meaning as never, confirmedBy: (s.confirmedBy ?? undefined) as never, image: s.image as never, valid: true }} />;
 }
 
+/** A figure (number font) followed by its words, or `none` when there is no figure. */
+function FigureText({ value, after, none = "—" }: { value: number | null; after: string; none?: string }) {
+  return (
+    <dd>
+      {value === null ? (
+        none
+      ) : (
+        <>
+          <span className="num">{trim(value)}</span>
+          {after}
+        </>
+      )}
+    </dd>
+  );
+}
+
 function Figures({ item }: { item: AuditItem }) {
   const f = item.figures;
   if (!f) return null;
@@ -51,35 +67,11 @@ function Figures({ item }: { item: AuditItem }) {
   return (
     <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1">
       <dt className="text-muted">Helium lost (estimate)</dt>
-      <dd>
-        {q.heliumLostLitres === null ? (
-          "—"
-        ) : (
-          <>
-            <span className="num">{trim(q.heliumLostLitres)}</span> L ({q.heliumLostBasis?.replaceAll("_", " ")})
-          </>
-        )}
-      </dd>
+      <FigureText value={q.heliumLostLitres} after={` L (${q.heliumLostBasis?.replaceAll("_", " ")})`} />
       <dt className="text-muted">Gas released (estimate)</dt>
-      <dd>
-        {q.gasM3 === null ? (
-          "—"
-        ) : (
-          <>
-            <span className="num">{trim(q.gasM3)}</span> m³ at 20 °C, 1 atm
-          </>
-        )}
-      </dd>
+      <FigureText value={q.gasM3} after=" m³ at 20 °C, 1 atm" />
       <dt className="text-muted">Room oxygen (estimate)</dt>
-      <dd>
-        {q.oxygenEstimateFraction === null ? (
-          "room volume not set in the facility rules"
-        ) : (
-          <>
-            <span className="num">{trim(q.oxygenEstimateFraction * 100)}</span> % if mixed into the room
-          </>
-        )}
-      </dd>
+      <FigureText value={q.oxygenEstimateFraction === null ? null : q.oxygenEstimateFraction * 100} after=" % if mixed into the room" none="room volume not set in the facility rules" />
     </dl>
   );
 }
