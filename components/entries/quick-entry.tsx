@@ -36,6 +36,8 @@ export function QuickEntry({ cryostat, role }: { cryostat: LocalCryostat; role: 
     setOutcome(null);
     try {
       await recordEntry(draft);
+      // Committed with strict durability: the moment bench/sync measures as "durable".
+      performance.mark("rimelog:entry-durable");
       setOutcome({ tone: "ok", text: `${TAB_LABEL[draft.kind as Tab] ?? "Entry"} saved on this tablet.` });
       return true;
     } catch (e) {

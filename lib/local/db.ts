@@ -84,6 +84,10 @@ export class RimelogDexie extends Dexie {
       users: "id",
       meta: "key",
     });
+    // v2: a cryostat's unsent entries by time, so a logbook reads only the newest few.
+    this.version(2).stores({
+      entries: "id, cryostatId, runId, sync, seq, authorId, [cryostatId+seq], [cryostatId+sync+recordedAt]",
+    });
   }
 
   async getMeta<K extends MetaKey>(key: K): Promise<MetaValue<K> | undefined> {

@@ -34,7 +34,14 @@ export async function queryEntries(db: RimelogDexie, f: EntryFilter = {}): Promi
  * then the synced ones from the [cryostatId+seq] index, newest first, up to `limit`.
  */
 async function newestOfCryostat(db: RimelogDexie, cryostatId: string, limit: number): Promise<StoredLocalEntry[]> {
-  const unsent = (await db.entries.where("sync").anyOf("pending", "rejected").toArray()).filter((e) => e.cryostatId === cryostatId);
+  const newestWith = (sync: string) =>
+    db.entries
+      .where("[cryostatId+sync+recordedAt]")
+      .between([cryostatId, sync, ""], [cryostatId, sync, "\uffff"])
+      .reverse()
+      .limit(limit)
+      .toArray();
+  const unsent = [...(await newestWith("pending")), ...(await newestWith("rejected"))];
   const synced = await db.entries
     .where("[cryostatId+seq]")
     .between([cryostatId, -Infinity], [cryostatId, Infinity])
