@@ -78,8 +78,6 @@ export const DEMO_RULES: FacilityRulesValues = {
   controlledAreaMilliTesla: 0.5,
   controlledAreaNote: "The 0.5 mT line around Heron and Plover is marked on the floor. No pacemakers or active implants beyond it; no loose steel tools.",
   forecastWarnDays: 3,
-  transferEfficiencyMinPercent: 50,
-  transferEfficiencyMaxPercent: 95,
   roomFreeVolumeM3: 220,
   roomAirChangesPerHour: 4,
   contacts: [

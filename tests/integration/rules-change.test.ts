@@ -14,7 +14,7 @@ describe("facility rules changes", () => {
   it("writes an audited rules.change entry with old and new values and puts the new version in force", async () => {
     const db = await freshDb({ seeded: true });
     const before = (await getRules(db))!;
-    const after = await changeRules(db, ines, { values: { ...before.values, oxygenAlarmPercent: 19.8, roomFreeVolumeM3: 220 }, reason: "New monitors", expectedVersion: before.version });
+    const after = await changeRules(db, ines, { values: { ...before.values, oxygenAlarmPercent: 19.8, transferEfficiencyMinPercent: 45 }, reason: "New monitors", expectedVersion: before.version });
     expect(after.version).toBe(before.version + 1);
     expect(after.values.oxygenAlarmPercent).toBe(19.8);
     const chain = await chainEntries(db, "facility");
@@ -23,7 +23,7 @@ describe("facility rules changes", () => {
     expect(change.payload).toMatchObject({ version: after.version, reason: "New monitors" });
     expect((change.payload as { changes: unknown[] }).changes).toEqual([
       { field: "oxygenAlarmPercent", from: 19.5, to: 19.8 },
-      { field: "roomFreeVolumeM3", from: null, to: 220 },
+      { field: "transferEfficiencyMinPercent", from: null, to: 45 },
     ]);
   });
 
