@@ -4,6 +4,7 @@
 // transaction has committed; a failed local write is shown as an error, never hidden.
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useState, type ReactNode } from "react";
+import { DerivedValue } from "@/components/cryo/derived-value";
 import { useForm, type FieldValues, type Resolver } from "react-hook-form";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -71,8 +72,8 @@ export function QuickEntry({ cryostat, role }: { cryostat: LocalCryostat; role: 
       <div role="tabpanel" aria-label={TAB_LABEL[active]}>
         {active === "reading" && <ReadingForm cryostat={cryostat} save={save} />}
         {active === "note" && <NoteForm cryostatId={cryostat.id} save={save} />}
-        {active === "helium.level" && <HeliumForm cryostatId={cryostat.id} save={save} />}
-        {active === "field.setting" && <FieldForm cryostatId={cryostat.id} save={save} />}
+        {active === "helium.level" && <HeliumForm cryostat={cryostat} save={save} />}
+        {active === "field.setting" && <FieldForm cryostat={cryostat} save={save} />}
       </div>
       {outcome && (
         <div className="mt-3">
@@ -132,6 +133,9 @@ function ReadingForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }
       />
       <TextField label="Value" id="reading-value" inputMode="decimal" autoComplete="off" className="num" {...f.register("value")} error={err(errors.value)} />
       <SelectField label="Unit" id="reading-unit" {...f.register("unit")} options={UNITS.map((u) => ({ value: u, label: u }))} error={err(errors.unit)} />
+      <div className="sm:col-span-2">
+        <DerivedValue id="reading-derived" cryostat={cryostat} quantity={f.watch("quantity")} unit={f.watch("unit")} value={f.watch("value")} stage={f.watch("stage")} />
+      </div>
       <TextField label="Comment (optional)" id="reading-comment" className="sm:col-span-2" {...f.register("comment")} error={err(errors.comment)} />
     </FormShell>
   );
@@ -167,7 +171,8 @@ function NoteForm({ cryostatId, save }: { cryostatId: string; save: Save }) {
   );
 }
 
-function HeliumForm({ cryostatId, save }: { cryostatId: string; save: Save }) {
+function HeliumForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }) {
+  const cryostatId = cryostat.id;
   const f = useEntryForm(heliumForm, { percent: "", litres: "" });
   const errors = f.formState.errors;
   const submit = f.handleSubmit(async (v) => {
@@ -177,11 +182,15 @@ function HeliumForm({ cryostatId, save }: { cryostatId: string; save: Save }) {
     <FormShell onSubmit={() => void submit()} busy={f.formState.isSubmitting} label="Save helium level">
       <TextField label="Level (%)" id="helium-percent" inputMode="decimal" autoComplete="off" {...f.register("percent")} error={err(errors.percent)} />
       <TextField label="Litres (optional)" id="helium-litres" inputMode="decimal" autoComplete="off" {...f.register("litres")} error={err(errors.litres)} />
+      <div className="sm:col-span-2">
+        <DerivedValue id="helium-derived" cryostat={cryostat} quantity="Helium level" unit="%" value={f.watch("percent")} />
+      </div>
     </FormShell>
   );
 }
 
-function FieldForm({ cryostatId, save }: { cryostatId: string; save: Save }) {
+function FieldForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }) {
+  const cryostatId = cryostat.id;
   const f = useEntryForm(fieldForm, { currentA: "", fieldT: "", persistent: false, rampRateTPerMin: "", comment: "" });
   const errors = f.formState.errors;
   const submit = f.handleSubmit(async (v) => {
@@ -191,6 +200,9 @@ function FieldForm({ cryostatId, save }: { cryostatId: string; save: Save }) {
     <FormShell onSubmit={() => void submit()} busy={f.formState.isSubmitting} label="Save field setting">
       <TextField label="Field (T)" id="field-t" inputMode="decimal" autoComplete="off" {...f.register("fieldT")} error={err(errors.fieldT)} />
       <TextField label="Current (A)" id="field-a" inputMode="decimal" autoComplete="off" {...f.register("currentA")} error={err(errors.currentA)} />
+      <div className="sm:col-span-2">
+        <DerivedValue id="field-derived" cryostat={cryostat} quantity="Magnet current" unit="A" value={f.watch("currentA")} />
+      </div>
       <TextField label="Ramp rate (T/min, optional)" id="field-ramp" inputMode="decimal" autoComplete="off" {...f.register("rampRateTPerMin")} error={err(errors.rampRateTPerMin)} />
       <label className="flex min-h-12 items-center gap-3 self-end rounded-xl border-2 border-line px-4 font-semibold">
         <input type="checkbox" className="h-6 w-6" {...f.register("persistent")} />

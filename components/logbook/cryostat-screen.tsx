@@ -5,6 +5,7 @@
 import Link from "next/link";
 import { useEffect, useState } from "react";
 import { QuickEntry } from "@/components/entries/quick-entry";
+import { CryostatProcedures } from "@/components/procedures/cryostat-procedures";
 import { useMe } from "@/components/shell/use-me";
 import { Loading, Notice } from "@/components/ui/panel";
 import { useCryostat } from "@/lib/local/hooks";
@@ -48,7 +49,10 @@ function CryostatView({ id }: { id: string }) {
           Either it does not exist or the tablet has not synced since it was added. Connect to the network and open it again.
         </Notice>
       ) : (
-        <QuickEntry cryostat={cryostat} role={me?.role ?? null} />
+        <>
+          <QuickEntry cryostat={cryostat} role={me?.role ?? null} />
+          <CryostatProcedures cryostatId={id} />
+        </>
       )}
       <CryostatLogbook cryostatId={id} />
     </div>
