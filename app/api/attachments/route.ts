@@ -9,45 +9,25 @@ import { requireUser } from "@/lib/auth/require";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { handle, json } from "@/lib/http/respond";
+import { readUploadBytes, requireByteUpload, uploadHeader } from "@/lib/http/upload";
 import { cleanFileName, fileStore, MAX_ATTACHMENT_BYTES, newStorageKey, sniffType } from "@/lib/storage/objects";
 
 export const dynamic = "force-dynamic";
 
-function sameOrigin(req: Request): void {
-  const origin = req.headers.get("origin");
-  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
-  let originHost = "";
-  try {
-    originHost = origin ? new URL(origin).host : "";
-  } catch {
-    /* refused below */
-  }
-  if (!host || originHost !== host) throw new AppError("forbidden", "origin", "Uploads are accepted only from Rimelog's own pages.");
-}
-
 export async function POST(req: Request) {
   return handle(async () => {
     const user = await requireUser();
-    sameOrigin(req);
-    if ((req.headers.get("content-type") ?? "").toLowerCase() !== "application/octet-stream") {
-      throw new AppError("unsupported", "attachment", "Send the file as application/octet-stream.");
-    }
+    requireByteUpload(req, "attachment");
     const id = z.uuid().safeParse(req.headers.get("x-rimelog-attachment-id"));
     if (!id.success) throw new AppError("bad_request", "attachment", "The upload needs the attachment id the tablet made (a UUID).");
-    const declared = Number(req.headers.get("content-length") ?? "0");
-    if (declared > MAX_ATTACHMENT_BYTES) throw new AppError("too_large", "attachment", `The file is over ${MAX_ATTACHMENT_BYTES / 1048576} MB.`);
-    const bytes = new Uint8Array(await req.arrayBuffer());
-    if (bytes.length > MAX_ATTACHMENT_BYTES) throw new AppError("too_large", "attachment", `The file is over ${MAX_ATTACHMENT_BYTES / 1048576} MB.`);
+    const tooLarge = () => `The file is over ${MAX_ATTACHMENT_BYTES / 1048576} MB.`;
+    const bytes = await readUploadBytes(req, { surface: "attachment", maxBytes: MAX_ATTACHMENT_BYTES, tooLarge });
+    if (bytes.length > MAX_ATTACHMENT_BYTES) throw new AppError("too_large", "attachment", tooLarge());
     if (bytes.length === 0) throw new AppError("bad_request", "attachment", "The file is empty.");
     const type = sniffType(bytes);
     if (!type) throw new AppError("unsupported", "attachment", "Only photos (JPEG, PNG, WebP), PDF and plain-text files are accepted.");
     const sha256 = createHash("sha256").update(bytes).digest("hex");
-    let rawName = "";
-    try {
-      rawName = decodeURIComponent(req.headers.get("x-rimelog-file-name") ?? "");
-    } catch {
-      /* a bad name is replaced below */
-    }
+    const rawName = uploadHeader(req, "x-rimelog-file-name");
     const db = await getDb();
     const existing = await getAttachment(db, { id: id.data });
     if (existing) {
