@@ -25,7 +25,7 @@ export const DEMO_USERS: { id: string; email: string; name: string; role: Role }
   { id: "u-grace", email: "grace@larchmere.example", name: "Dr. Grace Oyelaran", role: "safety_officer" },
 ];
 
-const HERON: CryostatConfig = {
+export const HERON: CryostatConfig = {
   description: "Dry dilution refrigerator, pulse-tube pre-cooled, 9 T solenoid, bottom-loading probe.",
   stages: [
     { key: "pt1", label: "50 K plate", nominalK: 45 },
@@ -38,7 +38,7 @@ const HERON: CryostatConfig = {
   mixture: { tankVolumeLitres: 40 },
 };
 
-const PLOVER: CryostatConfig = {
+export const PLOVER: CryostatConfig = {
   description: "Wet helium-bath cryostat, 14 T magnet, variable-temperature insert (1.5–300 K).",
   stages: [
     { key: "bath", label: "Helium bath", nominalK: 4.2 },
@@ -61,7 +61,7 @@ const PLOVER: CryostatConfig = {
   vapourPressureStage: "vti",
 };
 
-const WREN: CryostatConfig = {
+export const WREN: CryostatConfig = {
   description: "Helium-4 bath test dewar for quick sensor tests; no magnet.",
   stages: [{ key: "bath", label: "Helium bath", nominalK: 4.2 }],
   reservoir: { capacityLitres: 60, minimumPercent: 20, calibration: { kind: "linear", litresPerPercent: 0.6, offsetLitres: 0 } },

@@ -2,32 +2,11 @@
 // outside source of its expected figure.
 import { describe, expect, it } from "vitest";
 import { deriveReading, durationText, readNumber, sinceLastFill, type CryostatLike, type Derived } from "@/components/cryo/derive";
+import { PLOVER as PLOVER_CONFIG } from "@/db/seed";
 import { parseCalibration } from "@/lib/cryo";
 
-const PLOVER: CryostatLike = {
-  id: "plover",
-  config: {
-    stages: [
-      { key: "bath", label: "Helium bath", nominalK: 4.2 },
-      { key: "vti", label: "VTI sample", nominalK: 1.6 },
-    ],
-    reservoir: {
-      capacityLitres: 90,
-      minimumPercent: 25,
-      calibration: {
-        kind: "table",
-        points: [
-          { percent: 0, litres: 0 },
-          { percent: 10, litres: 8.5 },
-          { percent: 90, litres: 88.5 },
-          { percent: 100, litres: 90 },
-        ],
-      },
-    },
-    magnet: { coilConstantTPerA: 0.12, maxCurrentA: 120, inductanceH: 60, rampLimitTPerMin: 0.2, persistentSwitch: true },
-    vapourPressureStage: "vti",
-  },
-};
+// The demo lab's Plover (db/seed.ts): table calibration near the neck, 0.12 T/A, VTI by vapour pressure.
+const PLOVER: CryostatLike = { id: "plover", config: PLOVER_CONFIG };
 
 const HERON: CryostatLike = {
   id: "heron",
