@@ -10,6 +10,7 @@ import { SignDialog } from "@/components/signature/sign-dialog";
 import { SignatureManifestation } from "@/components/signature/manifestation";
 import { writeSignature } from "@/components/signature/write-signature";
 import { Button, buttonClass } from "@/components/ui/button";
+import { ProblemNotice } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { formatDate, formatTemperature, stateLabel, trim } from "@/lib/format";
 import { useCryostat, useEntries, useUserNames, useUsers } from "@/lib/local/hooks";
@@ -115,11 +116,7 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
           ← Procedures
         </Link>
       </div>
-      {error && (
-        <Notice tone="danger" title="Not saved" role="alert">
-          {error}
-        </Notice>
-      )}
+      {error && <ProblemNotice tone="danger" title="Not saved" problems={[error]} />}
       <Panel aria-labelledby="summary-title">
         <h2 id="summary-title" className="mb-2 text-xl font-bold">
           State now

@@ -7,6 +7,7 @@ import { useMemo, useState } from "react";
 import { useMe } from "@/components/shell/use-me";
 import { PinPanel } from "@/components/signature/pin-panel";
 import { Button, buttonClass } from "@/components/ui/button";
+import { ProblemNotice } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
 import { useCryostats, useEntries, useTemplates, useUserNames, type LocalTemplate } from "@/lib/local/hooks";
@@ -60,11 +61,7 @@ export function ProceduresHome() {
 
   return (
     <div className="flex flex-col gap-5">
-      {error && (
-        <Notice tone="danger" title="Not started" role="alert">
-          {error}
-        </Notice>
-      )}
+      {error && <ProblemNotice tone="danger" title="Not started" problems={[error]} />}
       <section aria-labelledby="open-runs">
         <h2 id="open-runs" className="mb-2 text-2xl font-bold">
           In progress
