@@ -16,6 +16,8 @@ import { freshDb } from "./fixture";
 
 const state: { db?: Db; user: SessionUser | null } = { user: null };
 vi.mock("@/db", () => ({ getDb: async () => state.db }));
+// The server's background tick (chain signing, mail) is not part of these tests.
+vi.mock("@/lib/audit/server-tick", () => ({ ensureServerTick: () => undefined, kickServerTick: () => undefined }));
 vi.mock("@/lib/auth/require", () => ({
   requireUser: async () => {
     if (!state.user) throw new AppError("unauthorized", "session", "Sign in first.");

@@ -4,6 +4,7 @@ import { z } from "zod";
 import { getDb } from "@/db";
 import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
+import { ensureServerTick } from "@/lib/audit/server-tick";
 import { handle, json } from "@/lib/http/respond";
 import { PULL_PAGE, type PullReply } from "@/lib/sync/protocol";
 import { pullPage } from "@/lib/sync/server";
@@ -30,6 +31,7 @@ export async function GET(req: Request) {
       if (ref.hash !== q.data.ref) reference = ref;
     }
     const reply: PullReply = { ...page, reference, me: user };
+    ensureServerTick();
     return json(reply);
   });
 }
