@@ -80,6 +80,11 @@ describe("a shift without network", () => {
     await recordReading(a.page, "4,21");
     await recordNote(a.page, noteA);
     await waitPending(a.page, 2);
+    // Live derived value with no network: a level in % shows its litres (Wren: 0.6 L per %).
+    await a.page.getByRole("tab", { name: "Helium level" }).click();
+    await a.page.getByRole("textbox", { name: "Level (%)" }).fill("50");
+    await a.page.locator("#helium-derived").filter({ hasText: /30(\.0+)? L/ }).waitFor();
+    await a.page.getByRole("tab", { name: "Note" }).click();
     expect(await logbook(a.page).getByText(noteA).isVisible()).toBe(true);
     expect(await logbook(a.page).locator('li[data-sync="pending"]').count()).toBe(2);
     expect(await indicator(a.page).innerText()).toMatch(/Offline · 2 to send/);
