@@ -259,17 +259,22 @@ function toEntry(d: Draft): EntryInput {
   };
 }
 
-/** Handover signatures: handed over by the author, accepted by the recipient, minutes later. */
+/** Signatures: handovers handed over by the author and accepted by the recipient; transfers signed as performed. */
 function withSignatures(list: EntryInput[]): EntryInput[] {
   const out: EntryInput[] = [];
   for (const e of list) {
     out.push(e);
-    if (e.kind !== "handover") continue;
     const to = (e.payload as { toUserId?: string }).toUserId;
-    for (const [signer, meaning, delay] of [
-      [e.authorId, "handed_over", 60_000],
-      [to, "accepted", 300_000],
-    ] as const) {
+    const signers: (readonly [string | undefined, string, number])[] =
+      e.kind === "handover"
+        ? [
+            [e.authorId, "handed_over", 60_000],
+            [to, "accepted", 300_000],
+          ]
+        : e.kind === "transfer"
+          ? [[e.authorId, "performed", 120_000]]
+          : [];
+    for (const [signer, meaning, delay] of signers) {
       const u = DEMO_USERS.find((x) => x.id === signer);
       if (!u) continue;
       out.push({
