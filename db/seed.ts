@@ -167,8 +167,9 @@ export function demoHistory(now: number): Draft[] {
     }
     push({ at: t0, cryostatId: "plover", kind: "helium.level", payload: { percent: round(level, 1) }, author: d % 2 ? "u-priya" : "u-tomasz" });
     dayOfWeek = d % 7;
-    if (dayOfWeek === 1 || dayOfWeek === 4) {
-      // Two transfers a week, topping up to about 90 % (≈ 1 L per % on Plover).
+    if ((dayOfWeek === 1 || dayOfWeek === 4) && d < 24) {
+      // Two transfers a week, topping up to about 90 % (≈ 1 L per % on Plover); none in the last
+      // few days, so the boil-off since the last fill has readings to fit.
       const before = level;
       const gained = round(Math.min(88 - before, 50) + noise(1.5), 1);
       const supplied = round(gained / (0.72 + noise(0.06)), 1);

@@ -31,6 +31,13 @@ describe("room overview", () => {
     expect(transfers.filter((t) => t.payload.oxygenMonitorChecked === false)).toHaveLength(1);
   });
 
+  it("leaves enough level readings after Plover's last fill for a boil-off fit (at least 3)", async () => {
+    const { demoHistory } = await import("@/db/seed");
+    const plover = demoHistory(Date.parse("2026-11-30T12:00:00Z")).filter((d) => d.cryostatId === "plover");
+    const lastFill = Math.max(...plover.filter((d) => d.kind === "transfer").map((d) => d.at));
+    expect(plover.filter((d) => d.kind === "helium.level" && d.at > lastFill).length).toBeGreaterThanOrEqual(3);
+  });
+
   it("pages a logbook newest first without gaps or repeats", async () => {
     const db = await freshDb({ seeded: true });
     const seen: number[] = [];
