@@ -71,22 +71,22 @@ function CryostatCard({ c, list, names }: { c: LocalCryostat; list: Parameters<t
       )}
       <dl className="grid grid-cols-2 gap-2">
         {c.config.reservoir && (
-          <Fact label="Helium level" warn={o.helium !== null && minimum !== undefined && o.helium.percent < minimum}>
+          <Fact label="Helium level" figure warn={o.helium !== null && minimum !== undefined && o.helium.percent < minimum}>
             {o.helium ? `${trim(o.helium.percent)} %` : "—"}
-            {minimum !== undefined && <span className="block text-sm font-normal text-muted">minimum {minimum} %</span>}
+            {minimum !== undefined && <span className="block font-sans text-base font-normal text-muted">minimum {minimum} %</span>}
           </Fact>
         )}
         {c.config.magnet && (
-          <Fact label="Field">
+          <Fact label="Field" figure>
             {o.field ? `${trim(o.field.fieldT)} T` : "—"}
-            {o.field && <span className="block text-sm font-normal text-muted">{o.field.persistent ? "persistent mode" : "driven by supply"}</span>}
+            {o.field && <span className="block font-sans text-base font-normal text-muted">{o.field.persistent ? "persistent mode" : "driven by supply"}</span>}
           </Fact>
         )}
         <Fact label="On shift">{o.onShift ? (names[o.onShift.userId] ?? o.onShift.userId) : "—"}</Fact>
         <Fact label="Last entry">
           {o.lastEntry ? kindLabel(o.lastEntry.kind) : "—"}
           {o.lastEntry && (
-            <span className="block text-sm font-normal text-muted">
+            <span className="block text-base font-normal text-muted">
               {formatWhen(o.lastEntry.at)}, {names[o.lastEntry.authorId] ?? o.lastEntry.authorId}
             </span>
           )}
@@ -104,11 +104,12 @@ function CryostatCard({ c, list, names }: { c: LocalCryostat; list: Parameters<t
   );
 }
 
-function Fact({ label, children, warn = false }: { label: string; children: React.ReactNode; warn?: boolean }) {
+/** One fact of a card; `figure` sets the value in the number font (names and words stay in the text font). */
+function Fact({ label, children, warn = false, figure = false }: { label: string; children: React.ReactNode; warn?: boolean; figure?: boolean }) {
   return (
     <div className={`rounded-xl bg-sunk px-3 py-2 ${warn ? "outline-2 outline-danger" : ""}`}>
-      <dt className="text-sm text-muted">{label}</dt>
-      <dd className={`num text-lg font-semibold ${warn ? "text-danger" : ""}`}>{children}</dd>
+      <dt className="text-base text-muted">{label}</dt>
+      <dd className={`text-lg font-semibold ${figure ? "num" : ""} ${warn ? "text-danger" : ""}`}>{children}</dd>
     </div>
   );
 }
