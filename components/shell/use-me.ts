@@ -4,12 +4,16 @@
 import { useEffect, useState } from "react";
 import { forget, recall } from "@/components/ui/remembered";
 import type { SessionUser } from "@/lib/auth/session-user";
+import { forgetPin } from "@/lib/signing/tablet";
 
 const KEY = "rimelog-me";
 
 const remembered = () => recall<SessionUser>(KEY);
 
+/** Forget the remembered user and that user's cached signing PIN (sign-out clears the tablet). */
 export function forgetMe(): void {
+  const me = remembered();
+  if (me) forgetPin(me.id);
   forget(KEY);
 }
 
