@@ -2,6 +2,17 @@
 // run one after another. The server is started by tests/e2e/global-setup.ts.
 import { fileURLToPath } from "node:url";
 import { defineConfig } from "vitest/config";
+import { BaseSequencer, type TestSpecification } from "vitest/node";
+
+/**
+ * Files run in name order, always: they share one server and its demo data, and the chart checks
+ * (calc) read the demo history before the safety test records a new Plover transfer.
+ */
+class ByName extends BaseSequencer {
+  override async sort(files: TestSpecification[]): Promise<TestSpecification[]> {
+    return [...files].sort((a, b) => a.moduleId.localeCompare(b.moduleId));
+  }
+}
 
 export default defineConfig({
   resolve: {
@@ -12,6 +23,7 @@ export default defineConfig({
     environment: "node",
     globalSetup: ["tests/e2e/global-setup.ts"],
     fileParallelism: false,
+    sequence: { sequencer: ByName },
     maxWorkers: 1,
     pool: "forks",
     testTimeout: 90_000,
