@@ -14,8 +14,6 @@ export type Accepted = { id: string; seq: number; hash: string };
 export type Rejected = { id: string; code: string; message: string };
 export type PushResult = { accepted: Accepted[]; rejected: Rejected[] };
 
-export const toStored = toStoredRow;
-
 /**
  * Apply a batch of parsed entries for one signed-in user. The whole batch commits in one
  * transaction; an entry already stored with the same content is answered as accepted again
@@ -58,7 +56,7 @@ export async function appendEntries(
       const reject = (code: string, message: string) => rejected.push({ id: e.id, code, message });
       const stored = existingById.get(e.id);
       if (stored) {
-        if (recordHash(toStored(stored)) === recordHash(e)) accepted.push({ id: e.id, seq: stored.seq, hash: stored.hash });
+        if (recordHash(toStoredRow(stored)) === recordHash(e)) accepted.push({ id: e.id, seq: stored.seq, hash: stored.hash });
         else reject("conflict:entry", "Another entry with this id is already stored with different content.");
         continue;
       }
@@ -147,7 +145,7 @@ export async function listCryostatEntries(
     )
     .orderBy(desc(entries.seq))
     .limit(limit + 1);
-  const page = rows.slice(0, limit).map(toStored);
+  const page = rows.slice(0, limit).map(toStoredRow);
   const last = page.at(-1);
   const authorIds = [...new Set(page.map((e) => e.authorId))];
   const names = authorIds.length ? await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, authorIds)) : [];
@@ -161,7 +159,7 @@ export async function pullEntries(db: Db, { since, role, limit = 500 }: { since:
   const last = page.at(-1);
   return {
     // The cursor moves past hidden entries too, so it only ever moves forward.
-    entries: page.filter((r) => mayRead(role, r.kind)).map(toStored),
+    entries: page.filter((r) => mayRead(role, r.kind)).map(toStoredRow),
     cursor: last ? last.seq : since,
     hasMore: rows.length > limit,
   };
@@ -169,10 +167,10 @@ export async function pullEntries(db: Db, { since, role, limit = 500 }: { since:
 
 /** Every entry of one chain in order, for verification. */
 export async function chainEntries(db: Db, chain: string) {
-  return (await db.select().from(entries).where(eq(entries.chain, chain)).orderBy(entries.seq)).map(toStored);
+  return (await db.select().from(entries).where(eq(entries.chain, chain)).orderBy(entries.seq)).map(toStoredRow);
 }
 
 export async function getEntry(db: Db, id: string) {
   const [row] = await db.select().from(entries).where(eq(entries.id, id));
-  return row ? toStored(row) : undefined;
+  return row ? toStoredRow(row) : undefined;
 }

@@ -25,6 +25,18 @@ export async function handle(fn: () => Promise<Response>): Promise<Response> {
   }
 }
 
+/** True when the request's Origin header names this server's own host (false when absent or malformed). */
+export function isSameOrigin(req: Request): boolean {
+  const origin = req.headers.get("origin");
+  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
+  if (!origin || !host) return false;
+  try {
+    return new URL(origin).host === host;
+  } catch {
+    return false;
+  }
+}
+
 /**
  * CSRF defence for state changes: a JSON content type and, when the browser sends one, an
  * Origin equal to the server's own. Returns the parsed body, bounded in bytes.
@@ -34,16 +46,8 @@ export async function readJson(req: Request, maxBytes = 1_000_000): Promise<unkn
   if (!type.toLowerCase().startsWith("application/json")) {
     throw new AppError("unsupported", "request", "Send the request as application/json.");
   }
-  const origin = req.headers.get("origin");
-  if (origin) {
-    const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
-    let originHost = "";
-    try {
-      originHost = new URL(origin).host;
-    } catch {
-      /* malformed origin: refused below */
-    }
-    if (!host || originHost !== host) throw new AppError("forbidden", "origin", "Cross-origin requests may not change data.");
+  if (req.headers.get("origin") && !isSameOrigin(req)) {
+    throw new AppError("forbidden", "origin", "Cross-origin requests may not change data.");
   }
   const declared = Number(req.headers.get("content-length") ?? "0");
   if (declared > maxBytes) throw new AppError("too_large", "request", `The request is ${declared} bytes; the limit is ${maxBytes} bytes. Send fewer entries at a time.`);

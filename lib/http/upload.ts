@@ -3,18 +3,11 @@
 // with it), the content type, text headers sent URI-encoded, and an early refusal on the declared
 // length before the body is read. What the bytes must be is the caller's check.
 import { AppError } from "@/lib/errors";
+import { isSameOrigin } from "./respond";
 
 /** Refuse a request whose Origin is missing or not this server's own host. */
 export function requireSameOrigin(req: Request): void {
-  const origin = req.headers.get("origin");
-  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
-  let originHost = "";
-  try {
-    originHost = origin ? new URL(origin).host : "";
-  } catch {
-    /* refused below */
-  }
-  if (!host || originHost !== host) throw new AppError("forbidden", "origin", "Uploads are accepted only from Rimelog's own pages.");
+  if (!isSameOrigin(req)) throw new AppError("forbidden", "origin", "Uploads are accepted only from Rimelog's own pages.");
 }
 
 /** Same origin, and the body sent as application/octet-stream. */
