@@ -172,12 +172,11 @@ async function benchTap() {
       const base = Date.now();
       for (let i = 0; i < n; i++) {
         const id = crypto.randomUUID();
-        const e = { id, cryostatId: i % 3 ? "heron" : "wren", runId: null, kind: "reading",
+        const entry = { id, cryostatId: i % 3 ? "heron" : "wren", runId: null, kind: "reading",
           payload: { quantity: "Temperature", stage: "still", value: 0.7 + (i % 50) / 1000, unit: "K" },
-          authorId: session.user.id, deviceId, recordedAt: new Date(base + i).toISOString(), supersedes: null, reason: null,
-          sync: "pending", seq: null, hash: null, prevHash: null, receivedAt: null, rejection: null };
-        tx.objectStore("entries").add(e);
-        tx.objectStore("outbox").add({ entryId: id, authorId: session.user.id, queuedAt: e.recordedAt, bytes: JSON.stringify(e).length });
+          authorId: session.user.id, deviceId, recordedAt: new Date(base + i).toISOString(), supersedes: null, reason: null };
+        tx.objectStore("entries").add({ ...entry, sync: "pending", seq: null, hash: null, prevHash: null, receivedAt: null, rejection: null });
+        tx.objectStore("outbox").add({ entryId: id, authorId: session.user.id, queuedAt: entry.recordedAt, bytes: JSON.stringify(entry).length, entry });
       }
       await new Promise((res, rej) => { tx.oncomplete = res; tx.onerror = () => rej(tx.error); });
       db.close();

@@ -10,7 +10,8 @@ import { chainOf, genesisHash, linkHash, recordHash } from "@/lib/sync/hash";
 import { runProjectors, validateAgainstLog } from "./projections";
 import { toStoredRow } from "./stored";
 
-export type Accepted = { id: string; seq: number; hash: string };
+/** An entry the server holds: its place in the log (seq, chain link) and when it arrived. */
+export type Accepted = { id: string; seq: number; hash: string; prevHash: string; receivedAt: string };
 export type Rejected = { id: string; code: string; message: string };
 export type PushResult = { accepted: Accepted[]; rejected: Rejected[] };
 
@@ -56,7 +57,7 @@ export async function appendEntries(
       const reject = (code: string, message: string) => rejected.push({ id: e.id, code, message });
       const stored = existingById.get(e.id);
       if (stored) {
-        if (recordHash(toStoredRow(stored)) === recordHash(e)) accepted.push({ id: e.id, seq: stored.seq, hash: stored.hash });
+        if (recordHash(toStoredRow(stored)) === recordHash(e)) accepted.push({ id: e.id, seq: stored.seq, hash: stored.hash, prevHash: stored.prevHash, receivedAt: stored.receivedAt.toISOString() });
         else reject("conflict:entry", "Another entry with this id is already stored with different content.");
         continue;
       }
@@ -103,7 +104,7 @@ export async function appendEntries(
       touched.set(chain, { seq, hash });
       seenInBatch.set(e.id, e);
       rows.push({ ...e, recordedAt: new Date(e.recordedAt), chain, seq, receivedAt, prevHash, hash });
-      accepted.push({ id: e.id, seq, hash });
+      accepted.push({ id: e.id, seq, hash, prevHash, receivedAt: at });
     }
 
     // Bounded multi-row inserts: one statement per few hundred rows.

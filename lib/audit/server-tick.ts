@@ -41,9 +41,12 @@ export function ensureServerTick(intervalMs = 5 * 60_000): void {
   kickServerTick();
 }
 
-/** Run a tick shortly (debounced), e.g. after a push that may hold a quench or a finding. */
+/**
+ * Run a tick shortly after the last nudge (trailing debounce), e.g. after a push that may hold a
+ * quench or a finding: a tablet sending a long backlog is not slowed by ticks between its batches.
+ */
 export function kickServerTick(delayMs = 2_000): void {
-  if (state.soon) return;
+  if (state.soon) clearTimeout(state.soon);
   state.soon = setTimeout(() => {
     state.soon = undefined;
     void runServerTick();

@@ -28,6 +28,11 @@ export type OutboxRow = {
   authorId: string;
   queuedAt: string;
   bytes: number;
+  /**
+   * The entry as it will be pushed, kept with its queue row so a push reads one store in order
+   * of writing. Rows queued before schema v3 lack it; their entry is read from `entries`.
+   */
+  entry?: EntryInput;
 };
 
 export type AttachmentState = "pending" | "uploaded" | "rejected";
@@ -87,6 +92,13 @@ export class RimelogDexie extends Dexie {
     // v2: a cryostat's unsent entries by time, so a logbook reads only the newest few.
     this.version(2).stores({
       entries: "id, cryostatId, runId, sync, seq, authorId, [cryostatId+seq], [cryostatId+sync+recordedAt]",
+    });
+    // v3: an author's outbox rows in order of writing, so each push batch seeks straight to where
+    // the previous one ended (no walk over rows just deleted).
+    // Entries lose the seq and authorId indexes nothing reads (each index costs on every write).
+    this.version(3).stores({
+      entries: "id, cryostatId, runId, sync, [cryostatId+seq], [cryostatId+sync+recordedAt]",
+      outbox: "++n, &entryId, authorId, [authorId+n]",
     });
   }
 

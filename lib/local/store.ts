@@ -139,7 +139,7 @@ export async function recordEntriesIn(db: RimelogDexie, drafts: EntryDraft[], no
       }
       const built = drafts.map((d) => buildEntry(d, user.id, deviceId, now));
       stored = built.map(pendingEntry);
-      const rows: OutboxRow[] = built.map((e) => ({ entryId: e.id, authorId: e.authorId, queuedAt: now.toISOString(), bytes: canonicalJson(e).length }));
+      const rows: OutboxRow[] = built.map((e) => ({ entryId: e.id, authorId: e.authorId, queuedAt: now.toISOString(), bytes: canonicalJson(e).length, entry: e }));
       await db.entries.bulkAdd(stored);
       await db.outbox.bulkAdd(rows);
     });

@@ -4,7 +4,8 @@
 // The outbox is the truth: a row leaves it only when the server has answered for its entry (S3).
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
-import type { RimelogDexie, StoredLocalEntry } from "@/lib/local/db";
+import type { OutboxRow, RimelogDexie, StoredLocalEntry } from "@/lib/local/db";
+import { pendingEntry } from "@/lib/local/store";
 import { recordHash } from "./hash";
 import type { PullReply, PushReply, UploadReply } from "./protocol";
 import { PUSH_LIMITS } from "./protocol";
@@ -90,50 +91,98 @@ async function uploadAttachments(db: RimelogDexie, transport: Transport, userId:
   return n;
 }
 
-async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string, opts: SyncOptions, now: () => Date) {
+type Batch = { after: number; rows: OutboxRow[]; list: EntryInput[] };
+
+/**
+ * The next outbox rows of this author written after outbox number `after` (the order of writing),
+ * within the count and byte bounds, with the entries they carry. Rows whose entry is gone are
+ * bookkeeping only and are dropped here. Null when nothing is left.
+ */
+async function nextBatch(db: RimelogDexie, userId: string, after: number, maxBatch: number, maxBytes: number): Promise<Batch | null> {
+  for (;;) {
+    const read = await db.transaction("r", [db.outbox, db.entries], async () => {
+      const rows = await db.outbox.where("[authorId+n]").between([userId, after + 1], [userId, Infinity], true, true).limit(maxBatch).toArray();
+      let bytes = 0;
+      const batchRows = rows.filter((r, i) => {
+        bytes += r.bytes + 2;
+        return i === 0 || bytes <= maxBytes;
+      });
+      // Rows queued by an older version of the app carry no entry: read those from the store.
+      const older = batchRows.filter((r) => !r.entry);
+      const found = older.length ? await db.entries.bulkGet(older.map((r) => r.entryId)) : [];
+      const byId = new Map(found.flatMap((e) => (e ? [[e.id, toInput(e)] as const] : [])));
+      return { rows: batchRows, list: batchRows.map((r) => r.entry ?? byId.get(r.entryId)) };
+    });
+    if (read.rows.length === 0) return null;
+    const orphans = read.rows.filter((_, i) => !read.list[i]);
+    if (orphans.length === 0) return { after, rows: read.rows, list: read.list as EntryInput[] };
+    await db.outbox.bulkDelete(orphans.map((r) => r.n!));
+  }
+}
+
+type Tally = { accepted: number; rejected: number };
+
+const quiet = <T>(p: Promise<T>): Promise<T> => {
+  p.catch(() => undefined); // awaited later; never an unhandled rejection meanwhile
+  return p;
+};
+
+/**
+ * Push the outbox in order of writing. Requests go one after another (the server sees the
+ * tablet's order), but while one batch is on the wire the tablet writes the answer to the
+ * previous one and reads the next: its bookkeeping overlaps the server's work instead of adding
+ * to it. A reload at any point loses nothing: unanswered rows are still in the outbox and are
+ * pushed again, and the server answers a repeat the same way (S1, S3).
+ */
+async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string, opts: SyncOptions, now: () => Date): Promise<Tally> {
   let maxBatch = Math.min(opts.maxBatch ?? 200, PUSH_LIMITS.maxEntries);
   const maxBytes = Math.min(opts.maxBytes ?? 1_000_000, PUSH_LIMITS.maxBytes);
-  const total = { accepted: 0, rejected: 0 };
-  for (;;) {
-    // Index order on authorId, then by primary key n: the order of writing on this tablet.
-    const rows = await db.outbox.where("authorId").equals(userId).limit(maxBatch).toArray();
-    if (rows.length === 0) return total;
-    let bytes = 0;
-    const batchRows = rows.filter((r, i) => {
-      bytes += r.bytes + 2;
-      return i === 0 || bytes <= maxBytes;
-    });
-    const found = await db.entries.bulkGet(batchRows.map((r) => r.entryId));
-    const orphans = batchRows.filter((_, i) => !found[i]);
-    if (orphans.length) {
-      // An outbox row without its entry cannot be sent; it is bookkeeping only.
-      await db.outbox.bulkDelete(orphans.map((r) => r.n!));
-      continue;
-    }
-    const list = found as StoredLocalEntry[];
-    let reply: PushReply;
-    try {
-      reply = await transport.push(list.map(toInput));
-    } catch (e) {
-      if (e instanceof TransportError && e.kind === "too_large") {
-        if (list.length > 1) {
-          maxBatch = Math.max(1, Math.floor(list.length / 2));
-          continue;
-        }
-        // A single entry the server will never take: keep it, visibly refused.
-        await markRejected(db, [{ id: list[0]!.id, code: "too_large:entry", message: e.message }], now);
-        total.rejected += 1;
-        continue;
-      }
-      throw e;
-    }
-    const answered = await applyPushReply(db, reply, new Set(list.map((e) => e.id)), now);
+  const total: Tally = { accepted: 0, rejected: 0 };
+  let writing: Promise<Tally> | null = null; // the previous answer being written
+  const settle = async () => {
+    if (!writing) return;
+    const w = writing;
+    writing = null;
+    const answered = await w;
     total.accepted += answered.accepted;
     total.rejected += answered.rejected;
     if (answered.accepted + answered.rejected === 0) {
       throw new TransportError("server", "The server answered for none of the entries sent; they stay queued.");
     }
+  };
+  let next = quiet(nextBatch(db, userId, 0, maxBatch, maxBytes));
+  try {
+    for (;;) {
+      const batch = await next;
+      if (!batch) break;
+      const sending = transport.push(batch.list);
+      next = quiet(nextBatch(db, userId, batch.rows.at(-1)!.n!, maxBatch, maxBytes));
+      let reply: PushReply;
+      try {
+        reply = await sending;
+      } catch (e) {
+        if (!(e instanceof TransportError && e.kind === "too_large")) throw e;
+        if (batch.list.length > 1) {
+          // Smaller batches from the same place on.
+          maxBatch = Math.max(1, Math.floor(batch.list.length / 2));
+          next = quiet(nextBatch(db, userId, batch.after, maxBatch, maxBytes));
+          continue;
+        }
+        // A single entry the server will never take: keep it, visibly refused.
+        await settle();
+        await markRejected(db, [{ id: batch.list[0]!.id, code: "too_large:entry", message: e.message }], now);
+        total.rejected += 1;
+        continue;
+      }
+      await settle(); // one answer written at a time, in order
+      writing = quiet(applyPushReply(db, reply, batch, now));
+    }
+    await settle();
+  } finally {
+    // Whatever went wrong, no write is left running behind the caller's back.
+    if (writing) await (writing as Promise<Tally>).catch(() => undefined);
   }
+  return total;
 }
 
 async function markRejected(db: RimelogDexie, rejected: { id: string; code: string; message: string }[], now: () => Date) {
@@ -145,27 +194,33 @@ async function markRejected(db: RimelogDexie, rejected: { id: string; code: stri
   });
 }
 
-/** Apply a push answer in one transaction; only ids that were in the batch are touched. */
-export async function applyPushReply(db: RimelogDexie, reply: PushReply, sent: Set<string>, now: () => Date) {
-  const acc = reply.accepted.filter((a) => sent.has(a.id));
+/**
+ * Apply a push answer in one transaction. Only entries of the batch sent are touched; an answered
+ * entry leaves the outbox, an unanswered one stays queued. An entry still in the outbox is
+ * pending on this tablet, so its new state is written from the copy sent, without reading it
+ * again; the answer carries the server's whole link (seq, hash, prevHash, receivedAt), so this
+ * is exactly the copy a pull would bring.
+ */
+export async function applyPushReply(db: RimelogDexie, reply: PushReply, sent: { rows: OutboxRow[]; list: EntryInput[] }, now: () => Date): Promise<Tally> {
+  const byId = new Map(sent.list.map((e, i) => [e.id, { entry: e, row: sent.rows[i]! }]));
+  const acc = reply.accepted.filter((a) => byId.has(a.id));
   const accIds = new Set(acc.map((a) => a.id));
-  const rej = reply.rejected.filter((r) => sent.has(r.id) && !accIds.has(r.id));
+  const rej = reply.rejected.filter((r) => byId.has(r.id) && !accIds.has(r.id));
   const at = now().toISOString();
+  const updated: StoredLocalEntry[] = [
+    ...acc.map((a) => ({ ...pendingEntry(byId.get(a.id)!.entry), sync: "synced" as const, seq: a.seq, hash: a.hash, prevHash: a.prevHash, receivedAt: a.receivedAt })),
+    ...rej.map((r) => ({ ...pendingEntry(byId.get(r.id)!.entry), sync: "rejected" as const, rejection: { code: r.code, message: r.message, at } })),
+  ];
+  if (updated.length === 0) return { accepted: 0, rejected: 0 };
   await db.transaction("rw", [db.entries, db.outbox], async () => {
-    const ids = [...acc.map((a) => a.id), ...rej.map((r) => r.id)];
-    const locals = await db.entries.bulkGet(ids);
-    const updated: StoredLocalEntry[] = [];
-    acc.forEach((a, i) => {
-      const local = locals[i];
-      // A pull may already have brought the full server copy; keep its prevHash/receivedAt.
-      if (local && local.seq === null) updated.push({ ...local, sync: "synced", seq: a.seq, hash: a.hash, rejection: null });
-    });
-    rej.forEach((r, j) => {
-      const local = locals[acc.length + j];
-      if (local && local.seq === null) updated.push({ ...local, sync: "rejected", rejection: { code: r.code, message: r.message, at } });
-    });
-    if (updated.length) await db.entries.bulkPut(updated);
-    if (ids.length) await db.outbox.where("entryId").anyOf(ids).delete();
+    await db.entries.bulkPut(updated);
+    // By primary key, only this batch's rows: one range when they are consecutive (the usual
+    // case; another author's row in between would make them not so), else key by key.
+    const ns = updated.map((e) => byId.get(e.id)!.row.n!).sort((a, b) => a - b);
+    const first = ns[0]!;
+    const last = ns.at(-1)!;
+    if (last - first + 1 === ns.length) await db.outbox.where(":id").between(first, last, true, true).delete();
+    else await db.outbox.bulkDelete(ns);
   });
   return { accepted: acc.length, rejected: rej.length };
 }
@@ -215,6 +270,8 @@ export async function applyPull(db: RimelogDexie, reply: PullReply, now: () => D
         // Same id with other content would be a conflict: keep ours; its push gets the answer.
         if (recordHash(local) !== recordHash(e)) return;
         acknowledged.push(e.id);
+      } else if (local && local.sync === "synced" && local.seq === e.seq && local.hash === e.hash && local.prevHash === e.prevHash && local.receivedAt === e.receivedAt) {
+        return; // already held exactly so (its push answer carried the same link): nothing to write
       }
       put.push(synced(e));
     });

@@ -1,5 +1,6 @@
 // The sync protocol's shapes and bounds, shared by the tablet and the server: what a push sends
 // and gets back, what a pull returns, and how a push body is checked entry by entry.
+import type { Accepted, Rejected } from "@/db/queries/entries";
 import { AppError } from "@/lib/errors";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { parseEntry, type EntryInput, type StoredEntry } from "@/lib/schemas/entry";
@@ -9,8 +10,7 @@ export const PUSH_LIMITS = { maxEntries: 500, maxBytes: 4_000_000 } as const;
 /** Entries per pull page (the server may answer fewer). */
 export const PULL_PAGE = 500;
 
-export type Accepted = { id: string; seq: number; hash: string };
-export type Rejected = { id: string; code: string; message: string };
+export type { Accepted, Rejected };
 export type PushReply = { accepted: Accepted[]; rejected: Rejected[] };
 
 export type ReferenceData = {

@@ -96,7 +96,7 @@ describe("attachments", () => {
       },
       push: async (list) => {
         calls.push("push");
-        return { accepted: list.map((e, i) => ({ id: e.id, seq: 10_000 + i, hash: "h".repeat(64) })), rejected: [] };
+        return { accepted: list.map((e, i) => ({ id: e.id, seq: 10_000 + i, hash: "h".repeat(64), prevHash: "p".repeat(64), receivedAt: new Date().toISOString() })), rejected: [] };
       },
       pull: async () => ({ entries: [], cursor: 0, hasMore: false, reference: null, me: tomasz }),
     };

@@ -1,0 +1,166 @@
+// The tablet's push loop against the real server code: batches leave in order of writing while the
+// previous answer is still being written, a 413 halves the batch from the same place, another
+// person's queued rows in between are left alone, a failure half-way keeps every unanswered row
+// queued (S3), and rows queued by the schema-v2 app (no entry in the row) are still sent.
+import Dexie from "dexie";
+import { asc, eq } from "drizzle-orm";
+import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
+import { beforeEach, describe, expect, it } from "vitest";
+import type { Db } from "@/db/client";
+import { toStoredRow } from "@/db/queries/stored";
+import { entries } from "@/db/schema";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { RimelogDexie } from "@/lib/local/db";
+import { confirmSession, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
+import { syncOnce, toInput, TransportError, type Transport } from "@/lib/sync/client";
+import type { EntryInput } from "@/lib/schemas/entry";
+import { applyPush, pullPage } from "@/lib/sync/server";
+import { freshDb } from "./fixture";
+
+const tomasz: SessionUser = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" };
+const priya: SessionUser = { id: "u-priya", email: "priya@larchmere.example", name: "Priya Lindqvist", role: "technician" };
+
+let db: Db;
+let factory: IDBFactory;
+beforeEach(async () => {
+  db = await freshDb({ seeded: true });
+  factory = new IDBFactory();
+});
+
+const tablet = (name = "t") => new RimelogDexie(name, { indexedDB: factory, IDBKeyRange });
+
+function readings(n: number, tag: string): EntryDraft[] {
+  return Array.from({ length: n }, (_, i) => ({
+    cryostatId: i % 2 ? "heron" : "wren",
+    kind: "reading",
+    payload: { quantity: "Temperature", stage: "still", value: 0.7 + i / 1000, unit: "K", comment: `${tag} ${i}` },
+  }));
+}
+
+/** The server, in process, for whoever `who()` says is signed in; records what was sent. */
+function server(who: () => SessionUser, opts: { maxEntries?: number; failOnPush?: number } = {}) {
+  const sent: EntryInput[][] = [];
+  const transport: Transport = {
+    async push(list) {
+      if (opts.failOnPush !== undefined && sent.length === opts.failOnPush) throw new TransportError("offline", "The network went away.");
+      if (opts.maxEntries !== undefined && list.length > opts.maxEntries) throw new TransportError("too_large", "Too many entries in one push.", 413);
+      sent.push(list);
+      return JSON.parse(JSON.stringify(await applyPush(db, who(), JSON.parse(JSON.stringify({ entries: list })))));
+    },
+    async pull(since) {
+      const page = await pullPage(db, who(), { since });
+      return { ...page, reference: null, me: who() };
+    },
+  };
+  return { transport, sent };
+}
+
+async function stored(ids: string[]) {
+  const rows = await db.select().from(entries).orderBy(asc(entries.seq));
+  const want = new Set(ids);
+  return rows.filter((r) => want.has(r.id)).map(toStoredRow);
+}
+
+describe("pushing a long outbox", () => {
+  it("sends in order of writing, each once, halves the batch on a 413, and ends with the server's copy on the tablet", async () => {
+    const t = tablet();
+    await confirmSession(t, tomasz);
+    for (let b = 0; b < 5; b++) await recordEntriesIn(t, readings(9, `b${b}`));
+    const written = (await t.outbox.orderBy("n").toArray()).map((r) => r.entryId);
+    const { transport, sent } = server(() => tomasz, { maxEntries: 7 });
+
+    const result = await syncOnce(t, transport, { maxBatch: 20 });
+    expect(result.accepted).toBe(45);
+    expect(sent.every((b) => b.length <= 7)).toBe(true);
+    expect(sent.flat().map((e) => e.id)).toEqual(written); // in order, none twice
+    expect(await t.outbox.count()).toBe(0);
+    const server_ = await stored(written);
+    expect(server_.map((e) => e.id)).toEqual(written); // the server's seq follows the tablet's order
+    const local = await t.entries.bulkGet(written);
+    for (const [i, e] of server_.entries()) {
+      const { chain: _chain, ...copy } = e;
+      expect(local[i]).toEqual({ ...copy, sync: "synced", rejection: null });
+    }
+  });
+
+  it("leaves another person's queued rows alone, even between this person's", async () => {
+    const t = tablet();
+    let who = tomasz;
+    await confirmSession(t, tomasz);
+    const a = await recordEntriesIn(t, readings(3, "tomasz-1"));
+    // Priya signs in on the same tablet (her session, her entries), then Tomasz again.
+    await confirmSession(t, priya);
+    const p = await recordEntriesIn(t, readings(2, "priya"));
+    await confirmSession(t, tomasz);
+    const b = await recordEntriesIn(t, readings(3, "tomasz-2"));
+
+    const { transport, sent } = server(() => who);
+    await syncOnce(t, transport, { maxBatch: 50 });
+    expect(sent.flat().map((e) => e.id)).toEqual([...a, ...b].map((e) => e.id));
+    const left = await t.outbox.toArray();
+    expect(left.map((r) => r.entryId)).toEqual(p.map((e) => e.id));
+    expect((await t.entries.bulkGet(p.map((e) => e.id))).map((e) => e?.sync)).toEqual(["pending", "pending"]);
+
+    // Her turn: she signs in, and her rows go with her session.
+    who = priya;
+    await confirmSession(t, priya);
+    await syncOnce(t, transport, { maxBatch: 50 });
+    expect(await t.outbox.count()).toBe(0);
+    expect((await stored(p.map((e) => e.id))).map((e) => e.authorId)).toEqual(["u-priya", "u-priya"]);
+  });
+
+  it("keeps every unanswered row queued when the network fails half-way, and the next round finishes", async () => {
+    const t = tablet();
+    await confirmSession(t, tomasz);
+    await recordEntriesIn(t, readings(40, "x"));
+    const failing = server(() => tomasz, { failOnPush: 2 });
+    await expect(syncOnce(t, failing.transport, { maxBatch: 10 })).rejects.toThrow("The network went away.");
+    // Two batches answered (and written, even the one still being written when the third failed).
+    expect(await t.outbox.count()).toBe(20);
+    expect(await t.entries.where("sync").equals("synced").count()).toBe(20);
+
+    const again = server(() => tomasz);
+    await syncOnce(t, again.transport, { maxBatch: 10 });
+    expect(await t.outbox.count()).toBe(0);
+    expect(again.sent.flat()).toHaveLength(20);
+    expect(await db.$count(entries, eq(entries.deviceId, (await t.getMeta("deviceId"))!))).toBe(40);
+  });
+
+  it("sends rows queued by the schema-v2 app, which carry no copy of their entry", async () => {
+    // The store as version 2 of the app left it: the entry in `entries`, a bare row in `outbox`.
+    const old = new Dexie("upgrade", { indexedDB: factory, IDBKeyRange });
+    old.version(2).stores({
+      entries: "id, cryostatId, runId, sync, seq, authorId, [cryostatId+seq], [cryostatId+sync+recordedAt]",
+      outbox: "++n, &entryId, authorId",
+      attachments: "id, state, authorId",
+      cryostats: "id",
+      templates: "id, key",
+      users: "id",
+      meta: "key",
+    });
+    const e: EntryInput = {
+      id: crypto.randomUUID(),
+      cryostatId: "wren",
+      runId: null,
+      kind: "note",
+      payload: { text: "written before the update" },
+      authorId: tomasz.id,
+      deviceId: "tab-old",
+      recordedAt: new Date().toISOString(),
+      supersedes: null,
+      reason: null,
+    };
+    await old.table("entries").add({ ...e, sync: "pending", seq: null, hash: null, prevHash: null, receivedAt: null, rejection: null });
+    await old.table("outbox").add({ entryId: e.id, authorId: tomasz.id, queuedAt: e.recordedAt, bytes: 300 });
+    await old.table("meta").put({ key: "session", value: { user: tomasz, confirmedAt: new Date().toISOString() } });
+    old.close();
+
+    const t = tablet("upgrade");
+    const { transport, sent } = server(() => tomasz);
+    await syncOnce(t, transport);
+    expect(sent.flat()).toEqual([e]);
+    expect(await t.outbox.count()).toBe(0);
+    expect((await t.entries.get(e.id))?.sync).toBe("synced");
+    expect(toInput((await t.entries.get(e.id))!)).toEqual(e);
+  });
+});
