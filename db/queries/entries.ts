@@ -1,6 +1,6 @@
 // The append-only log: applying a pushed batch (idempotent, one transaction, hash-chained per
 // cryostat), reading a cryostat's logbook page, and pulling what changed since a cursor.
-import { and, desc, eq, gt, inArray, lt, notInArray, sql } from "drizzle-orm";
+import { and, desc, eq, getTableColumns, gt, inArray, lt, notInArray, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { chainHeads, cryostats, devices, entries, users } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
@@ -14,6 +14,18 @@ import { toStoredRow } from "./stored";
 export type Accepted = { id: string; seq: number; hash: string; prevHash: string; receivedAt: string };
 export type Rejected = { id: string; code: string; message: string };
 export type PushResult = { accepted: Accepted[]; rejected: Rejected[] };
+
+const entryColumns = Object.entries(getTableColumns(entries));
+
+/** A row keyed by column name (what json_populate_recordset expects), dates as ISO text. */
+function toColumns(row: typeof entries.$inferInsert): Record<string, unknown> {
+  const out: Record<string, unknown> = {};
+  for (const [key, column] of entryColumns) {
+    const v = (row as Record<string, unknown>)[key];
+    out[column.name] = v instanceof Date ? v.toISOString() : (v ?? null);
+  }
+  return out;
+}
 
 /**
  * Apply a batch of parsed entries for one signed-in user. The whole batch commits in one
@@ -107,9 +119,11 @@ export async function appendEntries(
       accepted.push({ id: e.id, seq, hash, prevHash, receivedAt: at });
     }
 
-    // Bounded multi-row inserts: one statement per few hundred rows.
-    for (let i = 0; i < rows.length; i += 200) {
-      await t.insert(entries).values(rows.slice(i, i + 200)).onConflictDoNothing({ target: entries.id });
+    // One statement for the batch: the rows travel as one JSON parameter and PostgreSQL unpacks
+    // them (json_populate_recordset), which costs far less than thousands of bound parameters.
+    if (rows.length) {
+      const records = JSON.stringify(rows.map(toColumns));
+      await t.execute(sql`insert into ${entries} select * from json_populate_recordset(null::${entries}, ${records}::json) on conflict (id) do nothing`);
     }
     for (const [chain, head] of touched) {
       await t

@@ -129,10 +129,10 @@ const quiet = <T>(p: Promise<T>): Promise<T> => {
 
 /**
  * Push the outbox in order of writing. Requests go one after another (the server sees the
- * tablet's order), but while one batch is on the wire the tablet writes the answer to the
- * previous one and reads the next: its bookkeeping overlaps the server's work instead of adding
- * to it. A reload at any point loses nothing: unanswered rows are still in the outbox and are
- * pushed again, and the server answers a repeat the same way (S1, S3).
+ * tablet's order), but the tablet's bookkeeping overlaps them: as soon as an answer arrives the
+ * next batch (read while the previous request travelled) is sent, and only then is the answer
+ * written into the store. A reload at any point loses nothing: unanswered rows are still in the
+ * outbox and are pushed again, and the server answers a repeat the same way (S1, S3).
  */
 async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string, opts: SyncOptions, now: () => Date): Promise<Tally> {
   let maxBatch = Math.min(opts.maxBatch ?? 200, PUSH_LIMITS.maxEntries);
@@ -150,32 +150,46 @@ async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string
       throw new TransportError("server", "The server answered for none of the entries sent; they stay queued.");
     }
   };
-  let next = quiet(nextBatch(db, userId, 0, maxBatch, maxBytes));
+  const readAfter = (after: number) => quiet(nextBatch(db, userId, after, maxBatch, maxBytes));
+  let next = readAfter(0);
+  let batch: Batch | null = null;
+  let sending: Promise<PushReply> | null = null;
+  // Send `b` and start reading the batch after it.
+  const send = (b: Batch) => {
+    batch = b;
+    sending = quiet(transport.push(b.list));
+    next = readAfter(b.rows.at(-1)!.n!);
+  };
   try {
-    for (;;) {
-      const batch = await next;
-      if (!batch) break;
-      const sending = transport.push(batch.list);
-      next = quiet(nextBatch(db, userId, batch.rows.at(-1)!.n!, maxBatch, maxBytes));
+    const first = await next;
+    if (first) send(first);
+    while (batch && sending) {
+      const sent: Batch = batch;
       let reply: PushReply;
       try {
         reply = await sending;
       } catch (e) {
         if (!(e instanceof TransportError && e.kind === "too_large")) throw e;
-        if (batch.list.length > 1) {
+        batch = null;
+        if (sent.list.length > 1) {
           // Smaller batches from the same place on.
-          maxBatch = Math.max(1, Math.floor(batch.list.length / 2));
-          next = quiet(nextBatch(db, userId, batch.after, maxBatch, maxBytes));
-          continue;
+          maxBatch = Math.max(1, Math.floor(sent.list.length / 2));
+          next = readAfter(sent.after);
+        } else {
+          // A single entry the server will never take: keep it, visibly refused.
+          await settle();
+          await markRejected(db, [{ id: sent.list[0]!.id, code: "too_large:entry", message: e.message }], now);
+          total.rejected += 1;
         }
-        // A single entry the server will never take: keep it, visibly refused.
-        await settle();
-        await markRejected(db, [{ id: batch.list[0]!.id, code: "too_large:entry", message: e.message }], now);
-        total.rejected += 1;
+        const following = await next;
+        if (following) send(following);
         continue;
       }
-      await settle(); // one answer written at a time, in order
-      writing = quiet(applyPushReply(db, reply, batch, now));
+      batch = null;
+      const following = await next;
+      if (following) send(following); // on its way before this answer is written
+      await settle(); // answers are written one at a time, in order
+      writing = quiet(applyPushReply(db, reply, sent, now));
     }
     await settle();
   } finally {

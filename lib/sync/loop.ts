@@ -94,7 +94,7 @@ export class SyncLoop {
     this.emit();
     let outcome: SyncResult | TransportError | Error;
     try {
-      outcome = await withLock(() => syncOnce(this.db, this.transport, { maxBatch: PUSH_LIMITS.maxEntries, maxBytes: 1_000_000 }));
+      outcome = await withLock(() => syncOnce(this.db, this.transport, { maxBatch: PUSH_LIMITS.maxEntries, maxBytes: PUSH_LIMITS.maxBytes }));
       this.failures = 0;
     } catch (e) {
       outcome = e instanceof Error ? e : new Error(String(e));

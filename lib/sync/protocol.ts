@@ -6,7 +6,7 @@ import type { SessionUser } from "@/lib/auth/session-user";
 import { parseEntry, type EntryInput, type StoredEntry } from "@/lib/schemas/entry";
 
 /** A push carries at most this many entries and bytes; over it the server answers 413. */
-export const PUSH_LIMITS = { maxEntries: 500, maxBytes: 4_000_000 } as const;
+export const PUSH_LIMITS = { maxEntries: 2000, maxBytes: 4_000_000 } as const;
 /** Entries per pull page (the server may answer fewer). */
 export const PULL_PAGE = 500;
 
