@@ -28,8 +28,12 @@ export function formatWhen(iso: string, now = Date.now()): string {
   return formatDate(iso);
 }
 
+// One formatter for every call: toLocaleString builds a new one each time, which costs
+// milliseconds per logbook row on a tablet.
+const DATE_TIME = new Intl.DateTimeFormat("en-GB", { day: "2-digit", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit" });
+
 export function formatDate(iso: string): string {
-  return new Date(iso).toLocaleString("en-GB", { day: "2-digit", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit" });
+  return DATE_TIME.format(new Date(iso));
 }
 
 const KIND_LABEL: Record<string, string> = {

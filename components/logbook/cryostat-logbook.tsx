@@ -1,7 +1,7 @@
 "use client";
 // A cryostat's logbook from the tablet store: pulled entries and this tablet's unsent ones,
 // newest first, each marked with where it stands (sent / waiting / refused with the reason).
-import { useState } from "react";
+import { memo, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Loading, Panel, Tag } from "@/components/ui/panel";
 import { kindLabel } from "@/lib/format";
@@ -39,7 +39,16 @@ export function CryostatLogbook({ cryostatId }: { cryostatId: string }) {
   );
 }
 
-function EntryRow({ e, names }: { e: StoredLocalEntry; names: Record<string, string> }) {
+/**
+ * A row redraws only when its entry's state changed (a live query hands over fresh objects on
+ * every write, and a new entry must not redraw the forty rows below it).
+ */
+const EntryRow = memo(
+  EntryRowView,
+  (a, b) => a.names === b.names && a.e.id === b.e.id && a.e.sync === b.e.sync && a.e.seq === b.e.seq && a.e.rejection?.message === b.e.rejection?.message,
+);
+
+function EntryRowView({ e, names }: { e: StoredLocalEntry; names: Record<string, string> }) {
   return (
     <li data-sync={e.sync} className={`flex flex-col gap-1 border-b border-line px-5 py-3 last:border-0 sm:flex-row sm:gap-4 ${e.sync === "rejected" ? "bg-sunk" : ""}`}>
       <div className="sm:w-56 sm:shrink-0">

@@ -2,7 +2,7 @@
 // The page's one sync loop (browser transport on the tablet store), started on first use, and a
 // hook for its live state (a round running, online/offline, next retry).
 import { useEffect, useState } from "react";
-import { localDb } from "@/lib/local/db";
+import { localSyncDb } from "@/lib/local/db";
 import { httpTransport } from "@/lib/sync/http";
 import { SyncLoop, type LoopState } from "@/lib/sync/loop";
 
@@ -10,7 +10,7 @@ let loop: SyncLoop | undefined;
 
 export function syncLoop(): SyncLoop {
   if (!loop) {
-    loop = new SyncLoop(localDb(), httpTransport);
+    loop = new SyncLoop(localSyncDb(), httpTransport);
     loop.start();
   }
   return loop;

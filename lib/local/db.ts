@@ -113,10 +113,25 @@ export class RimelogDexie extends Dexie {
 }
 
 let singleton: RimelogDexie | undefined;
+let syncConnection: RimelogDexie | undefined;
 
 /** The tablet's store (browser only). Tests make their own with `new RimelogDexie(name, opts)`. */
 export function localDb(): RimelogDexie {
   if (typeof indexedDB === "undefined") throw new Error("The tablet store needs a browser (IndexedDB is not available here).");
   singleton ??= new RimelogDexie();
   return singleton;
+}
+
+/**
+ * The sync loop's own connection to the same store, committing with relaxed durability. Its
+ * writes only record what the server already holds (answers to a push, pulled copies, the pull
+ * cursor, sync times): one lost in a crash is redone by the next round, and the server answers a
+ * repeated push the same way. Relaxed commits hold the store for less time, so a tap's strict
+ * write does not queue behind a disk flush made for bookkeeping. Entries are only ever created
+ * through localDb() (strict).
+ */
+export function localSyncDb(): RimelogDexie {
+  if (typeof indexedDB === "undefined") throw new Error("The tablet store needs a browser (IndexedDB is not available here).");
+  syncConnection ??= new RimelogDexie(LOCAL_DB_NAME, { chromeTransactionDurability: "relaxed" });
+  return syncConnection;
 }

@@ -2,7 +2,7 @@
 // Live queries on the tablet store for React screens: they re-render when the store changes
 // (a local write, a sync). `undefined` means "still loading"; the UI never waits for the network.
 import { useLiveQuery } from "dexie-react-hooks";
-import { useEffect, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 import type { TemplateStep } from "@/lib/schemas/template";
 import { localDb, type StoredLocalEntry } from "./db";
@@ -45,7 +45,9 @@ export function useTemplates(): LocalTemplate[] | undefined {
 /** Everyone this user may see (id → name), for "by whom" lines. */
 export function useUserNames(): Record<string, string> {
   const rows = useLiveQuery(async () => (await localDb().users.toArray()) as unknown as LocalUser[], []);
-  return Object.fromEntries((rows ?? []).map((u) => [u.id, u.name]));
+  // The same object while the people are the same, so rows drawn with it need not redraw.
+  const key = (rows ?? []).map((u) => `${u.id}\u0000${u.name}`).join("\u0001");
+  return useMemo(() => Object.fromEntries((rows ?? []).map((u) => [u.id, u.name])), [key]);
 }
 
 export function useUsers(): LocalUser[] | undefined {

@@ -123,7 +123,9 @@ export async function recordEntriesIn(db: RimelogDexie, drafts: EntryDraft[], no
   let stored: StoredLocalEntry[] = [];
   try {
     await db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
-      const session = await db.getMeta("session");
+      // A tap is on the clock: one read for both meta rows, and the two writes queued together.
+      const [sessionRow, deviceRow] = await db.meta.bulkGet(["session", "deviceId"]);
+      const session = sessionRow?.value as LocalSession | undefined;
       const problem = sessionProblem(session, now.getTime());
       if (problem || !session) throw problem;
       const user = session.user;
@@ -132,16 +134,15 @@ export async function recordEntriesIn(db: RimelogDexie, drafts: EntryDraft[], no
           throw new LocalWriteError("forbidden", `A ${user.role.replace("_", " ")} may not record entries of kind "${d.kind}".`);
         }
       }
-      let deviceId = await db.getMeta("deviceId");
-      if (!deviceId) {
-        deviceId = newDeviceId();
-        await db.setMeta("deviceId", deviceId);
-      }
+      const knownDevice = deviceRow?.value as string | undefined;
+      const deviceId = knownDevice ?? newDeviceId();
+      // Built (and so validated) before anything is written: an invalid draft writes nothing.
       const built = drafts.map((d) => buildEntry(d, user.id, deviceId, now));
       stored = built.map(pendingEntry);
       const rows: OutboxRow[] = built.map((e) => ({ entryId: e.id, authorId: e.authorId, queuedAt: now.toISOString(), bytes: canonicalJson(e).length, entry: e }));
-      await db.entries.bulkAdd(stored);
-      await db.outbox.bulkAdd(rows);
+      const writes: Promise<unknown>[] = [db.entries.bulkAdd(stored), db.outbox.bulkAdd(rows)];
+      if (!knownDevice) writes.push(db.setMeta("deviceId", deviceId));
+      await Promise.all(writes);
     });
   } catch (e) {
     throw toLocalWriteError(e);

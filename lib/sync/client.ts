@@ -50,7 +50,7 @@ function synced(e: StoredEntry): StoredLocalEntry {
 /** One full round: uploads, pushes until the outbox (of the signed-in user) is empty, pulls. */
 export async function syncOnce(db: RimelogDexie, transport: Transport, opts: SyncOptions = {}): Promise<SyncResult> {
   const now = opts.now ?? (() => new Date());
-  await db.setMeta("lastAttempt", now().toISOString());
+  const startedAt = now().toISOString();
   const result: SyncResult = { uploaded: 0, accepted: 0, rejected: 0, pulled: 0 };
   let session = await db.getMeta("session");
   if (!session) {
@@ -65,10 +65,12 @@ export async function syncOnce(db: RimelogDexie, transport: Transport, opts: Syn
     result.rejected += pushed.rejected;
   }
   result.pulled += await pullAll(db, transport, now);
-  await db.transaction("rw", db.meta, async () => {
-    await db.setMeta("lastSuccess", now().toISOString());
-    await db.setMeta("lastError", null);
-  });
+  // One write for the round's times (each write makes a tap that comes meanwhile wait).
+  await db.meta.bulkPut([
+    { key: "lastAttempt", value: startedAt },
+    { key: "lastSuccess", value: now().toISOString() },
+    { key: "lastError", value: null },
+  ]);
   return result;
 }
 
@@ -267,7 +269,13 @@ async function pullAll(db: RimelogDexie, transport: Transport, now: () => Date):
 export async function applyPull(db: RimelogDexie, reply: PullReply, now: () => Date): Promise<{ cursor: number; restart: boolean }> {
   return db.transaction("rw", [db.entries, db.outbox, db.meta, db.cryostats, db.templates, db.users, db.attachments], async () => {
     const session = await db.getMeta("session");
-    await db.setMeta("session", { user: reply.me, confirmedAt: now().toISOString() });
+    const at = now();
+    // The offline session is renewed by every good contact; written again only when who it is
+    // changed or a minute has passed, so a quiet round writes as little as it can.
+    const same = session && JSON.stringify(session.user) === JSON.stringify(reply.me);
+    if (!same || at.getTime() - Date.parse(session.confirmedAt) > 60_000) {
+      await db.setMeta("session", { user: reply.me, confirmedAt: at.toISOString() });
+    }
     if (session && session.user.id !== reply.me.id) {
       await forgetPulledData(db);
       return { cursor: 0, restart: true };
@@ -294,7 +302,7 @@ export async function applyPull(db: RimelogDexie, reply: PullReply, now: () => D
 
     const before = (await db.getMeta("cursor")) ?? 0;
     const cursor = Math.max(before, reply.cursor);
-    await db.setMeta("cursor", cursor);
+    if (cursor !== before) await db.setMeta("cursor", cursor);
 
     const ref = reply.reference;
     if (ref) {

@@ -100,8 +100,12 @@ export class SyncLoop {
       outcome = e instanceof Error ? e : new Error(String(e));
       this.failures += 1;
       const te = e instanceof TransportError ? e : null;
-      await this.db
-        .setMeta("lastError", { code: te?.kind ?? "error", message: outcome.message, at: new Date().toISOString() })
+      const at = new Date().toISOString();
+      await this.db.meta
+        .bulkPut([
+          { key: "lastError", value: { code: te?.kind ?? "error", message: outcome.message, at } },
+          { key: "lastAttempt", value: at },
+        ])
         .catch(() => undefined);
     } finally {
       this.running = false;
