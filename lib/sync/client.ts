@@ -124,6 +124,8 @@ async function nextBatch(db: RimelogDexie, userId: string, after: number, maxBat
 
 type Tally = { accepted: number; rejected: number };
 
+const FIRST_BATCH = 200;
+
 const quiet = <T>(p: Promise<T>): Promise<T> => {
   p.catch(() => undefined); // awaited later; never an unhandled rejection meanwhile
   return p;
@@ -153,7 +155,8 @@ async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string
     }
   };
   const readAfter = (after: number) => quiet(nextBatch(db, userId, after, maxBatch, maxBytes));
-  let next = readAfter(0);
+  // A small first batch gets the server working sooner; the ones read while it travels are full.
+  let next = quiet(nextBatch(db, userId, 0, Math.min(maxBatch, FIRST_BATCH), maxBytes));
   let batch: Batch | null = null;
   let sending: Promise<PushReply> | null = null;
   // Send `b` and start reading the batch after it.
