@@ -199,9 +199,10 @@ async function benchTap() {
       return v[Math.min(v.length - 1, Math.floor(p * v.length))]!.toFixed(1);
     };
     const taps = Number(process.env.BENCH_TAPS) || 120;
+    const pace = Number(process.env.BENCH_PACE_MS) || 1500;
     for (const [label, pause, runs] of [
       ["back to back", 0, taps],
-      ["one save every 1.5 s", 1500, Math.ceil(taps / 2)],
+      [`one save every ${pace / 1000} s`, pace, Math.ceil(taps / 2)],
     ] as const) {
       const times = await runTaps(runs, pause);
       const durable = times.map((x) => x.durable);
