@@ -4,7 +4,7 @@ import type { Browser, BrowserContext, Page } from "playwright-core";
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from "vitest";
 import { launchBrowser, newTabletContext, screenshot, signIn, trackPageErrors } from "./support/browser";
 import { CRYOSTATS, DEMO_USERS, type DemoUser } from "./support/demo-users";
-import { AdminUsersPage, AppHeader, OverviewPage, SignInPage } from "./support/pages";
+import { AdminUsersPage, AppHeader, SignInPage } from "./support/pages";
 
 const baseURL = inject("baseURL");
 

@@ -4,45 +4,15 @@
 // in a second browser context) with the sync indicator at zero. A second tablet that was offline
 // with its own entry converges with the first. Leaves screenshots of the cryostat page with
 // unsent entries in both themes.
-import type { Browser, BrowserContext, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import { launchBrowser, newTabletContext, screenshot, signIn, trackPageErrors } from "./support/browser";
+import type { Page } from "playwright-core";
+import { describe, expect, inject, it } from "vitest";
+import { screenshot, useTablets, waitPending } from "./support/browser";
 import { DEMO_USERS } from "./support/demo-users";
 
 const baseURL = inject("baseURL");
-let browser: Browser;
-const contexts: BrowserContext[] = [];
-
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => undefined);
-  await browser?.close();
-});
-
-async function tablet(email: string): Promise<{ context: BrowserContext; page: Page; errors: string[] }> {
-  const context = await newTabletContext(browser, baseURL);
-  contexts.push(context);
-  const page = await context.newPage();
-  const errors = trackPageErrors(page);
-  await signIn(page, email);
-  // The service worker is installed (app shell precached) and controls the page.
-  await page.evaluate(async () => {
-    await navigator.serviceWorker.ready;
-  });
-  await page.waitForFunction(() => navigator.serviceWorker.controller !== null, undefined, { timeout: 30_000 });
-  // The first sync has filled the tablet store: the room is drawn from it.
-  await page.getByRole("heading", { level: 2, name: "Wren" }).waitFor();
-  await waitPending(page, 0);
-  return { context, page, errors };
-}
+const tablet = useTablets(baseURL);
 
 const indicator = (page: Page) => page.getByTestId("sync-indicator");
-
-async function waitPending(page: Page, n: number, timeout = 30_000): Promise<void> {
-  await page.waitForFunction((want) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(want), n, { timeout });
-}
 
 async function recordReading(page: Page, value: string): Promise<void> {
   await page.getByRole("tab", { name: "Reading" }).click();
@@ -66,8 +36,8 @@ describe("a shift without network", () => {
     const noteA = `Bath level steady, transfer line stowed (${tag}-A)`;
     const noteB = `Compressor hum checked (${tag}-B)`;
 
-    const a = await tablet(DEMO_USERS.tomasz.email);
-    const b = await tablet(DEMO_USERS.priya.email);
+    const a = await tablet(DEMO_USERS.tomasz.email, { ready: true });
+    const b = await tablet(DEMO_USERS.priya.email, { ready: true });
 
     // Both tablets lose the network.
     await a.context.setOffline(true);
@@ -153,7 +123,7 @@ describe("a shift without network", () => {
   });
 
   it("refuses to sign out while entries are unsent, then signs out and clears the tablet", async () => {
-    const c = await tablet(DEMO_USERS.mateo.email);
+    const c = await tablet(DEMO_USERS.mateo.email, { ready: true });
     await c.context.setOffline(true);
     await c.page.goto("/cryostats/heron").catch(() => undefined);
     await c.page.getByRole("heading", { level: 1, name: "Heron" }).waitFor();

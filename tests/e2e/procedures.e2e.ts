@@ -5,45 +5,18 @@
 // signature, then goes online. The run, its photo and its signatures reach the server, and the
 // safety officer opens the run record with the signature manifestation. Leaves screenshots of the
 // run screen at 1024×768 and 768×1024 in both themes.
-import type { Browser, BrowserContext, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import { launchBrowser, newTabletContext, screenshot, signIn, trackPageErrors } from "./support/browser";
+import type { Page } from "playwright-core";
+import { describe, expect, inject, it } from "vitest";
+import { screenshot, useTablets, waitPending as waitPendingFor } from "./support/browser";
 import { DEMO_PASSWORD, DEMO_USERS } from "./support/demo-users";
 
 const baseURL = inject("baseURL");
-let browser: Browser;
-const contexts: BrowserContext[] = [];
-const PIN = "482916";
+const tablet = useTablets(baseURL);
 
+const PIN = "482916";
 // A 2×2 PNG, as a camera would hand over a JPEG: the bytes matter only for the upload's type check.
 const PHOTO = Buffer.from("iVBORw0KGgoAAAANSUhEUgAAAAIAAAACCAIAAAD91JpzAAAAFklEQVR4nGP8z8DAwMDAxMDAwMDAAAANHQEDasKb6QAAAABJRU5ErkJggg==", "base64");
-
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => undefined);
-  await browser?.close();
-});
-
-async function tablet(email: string): Promise<{ context: BrowserContext; page: Page; errors: string[] }> {
-  const context = await newTabletContext(browser, baseURL);
-  contexts.push(context);
-  const page = await context.newPage();
-  const errors = trackPageErrors(page);
-  await signIn(page, email);
-  await page.evaluate(async () => {
-    await navigator.serviceWorker.ready;
-  });
-  await page.waitForFunction(() => navigator.serviceWorker.controller !== null, undefined, { timeout: 30_000 });
-  await page.getByRole("heading", { level: 2, name: "Wren" }).waitFor();
-  await waitPending(page, 0);
-  return { context, page, errors };
-}
-
-async function waitPending(page: Page, n: number, timeout = 60_000): Promise<void> {
-  await page.waitForFunction((want) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(want), n, { timeout });
-}
+const waitPending = (page: Page, n: number, timeout = 60_000) => waitPendingFor(page, n, timeout);
 
 const step = (page: Page, id: string) => page.locator(`[data-step="${id}"]`);
 
@@ -111,7 +84,7 @@ async function shots(page: Page, name: string) {
 
 describe("procedures on a tablet with no network", () => {
   it("runs a cooldown offline end to end, syncs it, and the safety officer sees the signed record", async () => {
-    const t = await tablet(DEMO_USERS.tomasz.email);
+    const t = await tablet(DEMO_USERS.tomasz.email, { ready: true });
     const { page } = t;
 
     // Online once: set the signing PIN (needs the password again).
@@ -224,7 +197,7 @@ describe("procedures on a tablet with no network", () => {
 
     mark("synced to the server");
     // The safety officer, on her own tablet, opens the run record with the manifestations.
-    const g = await tablet(DEMO_USERS.grace.email);
+    const g = await tablet(DEMO_USERS.grace.email, { ready: true });
     await g.page.goto(`/runs?id=${runId}&view=record`);
     const rec = g.page.getByRole("article", { name: "Run record" });
     await rec.waitFor({ timeout: 60_000 });
@@ -251,8 +224,8 @@ describe("procedures on a tablet with no network", () => {
   }, 600_000);
 
   it("hands over a shift with a signature and the incoming technician accepts with theirs; the admin saves a new template version", async () => {
-    const out = await tablet(DEMO_USERS.tomasz.email);
-    const inc = await tablet(DEMO_USERS.priya.email);
+    const out = await tablet(DEMO_USERS.tomasz.email, { ready: true });
+    const inc = await tablet(DEMO_USERS.priya.email, { ready: true });
     for (const [c, who] of [
       [out, "tomasz"],
       [inc, "priya"],
@@ -299,7 +272,7 @@ describe("procedures on a tablet with no network", () => {
     mark("handover accepted");
 
     // The facility admin edits a template: saving makes version 2, version 1 stays.
-    const admin = await tablet(DEMO_USERS.ines.email);
+    const admin = await tablet(DEMO_USERS.ines.email, { ready: true });
     await admin.page.goto("/admin/templates");
     await admin.page.getByRole("button", { name: "Edit Liquid helium transfer" }).click();
     await admin.page.getByLabel("Title", { exact: true }).fill("Liquid helium transfer (rev. B)");

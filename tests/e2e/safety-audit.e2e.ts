@@ -9,35 +9,12 @@ import { execFileSync } from "node:child_process";
 import { existsSync, mkdirSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { PDFDocument, StandardFonts } from "pdf-lib";
-import type { Browser, BrowserContext, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import { launchBrowser, newTabletContext, SCREENSHOT_DIR, screenshot, signIn, trackPageErrors } from "./support/browser";
+import { describe, expect, inject, it } from "vitest";
+import { SCREENSHOT_DIR, screenshot, useTablets, waitPending } from "./support/browser";
 import { DEMO_PASSWORD, DEMO_USERS } from "./support/demo-users";
 
 const baseURL = inject("baseURL");
-let browser: Browser;
-const contexts: BrowserContext[] = [];
-
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => undefined);
-  await browser?.close();
-});
-
-async function tablet(email: string): Promise<{ context: BrowserContext; page: Page; errors: string[] }> {
-  const context = await newTabletContext(browser, baseURL);
-  contexts.push(context);
-  const page = await context.newPage();
-  const errors = trackPageErrors(page);
-  await signIn(page, email);
-  return { context, page, errors };
-}
-
-async function waitPending(page: Page, n: number, timeout = 30_000): Promise<void> {
-  await page.waitForFunction((want) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(want), n, { timeout });
-}
+const tablet = useTablets(baseURL);
 
 async function rulesPdf(): Promise<Uint8Array> {
   const doc = await PDFDocument.create();

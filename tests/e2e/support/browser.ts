@@ -4,6 +4,7 @@ import { mkdirSync } from "node:fs";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
+import { afterAll, beforeAll } from "vitest";
 import { assertChromiumInstalled, CHROMIUM_ARGS } from "./chromium";
 import { DEMO_PASSWORD } from "./demo-users";
 import { OverviewPage, SignInPage } from "./pages";
@@ -55,4 +56,45 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const path = join(SCREENSHOT_DIR, `${name.replace(/[^a-z0-9._-]+/gi, "-")}.png`);
   await page.screenshot({ path, fullPage: true });
   return path;
+}
+
+export type Tablet = { context: BrowserContext; page: Page; errors: string[] };
+
+/**
+ * One browser for the test file and a tablet (context) per signed-in person, all closed after
+ * the file. `ready` also waits until the service worker controls the page (the app shell is
+ * precached) and the first sync has filled the tablet store with nothing left to send.
+ */
+export function useTablets(baseURL: string) {
+  let browser: Browser | undefined;
+  const contexts: BrowserContext[] = [];
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    for (const c of contexts) await c.close().catch(() => undefined);
+    await browser?.close();
+  });
+  return async function tablet(email: string, { ready = false }: { ready?: boolean } = {}): Promise<Tablet> {
+    if (!browser) throw new Error("useTablets: the browser is started in beforeAll; ask for a tablet inside a test.");
+    const context = await newTabletContext(browser, baseURL);
+    contexts.push(context);
+    const page = await context.newPage();
+    const errors = trackPageErrors(page);
+    await signIn(page, email);
+    if (ready) {
+      await page.evaluate(async () => {
+        await navigator.serviceWorker.ready;
+      });
+      await page.waitForFunction(() => navigator.serviceWorker.controller !== null, undefined, { timeout: 30_000 });
+      await page.getByRole("heading", { level: 2, name: "Wren" }).waitFor();
+      await waitPending(page, 0);
+    }
+    return { context, page, errors };
+  };
+}
+
+/** Waits until the sync indicator shows `n` entries waiting to be sent. */
+export async function waitPending(page: Page, n: number, timeout = 30_000): Promise<void> {
+  await page.waitForFunction((want) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(want), n, { timeout });
 }
