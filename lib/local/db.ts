@@ -67,6 +67,31 @@ export type MetaValue<K extends MetaKey> = Extract<MetaRow, { key: K }>["value"]
 
 export const LOCAL_DB_NAME = "rimelog";
 
+/**
+ * Every schema version of the tablet store, oldest first (Dexie needs them all to upgrade a
+ * tablet that skipped versions). A version, once shipped, is never edited: add a new one.
+ */
+export const SCHEMA_VERSIONS: readonly (readonly [number, Record<string, string>])[] = [
+  [
+    1,
+    {
+      entries: "id, cryostatId, runId, sync, seq, authorId, [cryostatId+seq]",
+      outbox: "++n, &entryId, authorId",
+      attachments: "id, state, authorId",
+      cryostats: "id",
+      templates: "id, key",
+      users: "id",
+      meta: "key",
+    },
+  ],
+  // v2: a cryostat's unsent entries by time, so a logbook reads only the newest few.
+  [2, { entries: "id, cryostatId, runId, sync, seq, authorId, [cryostatId+seq], [cryostatId+sync+recordedAt]" }],
+  // v3: an author's outbox rows in order of writing, so each push batch seeks straight to where
+  // the previous one ended (no walk over rows just deleted); entries lose the seq and authorId
+  // indexes nothing reads (each index costs on every write).
+  [3, { entries: "id, cryostatId, runId, sync, [cryostatId+seq], [cryostatId+sync+recordedAt]", outbox: "++n, &entryId, authorId, [authorId+n]" }],
+];
+
 export class RimelogDexie extends Dexie {
   entries!: Table<StoredLocalEntry, string>;
   outbox!: Table<OutboxRow, number>;
@@ -80,26 +105,7 @@ export class RimelogDexie extends Dexie {
     // Chromium commits IndexedDB transactions with relaxed durability by default: a crash right
     // after "saved" could lose the entry. Strict waits for the write to reach the disk.
     super(name, { chromeTransactionDurability: "strict", ...options });
-    this.version(1).stores({
-      entries: "id, cryostatId, runId, sync, seq, authorId, [cryostatId+seq]",
-      outbox: "++n, &entryId, authorId",
-      attachments: "id, state, authorId",
-      cryostats: "id",
-      templates: "id, key",
-      users: "id",
-      meta: "key",
-    });
-    // v2: a cryostat's unsent entries by time, so a logbook reads only the newest few.
-    this.version(2).stores({
-      entries: "id, cryostatId, runId, sync, seq, authorId, [cryostatId+seq], [cryostatId+sync+recordedAt]",
-    });
-    // v3: an author's outbox rows in order of writing, so each push batch seeks straight to where
-    // the previous one ended (no walk over rows just deleted).
-    // Entries lose the seq and authorId indexes nothing reads (each index costs on every write).
-    this.version(3).stores({
-      entries: "id, cryostatId, runId, sync, [cryostatId+seq], [cryostatId+sync+recordedAt]",
-      outbox: "++n, &entryId, authorId, [authorId+n]",
-    });
+    for (const [version, stores] of SCHEMA_VERSIONS) this.version(version).stores(stores);
   }
 
   async getMeta<K extends MetaKey>(key: K): Promise<MetaValue<K> | undefined> {

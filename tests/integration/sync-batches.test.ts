@@ -10,7 +10,7 @@ import type { Db } from "@/db/client";
 import { toStoredRow } from "@/db/queries/stored";
 import { entries } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { RimelogDexie } from "@/lib/local/db";
+import { RimelogDexie, SCHEMA_VERSIONS } from "@/lib/local/db";
 import { confirmSession, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
 import { syncOnce, toInput, TransportError, type Transport } from "@/lib/sync/client";
 import type { EntryInput } from "@/lib/schemas/entry";
@@ -129,15 +129,7 @@ describe("pushing a long outbox", () => {
   it("sends rows queued by the schema-v2 app, which carry no copy of their entry", async () => {
     // The store as version 2 of the app left it: the entry in `entries`, a bare row in `outbox`.
     const old = new Dexie("upgrade", { indexedDB: factory, IDBKeyRange });
-    old.version(2).stores({
-      entries: "id, cryostatId, runId, sync, seq, authorId, [cryostatId+seq], [cryostatId+sync+recordedAt]",
-      outbox: "++n, &entryId, authorId",
-      attachments: "id, state, authorId",
-      cryostats: "id",
-      templates: "id, key",
-      users: "id",
-      meta: "key",
-    });
+    for (const [version, stores] of SCHEMA_VERSIONS.filter(([v]) => v <= 2)) old.version(version).stores(stores);
     const e: EntryInput = {
       id: crypto.randomUUID(),
       cryostatId: "wren",
