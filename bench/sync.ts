@@ -13,8 +13,9 @@ import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
-import { getTableColumns, inArray, sql } from "drizzle-orm";
+import { inArray, sql } from "drizzle-orm";
 import { openDb } from "@/db/client";
+import { toColumns } from "@/db/queries/entries";
 import { entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
 import type { SessionUser } from "@/lib/auth/session-user";
@@ -40,8 +41,7 @@ async function rawInserts(rows: EntryRowIn[]): Promise<{ valuesMs: number; jsonM
   // Each baseline three times on a fresh database; the median is reported (a single insert of
   // this size varies by ±30 % from run to run on a 2-core machine).
   const median = (xs: number[]) => [...xs].sort((x, y) => x - y)[Math.floor(xs.length / 2)]!;
-  const columns = Object.entries(getTableColumns(entries));
-  const records = rows.map((r) => Object.fromEntries(columns.map(([k, c]) => [c.name, (r as Record<string, unknown>)[k] instanceof Date ? ((r as Record<string, unknown>)[k] as Date).toISOString() : ((r as Record<string, unknown>)[k] ?? null)])));
+  const records = rows.map(toColumns);
   const values: number[] = [];
   const json: number[] = [];
   for (let round = 0; round < 3; round++) {

@@ -18,7 +18,7 @@ export type PushResult = { accepted: Accepted[]; rejected: Rejected[] };
 const entryColumns = Object.entries(getTableColumns(entries));
 
 /** A row keyed by column name (what json_populate_recordset expects), dates as ISO text. */
-function toColumns(row: typeof entries.$inferInsert): Record<string, unknown> {
+export function toColumns(row: typeof entries.$inferInsert): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   for (const [key, column] of entryColumns) {
     const v = (row as Record<string, unknown>)[key];

@@ -113,6 +113,12 @@ export class RimelogDexie extends Dexie {
     return row?.value as MetaValue<K> | undefined;
   }
 
+  /** Several meta values in one read (one request, however many keys). */
+  async getMetas<const K extends readonly MetaKey[]>(...keys: K): Promise<{ [I in keyof K]: MetaValue<K[I]> | undefined }> {
+    const rows = await this.meta.bulkGet([...keys]);
+    return rows.map((r) => r?.value) as { [I in keyof K]: MetaValue<K[I]> | undefined };
+  }
+
   async setMeta<K extends MetaKey>(key: K, value: MetaValue<K>): Promise<void> {
     await this.meta.put({ key, value } as MetaRow);
   }
@@ -121,9 +127,13 @@ export class RimelogDexie extends Dexie {
 let singleton: RimelogDexie | undefined;
 let syncConnection: RimelogDexie | undefined;
 
+function assertBrowser(): void {
+  if (typeof indexedDB === "undefined") throw new Error("The tablet store needs a browser (IndexedDB is not available here).");
+}
+
 /** The tablet's store (browser only). Tests make their own with `new RimelogDexie(name, opts)`. */
 export function localDb(): RimelogDexie {
-  if (typeof indexedDB === "undefined") throw new Error("The tablet store needs a browser (IndexedDB is not available here).");
+  assertBrowser();
   singleton ??= new RimelogDexie();
   return singleton;
 }
@@ -137,7 +147,7 @@ export function localDb(): RimelogDexie {
  * through localDb() (strict).
  */
 export function localSyncDb(): RimelogDexie {
-  if (typeof indexedDB === "undefined") throw new Error("The tablet store needs a browser (IndexedDB is not available here).");
+  assertBrowser();
   syncConnection ??= new RimelogDexie(LOCAL_DB_NAME, { chromeTransactionDurability: "relaxed" });
   return syncConnection;
 }

@@ -1,6 +1,6 @@
 // Reads from the tablet store, shared by the live-query hooks and tests: entries (pulled + local,
 // newest first), reference data and the sync summary.
-import type { MetaKey, MetaValue, RimelogDexie, StoredLocalEntry } from "./db";
+import type { RimelogDexie, StoredLocalEntry } from "./db";
 
 export type EntryFilter = { cryostatId?: string | null; runId?: string; kinds?: string[]; limit?: number };
 
@@ -70,21 +70,18 @@ export type SyncSummary = {
 
 export async function syncSummary(db: RimelogDexie): Promise<SyncSummary> {
   // One read transaction, not nine: a tap's write waits for every read already running.
-  const [pending, rejected, pendingAttachments, rejectedAtt, metaRows] = await db.transaction("r", [db.outbox, db.entries, db.attachments, db.meta], () =>
-    Promise.all([
-      db.outbox.count(),
-      db.entries.where("sync").equals("rejected").toArray(),
-      db.attachments.where("state").equals("pending").count(),
-      db.attachments.where("state").equals("rejected").toArray(),
-      db.meta.bulkGet(["lastSuccess", "lastAttempt", "lastError", "session", "deviceId"]),
-    ]),
+  const [pending, rejected, pendingAttachments, rejectedAtt, [lastSuccess, lastAttempt, lastError, session, deviceId]] = await db.transaction(
+    "r",
+    [db.outbox, db.entries, db.attachments, db.meta],
+    () =>
+      Promise.all([
+        db.outbox.count(),
+        db.entries.where("sync").equals("rejected").toArray(),
+        db.attachments.where("state").equals("pending").count(),
+        db.attachments.where("state").equals("rejected").toArray(),
+        db.getMetas("lastSuccess", "lastAttempt", "lastError", "session", "deviceId"),
+      ]),
   );
-  const meta = <K extends MetaKey>(i: number) => metaRows[i]?.value as MetaValue<K> | undefined;
-  const lastSuccess = meta<"lastSuccess">(0);
-  const lastAttempt = meta<"lastAttempt">(1);
-  const lastError = meta<"lastError">(2);
-  const session = meta<"session">(3);
-  const deviceId = meta<"deviceId">(4);
   return {
     pending,
     rejected: rejected.sort(newestFirst),

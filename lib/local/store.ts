@@ -124,8 +124,7 @@ export async function recordEntriesIn(db: RimelogDexie, drafts: EntryDraft[], no
   try {
     await db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
       // A tap is on the clock: one read for both meta rows, and the two writes queued together.
-      const [sessionRow, deviceRow] = await db.meta.bulkGet(["session", "deviceId"]);
-      const session = sessionRow?.value as LocalSession | undefined;
+      const [session, knownDevice] = await db.getMetas("session", "deviceId");
       const problem = sessionProblem(session, now.getTime());
       if (problem || !session) throw problem;
       const user = session.user;
@@ -134,7 +133,6 @@ export async function recordEntriesIn(db: RimelogDexie, drafts: EntryDraft[], no
           throw new LocalWriteError("forbidden", `A ${user.role.replace("_", " ")} may not record entries of kind "${d.kind}".`);
         }
       }
-      const knownDevice = deviceRow?.value as string | undefined;
       const deviceId = knownDevice ?? newDeviceId();
       // Built (and so validated) before anything is written: an invalid draft writes nothing.
       const built = drafts.map((d) => buildEntry(d, user.id, deviceId, now));

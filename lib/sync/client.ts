@@ -154,9 +154,9 @@ async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string
       throw new TransportError("server", "The server answered for none of the entries sent; they stay queued.");
     }
   };
-  const readAfter = (after: number) => quiet(nextBatch(db, userId, after, maxBatch, maxBytes));
+  const readAfter = (after: number, limit = maxBatch) => quiet(nextBatch(db, userId, after, limit, maxBytes));
   // A small first batch gets the server working sooner; the ones read while it travels are full.
-  let next = quiet(nextBatch(db, userId, 0, Math.min(maxBatch, FIRST_BATCH), maxBytes));
+  let next = readAfter(0, Math.min(maxBatch, FIRST_BATCH));
   let batch: Batch | null = null;
   let sending: Promise<PushReply> | null = null;
   // Send `b` and start reading the batch after it.
