@@ -119,7 +119,7 @@ async function benchPush() {
 }
 
 async function waitPendingZero(page: import("playwright-core").Page, timeout = 120_000) {
-  await page.waitForFunction(() => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === "0", undefined, { timeout, polling: 250 });
+  await page.waitForFunction(() => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === "0", undefined, { timeout, polling: 50 });
 }
 
 async function fetchCursor(page: import("playwright-core").Page): Promise<number> {
@@ -137,7 +137,9 @@ async function benchTap() {
   const port = 3900 + Math.floor(Math.random() * 90);
   const work = mkdtempSync(join(tmpdir(), "rimelog-bench-"));
   const base = `http://localhost:${port}`;
-  const server = spawn(join(process.cwd(), "node_modules/.bin/next"), ["start", "-p", String(port), "-H", "127.0.0.1"], {
+  // BENCH_PROFILE=<dir>: the server writes a V8 CPU profile there when it stops.
+  const profile = process.env.BENCH_PROFILE ? ["--cpu-prof", `--cpu-prof-dir=${process.env.BENCH_PROFILE}`] : [];
+  const server = spawn(process.execPath, [...profile, join(process.cwd(), "node_modules/next/dist/bin/next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
     detached: true,
     stdio: "ignore",
     env: { ...process.env, NODE_ENV: "production", NEXT_DIST_DIR: dist, RIMELOG_DATA_DIR: join(work, "db"), RIMELOG_STORAGE_DIR: join(work, "files"), AUTH_SECRET: randomBytes(24).toString("hex"), NEXTAUTH_URL: base, AUTH_TRUST_HOST: "true" },
@@ -198,12 +200,13 @@ async function benchTap() {
       const v = [...xs].sort((a, b) => a - b);
       return v[Math.min(v.length - 1, Math.floor(p * v.length))]!.toFixed(1);
     };
-    const taps = Number(process.env.BENCH_TAPS) || 120;
+    const taps = process.env.BENCH_TAPS === undefined ? 120 : Number(process.env.BENCH_TAPS); // 0: the push only
     const pace = Number(process.env.BENCH_PACE_MS) || 1500;
     for (const [label, pause, runs] of [
       ["back to back", 0, taps],
       [`one save every ${pace / 1000} s`, pace, Math.ceil(taps / 2)],
     ] as const) {
+      if (runs === 0) continue;
       const times = await runTaps(runs, pause);
       const durable = times.map((x) => x.durable);
       const shown = times.map((x) => x.shown);
@@ -220,8 +223,17 @@ async function benchTap() {
     await page.evaluate(`(async (n) => {
       const db = await new Promise((res, rej) => { const o = indexedDB.open("rimelog"); o.onsuccess = () => res(o.result); o.onerror = () => rej(o.error); });
       const get = (key) => new Promise((res) => { const r = db.transaction("meta").objectStore("meta").get(key); r.onsuccess = () => res(r.result); });
-      const session = (await get("session")).value;
-      const deviceId = (await get("deviceId")).value;
+      let session;
+      for (let i = 0; i < 200 && !session; i++) {
+        session = (await get("session"))?.value; // the first pull after sign-in writes it
+        if (!session) await new Promise((r) => setTimeout(r, 100));
+      }
+      // Made by the first save; with no taps before, one is made here the way the app would.
+      let deviceId = (await get("deviceId"))?.value;
+      if (!deviceId) {
+        deviceId = crypto.randomUUID();
+        await new Promise((res) => { const r = db.transaction("meta", "readwrite").objectStore("meta").put({ key: "deviceId", value: deviceId }); r.onsuccess = res; });
+      }
       const tx = db.transaction(["entries", "outbox"], "readwrite", { durability: "strict" });
       const base = Date.now();
       for (let i = 0; i < n; i++) {
@@ -236,9 +248,12 @@ async function benchTap() {
       db.close();
     })(${N})`);
     const cursorBefore = await fetchCursor(page);
-    const pushTimes: number[] = [];
-    page.on("requestfinished", (r) => {
-      if (r.url().includes("/api/sync/push")) pushTimes.push(r.timing().responseEnd);
+    const pushTimes: { start: number; end: number; server: string }[] = [];
+    page.on("requestfinished", async (r) => {
+      if (!r.url().includes("/api/sync/push")) return;
+      const { startTime, responseEnd } = r.timing();
+      const server = (await r.response())?.headers()["server-timing"] ?? "";
+      pushTimes.push({ start: startTime, end: startTime + responseEnd, server: server.replaceAll(";dur=", " ").replaceAll(",", "") });
     });
     // Entries written behind Dexie's back are seen after a reload; offline, so none leaves early.
     const context = page.context();
@@ -249,7 +264,21 @@ async function benchTap() {
     await context.setOffline(false); // the `online` event starts the sync
     await waitPendingZero(page, 30 * 60_000);
     const pushMs = Date.now() - t0;
-    if (process.env.BENCH_DEBUG) console.log(`pushes: ${pushTimes.length}, request times (ms): ${pushTimes.map((x) => x.toFixed(0)).join(" ")}`);
+    // Then the tablet writes the answers into its entries (the receipts), off the push's path.
+    const receiptsLeft = `new Promise((resolve) => {
+      const o = indexedDB.open("rimelog");
+      o.onsuccess = () => {
+        const r = o.result.transaction("receipts").objectStore("receipts").count();
+        r.onsuccess = () => { o.result.close(); resolve(r.result); };
+      };
+    })`;
+    while ((await page.evaluate(receiptsLeft)) !== 0) await new Promise((r) => setTimeout(r, 50));
+    const foldMs = Date.now() - t0;
+    if (process.env.BENCH_DEBUG) {
+      // When each request left and its answer arrived, in ms after "online": the gaps between are the tablet's own work.
+      console.log(`pushes: ${pushTimes.length}; ms after online, sent → answered (server's own ms):`);
+      for (const x of pushTimes) console.log(`  ${(x.start - t0).toFixed(0)} → ${(x.end - t0).toFixed(0)}  (${x.server})`);
+    }
     // The same rows as the server stored them, inserted raw into a fresh database here.
     const rows = [];
     for (let since = cursorBefore; ; ) {
@@ -260,7 +289,11 @@ async function benchTap() {
       if (!body.hasMore) break;
     }
     const values = rows.map((e) => ({ ...(e as EntryRowIn), recordedAt: new Date(e.recordedAt as string), receivedAt: new Date(e.receivedAt as string) }));
-    report(`browser push of ${N} queued entries over HTTP (Chromium IndexedDB → /api/sync/push → PGlite)`, pushMs, await rawInserts(values), values.length);
+    // The baselines run on a quiet machine: the browser (still pulling) is closed first.
+    await browser.close();
+    await new Promise((r) => setTimeout(r, 1000));
+    report(`browser push of ${N} queued entries over HTTP (Chromium IndexedDB → /api/sync/push → PGlite), "online" to nothing pending`, pushMs, await rawInserts(values), values.length);
+    console.log(`  … and every answer written into the tablet's entries (receipts folded) ${ms(foldMs)} after "online"`);
   } finally {
     await browser.close();
     try {

@@ -12,15 +12,13 @@ import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import { chainOf } from "@/lib/sync/hash";
 import { chainBreaks } from "./chain";
+import { ofKind, type LogCheck, type Problem } from "./log-check";
 import { toStoredRow } from "./stored";
 
 export const AUDITED_KINDS = ["transfer", "quench", "incident"] as const;
 
-type Problem = { code: string; message: string };
-
 /** A finding must name a stored transfer, quench or incident of the same cryostat. */
 export async function auditFindingCheck(db: Db, e: EntryInput, batch: Map<string, EntryInput>): Promise<Problem | null> {
-  if (e.kind !== "audit.finding") return null;
   const targetId = (e.payload as { targetEntryId: string }).targetEntryId;
   const inBatch = batch.get(targetId);
   const [row] = inBatch ? [] : await db.select({ kind: entries.kind, cryostatId: entries.cryostatId }).from(entries).where(eq(entries.id, targetId));
@@ -33,7 +31,6 @@ export async function auditFindingCheck(db: Db, e: EntryInput, batch: Map<string
 
 /** An "audited" signature signs a finding, and only with the officer's PIN or password (R5). */
 export async function auditSignatureCheck(db: Db, e: EntryInput, batch: Map<string, EntryInput>): Promise<Problem | null> {
-  if (e.kind !== "signature") return null;
   const p = e.payload as { signedEntryId: string; meaning: string; confirmedBy?: string; confirmProof?: string };
   if (p.meaning !== "audited") return null;
   const inBatch = batch.get(p.signedEntryId);
@@ -44,7 +41,10 @@ export async function auditSignatureCheck(db: Db, e: EntryInput, batch: Map<stri
   return null;
 }
 
-export const auditChecks = [auditFindingCheck, auditSignatureCheck];
+export const auditChecks: LogCheck[] = [
+  { when: ofKind("audit.finding"), check: auditFindingCheck },
+  { when: ofKind("signature"), check: auditSignatureCheck },
+];
 
 export type SignatureView = { entryId: string; signedEntryId: string; meaning: string; signerId: string; signerName: string; signerRole: string; signedAt: string; signedHash: string; confirmedBy: string | null; image: string | null };
 export type FindingView = { id: string; verdict: "acceptable" | "needs_action"; findings: string; flags: string[]; authorName: string; recordedAt: string; signatures: SignatureView[] };

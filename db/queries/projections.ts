@@ -1,6 +1,7 @@
 // Checks an entry must pass against the stored log (signature binding, corrections), and the
 // projections updated in the same transaction as the entries they derive from.
-// Feature modules register their own checks and projectors here.
+// Feature modules supply their own checks (runChecks, auditChecks: each names the entries it
+// looks at) and projectors.
 import { eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { entries, signatures, type EntryRow } from "@/db/schema";
@@ -8,12 +9,13 @@ import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { recordHash } from "@/lib/sync/hash";
 import { auditChecks } from "./audit";
+import { ofKind, type LogCheck, type Problem } from "./log-check";
 import { mailProjector } from "./mail";
 import { projectRuns, runChecks } from "./runs";
 import { toStoredRow } from "./stored";
 
-export type Problem = { code: string; message: string };
-type Check = (db: Db, e: EntryInput, batch: Map<string, EntryInput>, user: SessionUser) => Promise<Problem | null>;
+export type { Problem };
+type Check = LogCheck["check"];
 type Projector = (db: Db, rows: (typeof entries.$inferInsert)[]) => Promise<void>;
 
 async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Promise<EntryInput | undefined> {
@@ -25,7 +27,6 @@ async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Pr
 
 /** A signature must name a stored record and carry the hash of exactly that record's content. */
 const signatureBinding: Check = async (db, e, batch, user) => {
-  if (e.kind !== "signature") return null;
   const p = e.payload as { signedEntryId: string; signedHash: string; signerRole: string };
   if (p.signerRole !== user.role) return { code: "forbidden:signature", message: "The signer's role does not match the signed-in user's role." };
   const target = await findEntry(db, p.signedEntryId, batch);
@@ -38,14 +39,18 @@ const signatureBinding: Check = async (db, e, batch, user) => {
 
 /** A correction must name a stored record of the same cryostat. */
 const correctionTarget: Check = async (db, e, batch) => {
-  if (!e.supersedes) return null;
-  const target = await findEntry(db, e.supersedes, batch);
+  const target = await findEntry(db, e.supersedes!, batch);
   if (!target) return { code: "bad_request:supersedes", message: "The corrected entry is not on the server." };
   if (target.cryostatId !== e.cryostatId) return { code: "bad_request:supersedes", message: "A correction must belong to the same cryostat as the entry it corrects." };
   return null;
 };
 
-const checks: Check[] = [signatureBinding, correctionTarget, ...runChecks, ...auditChecks];
+const checks: LogCheck[] = [
+  { when: ofKind("signature"), check: signatureBinding },
+  { when: (e) => e.supersedes !== null, check: correctionTarget },
+  ...runChecks,
+  ...auditChecks,
+];
 const projectors: Projector[] = [
   async (db, rows) => {
     const sigs = rows.filter((r) => r.kind === "signature");
@@ -62,15 +67,18 @@ const projectors: Projector[] = [
   mailProjector,
 ];
 
-export function registerCheck(check: Check): void {
-  checks.push(check);
-}
 export function registerProjector(projector: Projector): void {
   projectors.push(projector);
 }
 
+/** True when some check looks at this entry (else it needs no look at the log). */
+export function checkedAgainstLog(e: EntryInput): boolean {
+  return checks.some((c) => c.when(e));
+}
+
 export async function validateAgainstLog(db: Db, e: EntryInput, batch: Map<string, EntryInput>, user: SessionUser): Promise<Problem | null> {
-  for (const check of checks) {
+  for (const { when, check } of checks) {
+    if (!when(e)) continue;
     const problem = await check(db, e, batch, user);
     if (problem) return problem;
   }

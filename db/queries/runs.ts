@@ -10,10 +10,10 @@ import type { RunStartPayload, RunStepPayload } from "@/lib/schemas/run";
 import type { TemplateStep } from "@/lib/schemas/template";
 import { readingOutOfRange } from "@/lib/procedures/state";
 import { verifyConfirmation } from "@/lib/signing/proof";
+import { ofKind, type LogCheck, type Problem } from "./log-check";
 import { toStoredRow } from "./stored";
 
-type Problem = { code: string; message: string };
-type Check = (db: Db, e: EntryInput, batch: Map<string, EntryInput>, user: SessionUser) => Promise<Problem | null>;
+type Check = LogCheck["check"];
 type Row = typeof entries.$inferInsert;
 
 async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Promise<EntryInput | undefined> {
@@ -27,7 +27,6 @@ const bad = (message: string): Problem => ({ code: "bad_request:run", message })
 
 /** run.start pins an existing template version that fits the cryostat; its id is the run's id. */
 const runStartCheck: Check = async (db, e) => {
-  if (e.kind !== "run.start") return null;
   const p = e.payload as RunStartPayload;
   // The start entry's own id is the run's id (the tablet store assigns ids on write, so runId may be left empty).
   if (e.runId !== null && e.runId !== e.id) return bad("A run's start entry carries no runId, or its own id.");
@@ -41,7 +40,6 @@ const runStartCheck: Check = async (db, e) => {
 
 /** Step, abort and completion entries must name a started run of the same cryostat and a real step. */
 const runEntryCheck: Check = async (db, e, batch) => {
-  if (e.kind !== "run.step" && e.kind !== "run.abort" && e.kind !== "run.complete") return null;
   if (!e.runId) return bad("A procedure entry must name its run.");
   const start = await findEntry(db, e.runId, batch);
   if (!start || start.kind !== "run.start") return bad("The run this entry belongs to has not reached the server; send its start first.");
@@ -74,7 +72,6 @@ const runEntryCheck: Check = async (db, e, batch) => {
  * are shown as "identity not confirmed".
  */
 const signatureConfirmation: Check = async (db, e, batch) => {
-  if (e.kind !== "signature") return null;
   const p = e.payload as { signedEntryId: string; signedHash: string; meaning: "performed"; confirmedBy?: "pin" | "password"; confirmProof?: string };
   const target = await findEntry(db, p.signedEntryId, batch);
   const needsProof = Boolean(target && target.kind.startsWith("run."));
@@ -92,7 +89,11 @@ const signatureConfirmation: Check = async (db, e, batch) => {
   return ok ? null : { code: "forbidden:signature", message: `The ${p.confirmedBy === "pin" ? "PIN" : "password"} confirmation of this signature does not check out (changed since, or not the signer's).` };
 };
 
-export const runChecks: Check[] = [runStartCheck, runEntryCheck, signatureConfirmation];
+export const runChecks: LogCheck[] = [
+  { when: ofKind("run.start"), check: runStartCheck },
+  { when: ofKind("run.step", "run.abort", "run.complete"), check: runEntryCheck },
+  { when: ofKind("signature"), check: signatureConfirmation },
+];
 
 /** The `runs` projection: one row per run, its end written by the first abort or completion. */
 export async function projectRuns(db: Db, rows: Row[]): Promise<void> {

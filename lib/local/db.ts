@@ -1,10 +1,12 @@
 // The tablet store: the ONE Dexie class with every schema version, its row types, and how it is
 // opened (strict durability, so "saved" means on disk, not only in Chromium's write cache).
-// Reference data, local and pulled entries with their sync state, the outbox, photo blobs, and
-// sync metadata (device id, pull cursor, last success, the offline session) all live here.
+// Reference data, local and pulled entries with their sync state, the outbox, push answers not
+// yet written into their entries, photo blobs, and sync metadata (device id, pull cursor, last
+// success, the offline session) all live here.
 import Dexie, { type DexieOptions, type Table } from "dexie";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
+import type { Accepted } from "@/lib/sync/protocol";
 
 export type SyncState = "pending" | "synced" | "rejected";
 export type Rejection = { code: string; message: string; at: string };
@@ -34,6 +36,14 @@ export type OutboxRow = {
    */
   entry?: EntryInput;
 };
+
+/**
+ * A push answer received but not yet written into the entries it names. Writing an answer is
+ * split in two: the receipt and the removal of the answered outbox rows commit together (small
+ * writes, so the next batch goes out at once and "pending" drops as the server answers); the
+ * entries are then marked synced from the receipts, one receipt a transaction (`foldReceipts`).
+ */
+export type ReceiptRow = { n?: number; at: string; accepted: Accepted[] };
 
 export type AttachmentState = "pending" | "uploaded" | "rejected";
 export type LocalAttachment = {
@@ -90,11 +100,14 @@ export const SCHEMA_VERSIONS: readonly (readonly [number, Record<string, string>
   // the previous one ended (no walk over rows just deleted); entries lose the seq and authorId
   // indexes nothing reads (each index costs on every write).
   [3, { entries: "id, cryostatId, runId, sync, [cryostatId+seq], [cryostatId+sync+recordedAt]", outbox: "++n, &entryId, authorId, [authorId+n]" }],
+  // v4: push answers waiting to be written into their entries (see ReceiptRow).
+  [4, { receipts: "++n" }],
 ];
 
 export class RimelogDexie extends Dexie {
   entries!: Table<StoredLocalEntry, string>;
   outbox!: Table<OutboxRow, number>;
+  receipts!: Table<ReceiptRow, number>;
   attachments!: Table<LocalAttachment, string>;
   cryostats!: Table<RefRow, string>;
   templates!: Table<RefRow, string>;

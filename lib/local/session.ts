@@ -31,9 +31,10 @@ export async function checkSignOut(db: RimelogDexie): Promise<SignOutCheck> {
 
 /** Remove the signed-out user's data from the tablet. Other people's unsent entries stay. */
 export async function clearLocalData(db: RimelogDexie): Promise<void> {
-  await db.transaction("rw", [db.entries, db.outbox, db.attachments, db.cryostats, db.templates, db.users, db.meta], async () => {
+  await db.transaction("rw", [db.entries, db.outbox, db.receipts, db.attachments, db.cryostats, db.templates, db.users, db.meta], async () => {
     const waiting = new Set((await db.outbox.toArray()).map((o) => o.entryId));
     await db.entries.filter((e) => !waiting.has(e.id)).delete();
+    await db.receipts.clear(); // answers for entries that were just removed
     const others = new Set((await db.outbox.toArray()).map((o) => o.authorId));
     await db.attachments.filter((a) => !(a.state === "pending" && others.has(a.authorId))).delete();
     await db.cryostats.clear();

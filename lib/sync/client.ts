@@ -60,7 +60,9 @@ export async function syncOnce(db: RimelogDexie, transport: Transport, opts: Syn
   }
   if (session) {
     result.uploaded += await uploadAttachments(db, transport, session.user.id, now);
-    const pushed = await pushOutbox(db, transport, session.user.id, opts, now);
+    // Answers are written into their entries after the push (and after a failed one, as far as
+    // it got), so the server is kept busy while the tablet only records receipts.
+    const pushed = await pushOutbox(db, transport, session.user.id, opts, now).finally(() => foldReceipts(db));
     result.accepted += pushed.accepted;
     result.rejected += pushed.rejected;
   }
@@ -214,34 +216,61 @@ async function markRejected(db: RimelogDexie, rejected: { id: string; code: stri
 }
 
 /**
- * Apply a push answer in one transaction. Only entries of the batch sent are touched; an answered
- * entry leaves the outbox, an unanswered one stays queued. An entry still in the outbox is
- * pending on this tablet, so its new state is written from the copy sent, without reading it
- * again; the answer carries the server's whole link (seq, hash, prevHash, receivedAt), so this
- * is exactly the copy a pull would bring.
+ * Record a push answer in one transaction. Only entries of the batch sent count; an answered
+ * entry leaves the outbox, an unanswered one stays queued. The accepted ones are kept as one
+ * receipt row (the server's whole link for each: seq, hash, prevHash, receivedAt), written into
+ * the entries by `foldReceipts`; a refused entry is marked at once, from the copy sent, with the
+ * server's reason. Both commit together with the outbox removal, so no answer is ever half kept.
  */
 export async function applyPushReply(db: RimelogDexie, reply: PushReply, sent: { rows: OutboxRow[]; list: EntryInput[] }, now: () => Date): Promise<Tally> {
   const byId = new Map(sent.list.map((e, i) => [e.id, { entry: e, row: sent.rows[i]! }]));
   const acc = reply.accepted.filter((a) => byId.has(a.id));
   const accIds = new Set(acc.map((a) => a.id));
   const rej = reply.rejected.filter((r) => byId.has(r.id) && !accIds.has(r.id));
+  if (acc.length + rej.length === 0) return { accepted: 0, rejected: 0 };
   const at = now().toISOString();
-  const updated: StoredLocalEntry[] = [
-    ...acc.map((a) => ({ ...pendingEntry(byId.get(a.id)!.entry), sync: "synced" as const, seq: a.seq, hash: a.hash, prevHash: a.prevHash, receivedAt: a.receivedAt })),
-    ...rej.map((r) => ({ ...pendingEntry(byId.get(r.id)!.entry), sync: "rejected" as const, rejection: { code: r.code, message: r.message, at } })),
-  ];
-  if (updated.length === 0) return { accepted: 0, rejected: 0 };
-  await db.transaction("rw", [db.entries, db.outbox], async () => {
-    await db.entries.bulkPut(updated);
+  const refused: StoredLocalEntry[] = rej.map((r) => ({ ...pendingEntry(byId.get(r.id)!.entry), sync: "rejected", rejection: { code: r.code, message: r.message, at } }));
+  await db.transaction("rw", [db.entries, db.outbox, db.receipts], async () => {
+    if (acc.length) {
+      await db.receipts.add({ at, accepted: acc.map(({ id, seq, hash, prevHash, receivedAt }) => ({ id, seq, hash, prevHash, receivedAt })) });
+    }
+    if (refused.length) await db.entries.bulkPut(refused);
     // By primary key, only this batch's rows: one range when they are consecutive (the usual
     // case; another author's row in between would make them not so), else key by key.
-    const ns = updated.map((e) => byId.get(e.id)!.row.n!).sort((a, b) => a - b);
+    const ns = [...acc, ...rej].map((a) => byId.get(a.id)!.row.n!).sort((a, b) => a - b);
     const first = ns[0]!;
     const last = ns.at(-1)!;
     if (last - first + 1 === ns.length) await db.outbox.where(":id").between(first, last, true, true).delete();
     else await db.outbox.bulkDelete(ns);
   });
   return { accepted: acc.length, rejected: rej.length };
+}
+
+/**
+ * Write the receipts into their entries, oldest first, one receipt a transaction (a tap waits
+ * for at most one). An entry still pending becomes the server's copy; one already holding it
+ * (a pull came first) or gone from the tablet (its author signed out) is left as it is.
+ * Returns how many entries were marked synced.
+ */
+export async function foldReceipts(db: RimelogDexie): Promise<number> {
+  let marked = 0;
+  for (;;) {
+    const done = await db.transaction("rw", [db.entries, db.receipts], async () => {
+      const receipt = await db.receipts.orderBy(":id").first();
+      if (!receipt) return null;
+      const locals = await db.entries.bulkGet(receipt.accepted.map((a) => a.id));
+      const put: StoredLocalEntry[] = [];
+      receipt.accepted.forEach((a, i) => {
+        const local = locals[i];
+        if (local && local.seq === null) put.push({ ...local, sync: "synced", seq: a.seq, hash: a.hash, prevHash: a.prevHash, receivedAt: a.receivedAt, rejection: null });
+      });
+      if (put.length) await db.entries.bulkPut(put);
+      await db.receipts.delete(receipt.n!);
+      return put.length;
+    });
+    if (done === null) return marked;
+    marked += done;
+  }
 }
 
 async function pullAll(db: RimelogDexie, transport: Transport, now: () => Date): Promise<number> {

@@ -57,7 +57,12 @@ export function genesisHash(chain: string): string {
   return sha256Hex(`rimelog-genesis:${chain}`);
 }
 
-/** Chain link: hash over prevHash + canonical entry including its server sequence number. */
+/** The text a chain link hashes: prevHash + canonical entry including its server sequence number. */
+export function linkText(prevHash: string, e: EntryInput, seq: number, receivedAt: string): string {
+  return prevHash + canonicalJson({ ...recordContent(e), seq, receivedAt });
+}
+
+/** Chain link: SHA-256 of linkText (the server computes the same with node's native SHA-256). */
 export function linkHash(prevHash: string, e: EntryInput, seq: number, receivedAt: string): string {
-  return sha256Hex(prevHash + canonicalJson({ ...recordContent(e), seq, receivedAt }));
+  return sha256Hex(linkText(prevHash, e, seq, receivedAt));
 }

@@ -1,7 +1,8 @@
 // The tablet's push loop against the real server code: batches leave in order of writing while the
 // previous answer is still being written, a 413 halves the batch from the same place, another
 // person's queued rows in between are left alone, a failure half-way keeps every unanswered row
-// queued (S3), and rows queued by the schema-v2 app (no entry in the row) are still sent.
+// queued (S3), an answer kept as a receipt survives a crash before it reaches its entries, and rows
+// queued by the schema-v2 app (no entry in the row) are still sent.
 import Dexie from "dexie";
 import { asc, eq } from "drizzle-orm";
 import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
@@ -12,7 +13,7 @@ import { entries } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie, SCHEMA_VERSIONS } from "@/lib/local/db";
 import { confirmSession, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
-import { syncOnce, toInput, TransportError, type Transport } from "@/lib/sync/client";
+import { applyPushReply, syncOnce, toInput, TransportError, type Transport } from "@/lib/sync/client";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { applyPush, pullPage } from "@/lib/sync/server";
 import { freshDb } from "./fixture";
@@ -118,12 +119,43 @@ describe("pushing a long outbox", () => {
     // Two batches answered (and written, even the one still being written when the third failed).
     expect(await t.outbox.count()).toBe(20);
     expect(await t.entries.where("sync").equals("synced").count()).toBe(20);
+    expect(await t.receipts.count()).toBe(0); // written into their entries despite the failure
 
     const again = server(() => tomasz);
     await syncOnce(t, again.transport, { maxBatch: 10 });
     expect(await t.outbox.count()).toBe(0);
     expect(again.sent.flat()).toHaveLength(20);
     expect(await db.$count(entries, eq(entries.deviceId, (await t.getMeta("deviceId"))!))).toBe(40);
+  });
+
+  it("keeps an answer as a receipt until it is written into its entries; the next round writes one a crash left", async () => {
+    const t = tablet("crash");
+    await confirmSession(t, tomasz);
+    const written = await recordEntriesIn(t, readings(5, "r"));
+    // The answer arrives and its receipt commits with the outbox removal; then the tab dies.
+    const rows = await t.outbox.orderBy("n").toArray();
+    const list = rows.map((r) => r.entry!);
+    const reply = await applyPush(db, tomasz, JSON.parse(JSON.stringify({ entries: list })));
+    expect(await applyPushReply(t, reply, { rows, list }, () => new Date())).toEqual({ accepted: 5, rejected: 0 });
+    expect(await t.outbox.count()).toBe(0); // nothing is pending: the server holds all five
+    expect(await t.receipts.count()).toBe(1);
+    expect((await t.entries.bulkGet(written.map((e) => e.id))).map((e) => e?.sync)).toEqual(Array(5).fill("pending"));
+    // Meanwhile one entry left the tablet (its author signed out elsewhere in the test's story).
+    await t.entries.delete(written[4]!.id);
+    t.close();
+
+    const again = tablet("crash");
+    const { transport, sent } = server(() => tomasz);
+    await syncOnce(again, transport);
+    expect(sent).toHaveLength(0); // nothing sent twice
+    expect(await again.receipts.count()).toBe(0);
+    const server_ = await stored(written.map((e) => e.id));
+    const local = await again.entries.bulkGet(written.map((e) => e.id));
+    expect(local[4]?.sync).toBe("synced"); // brought back by the round's pull, as the server holds it
+    for (const [i, e] of server_.entries()) {
+      const { chain: _chain, ...copy } = e;
+      expect(local[i]).toEqual({ ...copy, sync: "synced", rejection: null });
+    }
   });
 
   it("sends rows queued by the schema-v2 app, which carry no copy of their entry", async () => {
