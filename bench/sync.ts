@@ -20,7 +20,7 @@ import { entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie } from "@/lib/local/db";
-import { confirmSession, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
+import { buildEntry, confirmSession, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
 import { syncOnce, type Transport } from "@/lib/sync/client";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
 import { applyPush } from "@/lib/sync/server";
@@ -144,6 +144,16 @@ async function benchTap() {
     stdio: "ignore",
     env: { ...process.env, NODE_ENV: "production", NEXT_DIST_DIR: dist, RIMELOG_DATA_DIR: join(work, "db"), RIMELOG_STORAGE_DIR: join(work, "files"), AUTH_SECRET: randomBytes(24).toString("hex"), NEXTAUTH_URL: base, AUTH_TRUST_HOST: "true" },
   });
+  const stopServer = async () => {
+    if (server.exitCode !== null || server.signalCode !== null) return;
+    const gone = new Promise((r) => server.once("exit", r));
+    try {
+      process.kill(-server.pid!, "SIGTERM");
+    } catch {
+      return; // already gone
+    }
+    await gone;
+  };
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH || "/usr/bin/chromium",
     args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
@@ -165,6 +175,20 @@ async function benchTap() {
     await page.waitForURL((u) => u.pathname === "/");
     await page.getByRole("heading", { level: 2, name: "Wren" }).waitFor({ timeout: 60_000 });
     await page.goto("/cryostats/wren");
+    if (process.env.BENCH_TXLOG) {
+      // Every IndexedDB transaction the page opens from now on: when, which stores, how long.
+      await page.evaluate(`(() => {
+        const log = (window.__tx = []);
+        const open = IDBDatabase.prototype.transaction;
+        IDBDatabase.prototype.transaction = function (stores, mode, opts) {
+          const tx = open.call(this, stores, mode, opts);
+          const rec = { t0: performance.now(), stores: [].concat(stores).join(","), mode: mode || "readonly", end: null };
+          log.push(rec);
+          for (const ev of ["complete", "abort", "error"]) tx.addEventListener(ev, () => (rec.end = performance.now()));
+          return tx;
+        };
+      })()`);
+    }
     await page.getByRole("tab", { name: "Note" }).click();
     // Each tap: type a note, tap "Save note", wait for "saved". Back to back (a stress rate: the
     // store's live queries from one save still run when the next comes), then at a working pace
@@ -185,7 +209,8 @@ async function benchTap() {
                 if (n.textContent && n.textContent.includes("saved on this tablet")) {
                   obs.disconnect();
                   const mark = performance.getEntriesByName("rimelog:entry-durable")[0];
-                  resolve({ durable: mark ? mark.startTime - t0 : NaN, shown: performance.now() - t0 });
+                  const txs = (window.__tx || []).filter((x) => x.t0 > t0 - 300).map((x) => ({ at: x.t0 - t0, ms: x.end === null ? null : x.end - x.t0, mode: x.mode, stores: x.stores }));
+                  resolve({ durable: mark ? mark.startTime - t0 : NaN, shown: performance.now() - t0, txs });
                   return;
                 }
           });
@@ -193,6 +218,14 @@ async function benchTap() {
           button.click();
         })`)) as { durable: number; shown: number };
         if (i >= 10) times.push(t); // the first few warm up the JIT and IndexedDB
+        if (process.env.BENCH_TXLOG && t.durable > 30) {
+          // A slow tap and the transactions around it (ms after the tap; a readwrite waits for
+          // every earlier transaction on the same stores).
+          console.log(`slow tap: ${t.durable.toFixed(1)} ms`);
+          for (const x of (t as { txs?: { at: number; ms: number | null; mode: string; stores: string }[] }).txs ?? []) {
+            console.log(`  ${x.at.toFixed(1).padStart(7)} ms  ${x.ms === null ? "  open" : x.ms.toFixed(1).padStart(6)} ms  ${x.mode.padEnd(9)} ${x.stores}`);
+          }
+        }
       }
       return times;
     };
@@ -289,18 +322,34 @@ async function benchTap() {
       if (!body.hasMore) break;
     }
     const values = rows.map((e) => ({ ...(e as EntryRowIn), recordedAt: new Date(e.recordedAt as string), receivedAt: new Date(e.receivedAt as string) }));
-    // The baselines run on a quiet machine: the browser (still pulling) is closed first.
-    await browser.close();
+
+    // The server's share over HTTP: the same kind of push sent from here (no browser work beside
+    // it), batch by batch as the tablet sends them, with the tablet page closed.
+    const deviceId = (rows[0] as { deviceId: string }).deviceId;
+    await page.goto("about:blank");
     await new Promise((r) => setTimeout(r, 1000));
-    report(`browser push of ${N} queued entries over HTTP (Chromium IndexedDB → /api/sync/push → PGlite), "online" to nothing pending`, pushMs, await rawInserts(values), values.length);
+    const drafts = Array.from({ length: N }, (_, i) => buildEntry({ cryostatId: i % 3 ? "heron" : "wren", kind: "reading", payload: { quantity: "Temperature", stage: "still", value: 0.7 + (i % 50) / 1000, unit: "K" } }, tomasz.id, deviceId, new Date(Date.now() + i)));
+    const sizes = [200, ...Array.from({ length: Math.ceil((N - 200) / PUSH_LIMITS.maxEntries) }, () => PUSH_LIMITS.maxEntries)];
+    let serverOwn = 0;
+    const tHttp = performance.now();
+    for (let at = 0, k = 0; at < drafts.length; at += sizes[k]!, k++) {
+      const res = await page.request.post("/api/sync/push", { data: { entries: drafts.slice(at, at + sizes[k]!) }, headers: { origin: base } });
+      if (!res.ok()) throw new Error(`push from node: ${res.status()} ${await res.text()}`);
+      serverOwn += Number(/apply;dur=([\d.]+)/.exec(res.headers()["server-timing"] ?? "")?.[1] ?? NaN);
+    }
+    const httpMs = performance.now() - tHttp;
+
+    // The baselines run on a quiet machine: the browser and the server are stopped first.
+    await browser.close();
+    await stopServer();
+    const raw = await rawInserts(values);
+    report(`browser push of ${N} queued entries over HTTP (Chromium IndexedDB → /api/sync/push → PGlite), "online" to nothing pending`, pushMs, raw, values.length);
     console.log(`  … and every answer written into the tablet's entries (receipts folded) ${ms(foldMs)} after "online"`);
+    report(`the same push sent from Node over HTTP (no browser beside the server), batch after batch`, httpMs, raw, values.length);
+    console.log(`  … of which the server's own apply (Server-Timing): ${ms(serverOwn)}`);
   } finally {
     await browser.close();
-    try {
-      process.kill(-server.pid!, "SIGTERM");
-    } catch {
-      /* already gone */
-    }
+    await stopServer();
     rmSync(work, { recursive: true, force: true });
   }
 }

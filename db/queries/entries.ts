@@ -47,7 +47,8 @@ export async function appendEntries(
     if (batch.length === 0) return { accepted, rejected };
 
     const ids = batch.map((e) => e.id);
-    const existing = await t.select().from(entries).where(inArray(entries.id, ids));
+    // The ids as one JSON parameter, not one bound parameter each (a push may carry 2,000).
+    const existing = await t.select().from(entries).where(sql`${entries.id} in (select json_array_elements_text(${JSON.stringify(ids)}::json)::uuid)`);
     const existingById = new Map(existing.map((r) => [r.id, r]));
 
     const deviceIds = [...new Set(batch.map((e) => e.deviceId))];

@@ -100,8 +100,10 @@ export const SCHEMA_VERSIONS: readonly (readonly [number, Record<string, string>
   // the previous one ended (no walk over rows just deleted); entries lose the seq and authorId
   // indexes nothing reads (each index costs on every write).
   [3, { entries: "id, cryostatId, runId, sync, [cryostatId+seq], [cryostatId+sync+recordedAt]", outbox: "++n, &entryId, authorId, [authorId+n]" }],
-  // v4: push answers waiting to be written into their entries (see ReceiptRow).
-  [4, { receipts: "++n" }],
+  // v4: push answers waiting to be written into their entries (see ReceiptRow); entries by kind
+  // (and by cryostat and kind), so "the open runs" or "the last transfer" read only those
+  // entries, and a note saved on the same cryostat does not make them read again.
+  [4, { entries: "id, cryostatId, runId, sync, kind, [cryostatId+seq], [cryostatId+sync+recordedAt], [cryostatId+kind]", receipts: "++n" }],
 ];
 
 export class RimelogDexie extends Dexie {

@@ -17,6 +17,10 @@ export async function queryEntries(db: RimelogDexie, f: EntryFilter = {}): Promi
   if (typeof f.cryostatId === "string" && f.limit && !f.runId && !f.kinds) return newestOfCryostat(db, f.cryostatId, f.limit);
   let list: StoredLocalEntry[];
   if (f.runId) list = await db.entries.where("runId").equals(f.runId).toArray();
+  else if (f.kinds && typeof f.cryostatId === "string") {
+    const c = f.cryostatId;
+    list = await db.entries.where("[cryostatId+kind]").anyOf(f.kinds.map((k) => [c, k])).toArray();
+  } else if (f.kinds) list = await db.entries.where("kind").anyOf(f.kinds).toArray();
   else if (typeof f.cryostatId === "string") list = await db.entries.where("cryostatId").equals(f.cryostatId).toArray();
   else list = await db.entries.toArray();
   list = list.filter(

@@ -114,34 +114,77 @@ export function pendingEntry(e: EntryInput): StoredLocalEntry {
   return { ...e, sync: "pending", seq: null, hash: null, prevHash: null, receivedAt: null, rejection: null };
 }
 
+/** Who the last write on a store was made for (user and device), as read inside its transaction. */
+type Signer = { user: SessionUser; deviceId: string };
+const lastSigner = new WeakMap<RimelogDexie, Signer>();
+
+/** The signature, role check, validation and rows of one write, made before its transaction. */
+function prepare(drafts: EntryDraft[], signer: Signer, now: Date): { stored: StoredLocalEntry[]; rows: OutboxRow[] } {
+  for (const d of drafts) {
+    if (!mayWrite(signer.user.role, d.kind)) {
+      throw new LocalWriteError("forbidden", `A ${signer.user.role.replace("_", " ")} may not record entries of kind "${d.kind}".`);
+    }
+  }
+  // Built (and so validated) before anything is written: an invalid draft writes nothing.
+  const built = drafts.map((d) => buildEntry(d, signer.user.id, signer.deviceId, now));
+  const rows = built.map((e) => ({ entryId: e.id, authorId: e.authorId, queuedAt: now.toISOString(), bytes: canonicalJson(e).length, entry: e }));
+  return { stored: built.map(pendingEntry), rows };
+}
+
+/** The write was prepared for someone who is no longer the signed-in user on this tablet. */
+class StaleSigner extends Error {}
+
 /**
  * Record several entries atomically: all of them with their outbox rows in one transaction, or
  * none. Resolves only after the transaction has committed (strict durability).
+ *
+ * A tap is on the clock, so the transaction does no work between its requests: the entries are
+ * prepared beforehand for the person the previous write on this store was made for, and the
+ * writes go out together with the read of who is signed in now. If that read shows someone else
+ * (or another device id, or an expired session), the transaction is aborted — nothing is written
+ * — and the write is prepared again for the person the store names. The first write on a store
+ * reads first, then writes.
  */
 export async function recordEntriesIn(db: RimelogDexie, drafts: EntryDraft[], now = new Date()): Promise<StoredLocalEntry[]> {
   if (drafts.length === 0) return [];
   let stored: StoredLocalEntry[] = [];
   try {
-    await db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
-      // A tap is on the clock: one read for both meta rows, and the two writes queued together.
-      const [session, knownDevice] = await db.getMetas("session", "deviceId");
-      const problem = sessionProblem(session, now.getTime());
-      if (problem || !session) throw problem;
-      const user = session.user;
-      for (const d of drafts) {
-        if (!mayWrite(user.role, d.kind)) {
-          throw new LocalWriteError("forbidden", `A ${user.role.replace("_", " ")} may not record entries of kind "${d.kind}".`);
+    const hint = lastSigner.get(db);
+    let ready: ReturnType<typeof prepare> | null = null;
+    try {
+      ready = hint ? prepare(drafts, hint, now) : null;
+    } catch {
+      ready = null; // refused for the person of the hint: prepared (and refused or not) below for the person signed in
+    }
+    try {
+      if (!hint || !ready) throw new StaleSigner();
+      const { stored: entries, rows } = ready;
+      await db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
+        const writes: Promise<unknown>[] = [db.entries.bulkAdd(entries), db.outbox.bulkAdd(rows)];
+        for (const w of writes) w.catch(() => undefined); // awaited below, or undone by the abort
+        const [session, deviceId] = await db.getMetas("session", "deviceId");
+        if (!session || sessionProblem(session, now.getTime()) || deviceId !== hint.deviceId || session.user.id !== hint.user.id || session.user.role !== hint.user.role) {
+          throw new StaleSigner(); // aborts the transaction: the writes above are undone
         }
-      }
-      const deviceId = knownDevice ?? newDeviceId();
-      // Built (and so validated) before anything is written: an invalid draft writes nothing.
-      const built = drafts.map((d) => buildEntry(d, user.id, deviceId, now));
-      stored = built.map(pendingEntry);
-      const rows: OutboxRow[] = built.map((e) => ({ entryId: e.id, authorId: e.authorId, queuedAt: now.toISOString(), bytes: canonicalJson(e).length, entry: e }));
-      const writes: Promise<unknown>[] = [db.entries.bulkAdd(stored), db.outbox.bulkAdd(rows)];
-      if (!knownDevice) writes.push(db.setMeta("deviceId", deviceId));
-      await Promise.all(writes);
-    });
+        await Promise.all(writes);
+      });
+      stored = entries;
+    } catch (e) {
+      if (!(e instanceof StaleSigner)) throw e;
+      lastSigner.delete(db);
+      await db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
+        const [session, knownDevice] = await db.getMetas("session", "deviceId");
+        const problem = sessionProblem(session, now.getTime());
+        if (problem || !session) throw problem;
+        const signer = { user: session.user, deviceId: knownDevice ?? newDeviceId() };
+        const fresh = prepare(drafts, signer, now);
+        const writes: Promise<unknown>[] = [db.entries.bulkAdd(fresh.stored), db.outbox.bulkAdd(fresh.rows)];
+        if (!knownDevice) writes.push(db.setMeta("deviceId", signer.deviceId));
+        await Promise.all(writes);
+        stored = fresh.stored;
+        lastSigner.set(db, signer);
+      });
+    }
   } catch (e) {
     throw toLocalWriteError(e);
   }

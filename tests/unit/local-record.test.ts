@@ -4,7 +4,7 @@ import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { describe, expect, it } from "vitest";
 import { RimelogDexie } from "@/lib/local/db";
 import { queryEntries, syncSummary } from "@/lib/local/queries";
-import { confirmSession, LocalWriteError, OFFLINE_SESSION_MS, putAttachmentIn, recordEntriesIn } from "@/lib/local/store";
+import { confirmSession, LocalWriteError, OFFLINE_SESSION_MS, putAttachmentIn, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
 
 const tomasz = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" as const };
 
@@ -52,6 +52,34 @@ describe("tablet store: recording", () => {
     expect(await db.entries.count()).toBe(0);
   });
 
+  it("stamps each write for whoever is signed in now, even right after someone else wrote", async () => {
+    // A write goes out prepared for the previous writer and is checked inside its transaction.
+    const db = tablet();
+    const note = (text: string) => [{ cryostatId: "wren", kind: "note", payload: { text } }] as EntryDraft[];
+    await confirmSession(db, tomasz);
+    const [a] = await recordEntriesIn(db, note("tomasz"));
+    const priya = { id: "u-priya", email: "priya@larchmere.example", name: "Priya Lindqvist", role: "technician" } as const;
+    await confirmSession(db, priya);
+    const [b] = await recordEntriesIn(db, note("priya"));
+    expect([a!.authorId, b!.authorId]).toEqual(["u-tomasz", "u-priya"]);
+    // The safety officer signs in on the same tablet: a magnet setting, Priya's to record, is not hers.
+    await confirmSession(db, { id: "u-grace", email: "grace@larchmere.example", name: "Dr. Grace Oyelaran", role: "safety_officer" });
+    const field = [{ cryostatId: "wren", kind: "field.setting", payload: { currentA: 10, fieldT: 1, persistent: false } }] as EntryDraft[];
+    await expect(recordEntriesIn(db, field)).rejects.toMatchObject({ code: "forbidden" });
+    // The session ran out, then nobody is signed in: refused, and nothing half-written.
+    await confirmSession(db, priya, new Date(Date.now() - OFFLINE_SESSION_MS - 60_000));
+    await expect(recordEntriesIn(db, note("late"))).rejects.toMatchObject({ code: "session_expired" });
+    await db.meta.delete("session");
+    await expect(recordEntriesIn(db, note("nobody"))).rejects.toMatchObject({ code: "no_session" });
+    // Another device id (the store was reset): the write carries the one the store names.
+    await confirmSession(db, priya);
+    await db.setMeta("deviceId", "tab-replaced");
+    const [c] = await recordEntriesIn(db, note("new device"));
+    expect(c!.deviceId).toBe("tab-replaced");
+    expect((await db.entries.toArray()).map((e) => e.authorId).sort()).toEqual(["u-priya", "u-priya", "u-tomasz"]);
+    expect(await db.outbox.count()).toBe(3);
+  });
+
   it("keeps a photo for upload and refuses an empty one", async () => {
     const db = tablet();
     await confirmSession(db, tomasz);
@@ -79,5 +107,28 @@ describe("tablet store: reading a cryostat's newest entries", () => {
     const all = await queryEntries(db, { cryostatId: "wren" });
     expect(all.length).toBe(16);
     expect(all.slice(0, 4).map((e) => e.id)).toEqual(got.map((e) => e.id));
+  });
+});
+
+describe("tablet store: reading entries of some kinds", () => {
+  it("reads them by kind (per cryostat, across cryostats, or facility-wide), newest first", async () => {
+    const db = tablet();
+    await confirmSession(db, tomasz);
+    const at = (i: number) => new Date(Date.UTC(2026, 10, 2, 0, i));
+    const reading = { quantity: "Temperature", stage: "still", value: 0.8, unit: "K" };
+    const plan = [["wren", "note"], ["wren", "reading"], ["heron", "reading"], [null, "note"], ["wren", "reading"]] as const;
+    const written: { id: string }[] = [];
+    for (const [i, [cryostatId, kind]] of plan.entries()) {
+      const [e] = await recordEntriesIn(db, [{ cryostatId, kind, payload: kind === "note" ? { text: `n${i}` } : reading } as EntryDraft], at(i));
+      written.push(e!);
+    }
+    const ids = (xs: { id: string }[]) => xs.map((e) => e.id);
+    const w = (...is: number[]) => is.map((i) => written[i]!.id);
+    expect(ids(await queryEntries(db, { cryostatId: "wren", kinds: ["reading"] }))).toEqual(w(4, 1));
+    expect(ids(await queryEntries(db, { cryostatId: "wren", kinds: ["reading"], limit: 1 }))).toEqual(w(4));
+    expect(ids(await queryEntries(db, { kinds: ["reading"] }))).toEqual(w(4, 2, 1));
+    expect(ids(await queryEntries(db, { cryostatId: null, kinds: ["note"] }))).toEqual(w(3));
+    expect(ids(await queryEntries(db, { cryostatId: "wren", kinds: ["note", "reading"] }))).toEqual(w(4, 1, 0));
+    expect(ids(await queryEntries(db, { cryostatId: "heron", kinds: ["note"] }))).toEqual([]);
   });
 });
