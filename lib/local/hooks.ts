@@ -6,7 +6,7 @@ import { useEffect, useMemo, useState } from "react";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 import type { TemplateStep } from "@/lib/schemas/template";
 import { localDb, type StoredLocalEntry } from "./db";
-import { queryEntries, syncSummary, type EntryFilter, type SyncSummary } from "./queries";
+import { queryEntries, queryEntry, syncSummary, type EntryFilter, type SyncSummary } from "./queries";
 
 export type LocalCryostat = { id: string; name: string; kind: string; location: string; config: CryostatConfig; updatedAt: string };
 export type LocalTemplate = {
@@ -27,7 +27,7 @@ export function useEntries(filter: EntryFilter = {}): StoredLocalEntry[] | undef
 }
 
 export function useEntry(id: string | undefined): StoredLocalEntry | null | undefined {
-  return useLiveQuery(async () => (id ? ((await localDb().entries.get(id)) ?? null) : null), [id]);
+  return useLiveQuery(async () => (id ? queryEntry(localDb(), id) : null), [id]);
 }
 
 export function useCryostats(): LocalCryostat[] | undefined {

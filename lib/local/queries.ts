@@ -13,6 +13,26 @@ export function newestFirst(a: StoredLocalEntry, b: StoredLocalEntry): number {
   return (b.seq ?? 0) - (a.seq ?? 0);
 }
 
+/**
+ * An entry is unsent while its outbox row exists (the outbox is the truth). Between the server's
+ * answer and the moment that answer is written into the entry (a receipt, see foldReceipts in
+ * lib/sync/client.ts) the entry itself still says "pending": it is shown as synced from the
+ * moment its outbox row is gone, so the rows agree with the pending count.
+ */
+async function withSendState(db: RimelogDexie, list: StoredLocalEntry[]): Promise<StoredLocalEntry[]> {
+  const pending = list.filter((e) => e.sync === "pending");
+  if (pending.length === 0) return list;
+  const queued = new Set(await db.outbox.where("entryId").anyOf(pending.map((e) => e.id)).keys());
+  if (queued.size === pending.length) return list;
+  return list.map((e) => (e.sync === "pending" && !queued.has(e.id) ? { ...e, sync: "synced" } : e));
+}
+
+/** One entry as the screens show it (see withSendState), or null. */
+export async function queryEntry(db: RimelogDexie, id: string): Promise<StoredLocalEntry | null> {
+  const e = await db.entries.get(id);
+  return e ? ((await withSendState(db, [e]))[0] ?? null) : null;
+}
+
 export async function queryEntries(db: RimelogDexie, f: EntryFilter = {}): Promise<StoredLocalEntry[]> {
   if (typeof f.cryostatId === "string" && f.limit && !f.runId && !f.kinds) return newestOfCryostat(db, f.cryostatId, f.limit);
   let list: StoredLocalEntry[];
@@ -30,7 +50,7 @@ export async function queryEntries(db: RimelogDexie, f: EntryFilter = {}): Promi
       (!f.kinds || f.kinds.includes(e.kind)),
   );
   list.sort(newestFirst);
-  return f.limit ? list.slice(0, f.limit) : list;
+  return withSendState(db, f.limit ? list.slice(0, f.limit) : list);
 }
 
 /**
@@ -38,7 +58,7 @@ export async function queryEntries(db: RimelogDexie, f: EntryFilter = {}): Promi
  * then the synced ones from the [cryostatId+seq] index, newest first, up to `limit`.
  */
 async function newestOfCryostat(db: RimelogDexie, cryostatId: string, limit: number): Promise<StoredLocalEntry[]> {
-  return db.transaction("r", db.entries, () => newestOfCryostatIn(db, cryostatId, limit));
+  return db.transaction("r", [db.entries, db.outbox], async () => withSendState(db, await newestOfCryostatIn(db, cryostatId, limit)));
 }
 
 async function newestOfCryostatIn(db: RimelogDexie, cryostatId: string, limit: number): Promise<StoredLocalEntry[]> {

@@ -12,6 +12,7 @@ import { toStoredRow } from "@/db/queries/stored";
 import { entries } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie, SCHEMA_VERSIONS } from "@/lib/local/db";
+import { queryEntries, queryEntry } from "@/lib/local/queries";
 import { confirmSession, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
 import { applyPushReply, syncOnce, toInput, TransportError, type Transport } from "@/lib/sync/client";
 import type { EntryInput } from "@/lib/schemas/entry";
@@ -140,6 +141,10 @@ describe("pushing a long outbox", () => {
     expect(await t.outbox.count()).toBe(0); // nothing is pending: the server holds all five
     expect(await t.receipts.count()).toBe(1);
     expect((await t.entries.bulkGet(written.map((e) => e.id))).map((e) => e?.sync)).toEqual(Array(5).fill("pending"));
+    // The screens read them as sent already (no outbox row), in step with the pending count.
+    const shown = [...(await queryEntries(t, { cryostatId: "wren" })), ...(await queryEntries(t, { cryostatId: "heron", limit: 10 }))];
+    expect(shown.map((e) => e.sync)).toEqual(Array(5).fill("synced"));
+    expect((await queryEntry(t, written[0]!.id))?.sync).toBe("synced");
     // Meanwhile one entry left the tablet (its author signed out elsewhere in the test's story).
     await t.entries.delete(written[4]!.id);
     t.close();
