@@ -67,10 +67,6 @@ const projectors: Projector[] = [
   mailProjector,
 ];
 
-export function registerProjector(projector: Projector): void {
-  projectors.push(projector);
-}
-
 /** True when some check looks at this entry (else it needs no look at the log). */
 export function checkedAgainstLog(e: EntryInput): boolean {
   return checks.some((c) => c.when(e));

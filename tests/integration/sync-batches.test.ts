@@ -145,7 +145,8 @@ describe("pushing a long outbox", () => {
     const shown = [...(await queryEntries(t, { cryostatId: "wren" })), ...(await queryEntries(t, { cryostatId: "heron", limit: 10 }))];
     expect(shown.map((e) => e.sync)).toEqual(Array(5).fill("synced"));
     expect((await queryEntry(t, written[0]!.id))?.sync).toBe("synced");
-    // Meanwhile one entry left the tablet (its author signed out elsewhere in the test's story).
+    // Meanwhile one entry is gone from the tablet: folding the receipt must not bring it back
+    // half-made (the round's pull brings the server's copy instead).
     await t.entries.delete(written[4]!.id);
     t.close();
 
