@@ -135,55 +135,69 @@ function prepare(drafts: EntryDraft[], signer: Signer, now: Date): { stored: Sto
 class StaleSigner extends Error {}
 
 /**
+ * Write entries prepared for `signer`, sending the writes together with the read of who is
+ * signed in now. False (and nothing written: the transaction is aborted) when the store names
+ * another person or device, or the session has run out.
+ */
+async function writePrepared(db: RimelogDexie, signer: Signer, ready: ReturnType<typeof prepare>, now: Date): Promise<boolean> {
+  try {
+    await db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
+      const writes: Promise<unknown>[] = [db.entries.bulkAdd(ready.stored), db.outbox.bulkAdd(ready.rows)];
+      for (const w of writes) w.catch(() => undefined); // awaited below, or undone by the abort
+      const [session, deviceId] = await db.getMetas("session", "deviceId");
+      if (!session || sessionProblem(session, now.getTime()) || deviceId !== signer.deviceId || session.user.id !== signer.user.id || session.user.role !== signer.user.role) {
+        throw new StaleSigner(); // aborts the transaction: the writes above are undone
+      }
+      await Promise.all(writes);
+    });
+    return true;
+  } catch (e) {
+    if (e instanceof StaleSigner) return false;
+    throw e;
+  }
+}
+
+/** Read who is signed in (and the device id, made on the first write), then write for them. */
+async function writeAfterReading(db: RimelogDexie, drafts: EntryDraft[], now: Date): Promise<StoredLocalEntry[]> {
+  return db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
+    const [session, knownDevice] = await db.getMetas("session", "deviceId");
+    const problem = sessionProblem(session, now.getTime());
+    if (problem || !session) throw problem;
+    const signer = { user: session.user, deviceId: knownDevice ?? newDeviceId() };
+    const fresh = prepare(drafts, signer, now);
+    const writes: Promise<unknown>[] = [db.entries.bulkAdd(fresh.stored), db.outbox.bulkAdd(fresh.rows)];
+    if (!knownDevice) writes.push(db.setMeta("deviceId", signer.deviceId));
+    await Promise.all(writes);
+    lastSigner.set(db, signer);
+    return fresh.stored;
+  });
+}
+
+/**
  * Record several entries atomically: all of them with their outbox rows in one transaction, or
  * none. Resolves only after the transaction has committed (strict durability).
  *
  * A tap is on the clock, so the transaction does no work between its requests: the entries are
  * prepared beforehand for the person the previous write on this store was made for, and the
  * writes go out together with the read of who is signed in now. If that read shows someone else
- * (or another device id, or an expired session), the transaction is aborted — nothing is written
- * — and the write is prepared again for the person the store names. The first write on a store
- * reads first, then writes.
+ * (or another device id, or an expired session), nothing is written and the write is made again
+ * for the person the store names. The first write on a store reads first, then writes.
  */
 export async function recordEntriesIn(db: RimelogDexie, drafts: EntryDraft[], now = new Date()): Promise<StoredLocalEntry[]> {
   if (drafts.length === 0) return [];
-  let stored: StoredLocalEntry[] = [];
+  let stored: StoredLocalEntry[];
   try {
     const hint = lastSigner.get(db);
     let ready: ReturnType<typeof prepare> | null = null;
     try {
       ready = hint ? prepare(drafts, hint, now) : null;
     } catch {
-      ready = null; // refused for the person of the hint: prepared (and refused or not) below for the person signed in
+      // Refused for the person of the hint: made (and refused or not) for the person signed in.
     }
-    try {
-      if (!hint || !ready) throw new StaleSigner();
-      const { stored: entries, rows } = ready;
-      await db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
-        const writes: Promise<unknown>[] = [db.entries.bulkAdd(entries), db.outbox.bulkAdd(rows)];
-        for (const w of writes) w.catch(() => undefined); // awaited below, or undone by the abort
-        const [session, deviceId] = await db.getMetas("session", "deviceId");
-        if (!session || sessionProblem(session, now.getTime()) || deviceId !== hint.deviceId || session.user.id !== hint.user.id || session.user.role !== hint.user.role) {
-          throw new StaleSigner(); // aborts the transaction: the writes above are undone
-        }
-        await Promise.all(writes);
-      });
-      stored = entries;
-    } catch (e) {
-      if (!(e instanceof StaleSigner)) throw e;
+    if (hint && ready && (await writePrepared(db, hint, ready, now))) stored = ready.stored;
+    else {
       lastSigner.delete(db);
-      await db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
-        const [session, knownDevice] = await db.getMetas("session", "deviceId");
-        const problem = sessionProblem(session, now.getTime());
-        if (problem || !session) throw problem;
-        const signer = { user: session.user, deviceId: knownDevice ?? newDeviceId() };
-        const fresh = prepare(drafts, signer, now);
-        const writes: Promise<unknown>[] = [db.entries.bulkAdd(fresh.stored), db.outbox.bulkAdd(fresh.rows)];
-        if (!knownDevice) writes.push(db.setMeta("deviceId", signer.deviceId));
-        await Promise.all(writes);
-        stored = fresh.stored;
-        lastSigner.set(db, signer);
-      });
+      stored = await writeAfterReading(db, drafts, now);
     }
   } catch (e) {
     throw toLocalWriteError(e);

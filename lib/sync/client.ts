@@ -299,7 +299,7 @@ async function pullAll(db: RimelogDexie, transport: Transport, now: () => Date):
  * applied: the previous view is forgotten and the pull restarts from zero.
  */
 export async function applyPull(db: RimelogDexie, reply: PullReply, now: () => Date): Promise<{ cursor: number; restart: boolean }> {
-  return db.transaction("rw", [db.entries, db.outbox, db.meta, db.cryostats, db.templates, db.users, db.attachments], async () => {
+  return db.transaction("rw", [db.entries, db.outbox, db.meta, db.cryostats, db.templates, db.users], async () => {
     const session = await db.getMeta("session");
     const at = now();
     // The offline session is renewed by every good contact; written again only when who it is
