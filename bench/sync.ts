@@ -9,7 +9,7 @@
 //    entries pushed from Chromium over HTTP until nothing is pending, against the raw inserts.
 import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
-import { mkdtempSync, rmSync } from "node:fs";
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
@@ -116,6 +116,37 @@ async function benchPush() {
   report(`push ${N} queued entries (client on fake-indexeddb + server, in process)`, pushMs, raw, rows.length);
   report(`  of which the server's apply (validate, role check, hash chain, insert)`, serverMs, raw, rows.length);
   await db.$client.close();
+}
+
+/**
+ * CPU seconds (user + system) used so far by each process under `root` (Linux /proc), keyed by
+ * what it is: Chromium's `--type=` (renderer, utility…) or the program's name.
+ */
+function cpuByProcess(root: number): Map<string, number> {
+  const stats = new Map<number, { ppid: number; ticks: number; what: string }>();
+  for (const d of readdirSync("/proc")) {
+    if (!/^\d+$/.test(d)) continue;
+    try {
+      // Fields after the command's closing parenthesis: state ppid … utime(14) stime(15).
+      const [head, rest] = readFileSync(`/proc/${d}/stat`, "utf8").split(") ") as [string, string];
+      const f = rest.split(" ");
+      const cmd = readFileSync(`/proc/${d}/cmdline`, "utf8");
+      const what = /--type=([a-z-]+)/.exec(cmd)?.[1] ?? /--utility-sub-type=([\w.]+)/.exec(cmd)?.[1] ?? head.split(" (")[1]!;
+      stats.set(Number(d), { ppid: Number(f[1]), ticks: Number(f[11]) + Number(f[12]), what });
+    } catch {
+      /* gone meanwhile */
+    }
+  }
+  const out = new Map<string, number>();
+  for (const [pid, s] of stats) {
+    for (let p = pid; p > 1; p = stats.get(p)?.ppid ?? 0) {
+      if (p === root) {
+        out.set(s.what, (out.get(s.what) ?? 0) + s.ticks / 100); // USER_HZ
+        break;
+      }
+    }
+  }
+  return out;
 }
 
 async function waitPendingZero(page: import("playwright-core").Page, timeout = 120_000) {
@@ -281,22 +312,37 @@ async function benchTap() {
       db.close();
     })(${N})`);
     const cursorBefore = await fetchCursor(page);
-    const pushTimes: { start: number; end: number; server: string }[] = [];
+    const pushTimes: { start: number; end: number; sent: number; first: number; server: string }[] = [];
     page.on("requestfinished", async (r) => {
       if (!r.url().includes("/api/sync/push")) return;
-      const { startTime, responseEnd } = r.timing();
+      const { startTime, requestStart, responseStart, responseEnd } = r.timing();
       const server = (await r.response())?.headers()["server-timing"] ?? "";
-      pushTimes.push({ start: startTime, end: startTime + responseEnd, server: server.replaceAll(";dur=", " ").replaceAll(",", "") });
+      pushTimes.push({ start: startTime, end: startTime + responseEnd, sent: requestStart, first: responseStart, server: server.replaceAll(";dur=", " ").replaceAll(",", "") });
     });
     // Entries written behind Dexie's back are seen after a reload; offline, so none leaves early.
     const context = page.context();
     await context.setOffline(true);
     await page.reload();
     await page.waitForFunction((n) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(n), N, { timeout: 120_000 });
+    // CPU used meanwhile by the server and by each kind of the browser's processes (BENCH_DEBUG).
+    const cpuOf = () => cpuByProcess(process.pid);
+    const cpu0 = cpuOf();
+    // BENCH_PROFILE: the page's own CPU profile of the push, beside the server's.
+    const cdp = process.env.BENCH_PROFILE ? await context.newCDPSession(page) : null;
+    if (cdp) {
+      await cdp.send("Profiler.enable");
+      await cdp.send("Profiler.setSamplingInterval", { interval: 200 });
+      await cdp.send("Profiler.start");
+    }
     const t0 = Date.now();
     await context.setOffline(false); // the `online` event starts the sync
     await waitPendingZero(page, 30 * 60_000);
     const pushMs = Date.now() - t0;
+    const cpu1 = cpuOf();
+    if (cdp) {
+      const { profile: pageProfile } = await cdp.send("Profiler.stop");
+      writeFileSync(join(process.env.BENCH_PROFILE!, "page-push.cpuprofile"), JSON.stringify(pageProfile));
+    }
     // Then the tablet writes the answers into its entries (the receipts), off the push's path.
     const receiptsLeft = `new Promise((resolve) => {
       const o = indexedDB.open("rimelog");
@@ -310,7 +356,9 @@ async function benchTap() {
     if (process.env.BENCH_DEBUG) {
       // When each request left and its answer arrived, in ms after "online": the gaps between are the tablet's own work.
       console.log(`pushes: ${pushTimes.length}; ms after online, sent → answered (server's own ms):`);
-      for (const x of pushTimes) console.log(`  ${(x.start - t0).toFixed(0)} → ${(x.end - t0).toFixed(0)}  (${x.server})`);
+      for (const x of pushTimes) console.log(`  ${(x.start - t0).toFixed(0)} → ${(x.end - t0).toFixed(0)}  (request sent by ${x.sent.toFixed(0)}, first byte of the answer at ${x.first.toFixed(0)}; ${x.server})`);
+      const used = [...cpu1].map(([what, s]) => `${what} ${(s - (cpu0.get(what) ?? 0)).toFixed(2)} s`);
+      console.log(`CPU used during the push, by process: ${used.join(", ")}`);
     }
     // The same rows as the server stored them, inserted raw into a fresh database here.
     const rows = [];

@@ -2,7 +2,7 @@
 // The service worker (Serwist): precaches the app shell, pages, fonts and icons so the tablet
 // opens with no network; API responses are never cached (data lives in the tablet store).
 import type { PrecacheEntry, SerwistGlobalConfig } from "serwist";
-import { CacheFirst, NetworkFirst, NetworkOnly, Serwist } from "serwist";
+import { CacheFirst, NetworkFirst, Serwist } from "serwist";
 
 declare global {
   interface WorkerGlobalScope extends SerwistGlobalConfig {
@@ -26,8 +26,9 @@ const serwist: Serwist = new Serwist({
   skipWaiting: false,
   clientsClaim: true,
   navigationPreload: false,
+  // No route for /api/: the worker never answers (nor caches) an API request; see the install
+  // listener below, which keeps those requests from reaching the worker at all.
   runtimeCaching: [
-    { matcher: ({ url, sameOrigin }) => sameOrigin && url.pathname.startsWith("/api/"), handler: new NetworkOnly() },
     {
       matcher: ({ request, url, sameOrigin }) => sameOrigin && request.mode === "navigate" && CRYOSTAT_PAGE.test(url.pathname),
       handler: async (options) => {
@@ -47,6 +48,16 @@ const serwist: Serwist = new Serwist({
     },
   ],
   fallbacks: { entries: [{ url: "/offline", matcher: ({ request }) => request.destination === "document" }] },
+});
+
+// API requests go straight to the network without waking the worker (the Service Worker Static
+// Routing API; browsers without it dispatch them to the worker, which leaves them unanswered, so
+// they go to the network all the same). A push body of ~1 MB then no longer travels page →
+// worker → network and its answer back the same way: that copy cost as much as the server's apply.
+type StaticRoute = { condition: { urlPattern: string }; source: "network" };
+self.addEventListener("install", (event) => {
+  const routes = event as ExtendableEvent & { addRoutes?: (r: StaticRoute[]) => Promise<void> };
+  if (routes.addRoutes) event.waitUntil(routes.addRoutes([{ condition: { urlPattern: "/api/*" }, source: "network" }]).catch(() => undefined));
 });
 
 self.addEventListener("message", (event) => {

@@ -25,7 +25,12 @@ export class TransportError extends Error {
 }
 
 export interface Transport {
-  push(entries: EntryInput[]): Promise<PushReply>;
+  /**
+   * Optional: the request body for a push, made ahead. The sync client calls it for the next
+   * batch while the previous push travels, and hands the result back to `push`.
+   */
+  encodePush?(entries: EntryInput[]): unknown;
+  push(entries: EntryInput[], encoded?: unknown): Promise<PushReply>;
   pull(since: number, refHash: string | null): Promise<PullReply>;
   upload?(a: { id: string; blob: Blob; fileName: string; mime: string }): Promise<UploadReply>;
 }
@@ -95,7 +100,7 @@ async function uploadAttachments(db: RimelogDexie, transport: Transport, userId:
   return n;
 }
 
-type Batch = { after: number; rows: OutboxRow[]; list: EntryInput[] };
+type Batch = { after: number; rows: OutboxRow[]; list: EntryInput[]; encoded?: unknown };
 
 /**
  * The next outbox rows of this author written after outbox number `after` (the order of writing),
@@ -156,7 +161,9 @@ async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string
       throw new TransportError("server", "The server answered for none of the entries sent; they stay queued.");
     }
   };
-  const readAfter = (after: number, limit = maxBatch) => quiet(nextBatch(db, userId, after, limit, maxBytes));
+  // The batch after `after`, with its request body made ahead (while the previous push travels).
+  const readAfter = (after: number, limit = maxBatch) =>
+    quiet(nextBatch(db, userId, after, limit, maxBytes).then((b) => (b && transport.encodePush ? { ...b, encoded: transport.encodePush(b.list) } : b)));
   // A small first batch gets the server working sooner; the ones read while it travels are full.
   let next = readAfter(0, Math.min(maxBatch, FIRST_BATCH));
   let batch: Batch | null = null;
@@ -164,7 +171,7 @@ async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string
   // Send `b` and start reading the batch after it.
   const send = (b: Batch) => {
     batch = b;
-    sending = quiet(transport.push(b.list));
+    sending = quiet(transport.push(b.list, b.encoded));
     next = readAfter(b.rows.at(-1)!.n!);
   };
   try {

@@ -40,21 +40,27 @@ function readings(n: number, tag: string): EntryDraft[] {
 }
 
 /** The server, in process, for whoever `who()` says is signed in; records what was sent. */
-function server(who: () => SessionUser, opts: { maxEntries?: number; failOnPush?: number } = {}) {
+function server(who: () => SessionUser, opts: { maxEntries?: number; failOnPush?: number; encodeAhead?: boolean } = {}) {
   const sent: EntryInput[][] = [];
+  /** With encodeAhead: for each push, whether it came with a body made ahead, and the body's entries. */
+  const bodies: { ahead: boolean; ids: string[] }[] = [];
   const transport: Transport = {
-    async push(list) {
+    ...(opts.encodeAhead ? { encodePush: (list: EntryInput[]) => JSON.stringify({ entries: list }) } : {}),
+    async push(list, encoded) {
       if (opts.failOnPush !== undefined && sent.length === opts.failOnPush) throw new TransportError("offline", "The network went away.");
       if (opts.maxEntries !== undefined && list.length > opts.maxEntries) throw new TransportError("too_large", "Too many entries in one push.", 413);
       sent.push(list);
-      return JSON.parse(JSON.stringify(await applyPush(db, who(), JSON.parse(JSON.stringify({ entries: list })))));
+      // What the server gets is the body made ahead when there is one (as over HTTP).
+      const body = typeof encoded === "string" ? encoded : JSON.stringify({ entries: list });
+      if (opts.encodeAhead) bodies.push({ ahead: typeof encoded === "string", ids: (JSON.parse(body) as { entries: EntryInput[] }).entries.map((e) => e.id) });
+      return JSON.parse(JSON.stringify(await applyPush(db, who(), JSON.parse(body))));
     },
     async pull(since) {
       const page = await pullPage(db, who(), { since });
       return { ...page, reference: null, me: who() };
     },
   };
-  return { transport, sent };
+  return { transport, sent, bodies };
 }
 
 async function stored(ids: string[]) {
@@ -83,6 +89,22 @@ describe("pushing a long outbox", () => {
       const { chain: _chain, ...copy } = e;
       expect(local[i]).toEqual({ ...copy, sync: "synced", rejection: null });
     }
+  });
+
+  it("sends each batch with the body the transport made ahead for exactly that batch, also after a 413", async () => {
+    const t = tablet();
+    await confirmSession(t, tomasz);
+    for (let b = 0; b < 4; b++) await recordEntriesIn(t, readings(9, `b${b}`));
+    const written = (await t.outbox.orderBy("n").toArray()).map((r) => r.entryId);
+    const { transport, sent, bodies } = server(() => tomasz, { maxEntries: 7, encodeAhead: true });
+
+    const result = await syncOnce(t, transport, { maxBatch: 20 });
+    expect(result.accepted).toBe(36);
+    expect(bodies.length).toBe(sent.length);
+    expect(bodies.every((b) => b.ahead)).toBe(true);
+    bodies.forEach((b, i) => expect(b.ids).toEqual(sent[i]!.map((e) => e.id))); // never another batch's body
+    expect(sent.flat().map((e) => e.id)).toEqual(written);
+    expect(await t.outbox.count()).toBe(0);
   });
 
   it("leaves another person's queued rows alone, even between this person's", async () => {
