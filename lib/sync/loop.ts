@@ -14,7 +14,8 @@ type Options = { debounceMs?: number; intervalMs?: number; minBackoffMs?: number
 export class SyncLoop {
   private timer: ReturnType<typeof setTimeout> | null = null;
   private running = false;
-  private again = false;
+  /** A round was asked for while one ran: the soonest delay asked for, else null. */
+  private again: number | null = null;
   private failures = 0;
   private nextRetryAt: number | null = null;
   private stopFns: (() => void)[] = [];
@@ -68,7 +69,9 @@ export class SyncLoop {
   /** Ask for a round in `delayMs` (sooner requests win). */
   request(delayMs = 0): void {
     if (this.running) {
-      this.again = true;
+      // Kept for when the round ends: the network coming back mid-round is followed at once,
+      // a write mid-round after the debounce.
+      this.again = Math.min(this.again ?? delayMs, delayMs);
       return;
     }
     if (this.timer) clearTimeout(this.timer);
@@ -78,7 +81,7 @@ export class SyncLoop {
   /** Run one round now and report its outcome (used by sign-out). */
   async run(): Promise<SyncResult | TransportError | Error> {
     if (this.running) {
-      this.again = true;
+      // This caller's own round follows the one running.
       await new Promise<void>((r) => {
         const off = this.subscribe((s) => {
           if (!s.running) {
@@ -89,7 +92,7 @@ export class SyncLoop {
       });
     }
     this.running = true;
-    this.again = false;
+    this.again = null;
     this.nextRetryAt = null;
     this.emit();
     let outcome: SyncResult | TransportError | Error;
@@ -117,9 +120,10 @@ export class SyncLoop {
 
   private schedule(outcome: unknown): void {
     if (this.timer) clearTimeout(this.timer);
-    if (this.again) {
-      this.again = false;
-      this.timer = setTimeout(() => void this.run(), this.o.debounceMs);
+    if (this.again !== null) {
+      const delay = this.again;
+      this.again = null;
+      this.timer = setTimeout(() => void this.run(), delay);
       return;
     }
     let delay = this.o.intervalMs;
