@@ -22,7 +22,10 @@ export function newestFirst(a: StoredLocalEntry, b: StoredLocalEntry): number {
 async function withSendState(db: RimelogDexie, list: StoredLocalEntry[]): Promise<StoredLocalEntry[]> {
   const pending = list.filter((e) => e.sync === "pending");
   if (pending.length === 0) return list;
-  const queued = new Set(await db.outbox.where("entryId").anyOf(pending.map((e) => e.id)).keys());
+  // One count per entry, all sent at once: `anyOf` would walk a cursor, one round trip to the
+  // browser's storage after another (≈ 0.5 ms each), and a live list asks again on every answer.
+  const counts = await db.transaction("r", db.outbox, () => Promise.all(pending.map((e) => db.outbox.where("entryId").equals(e.id).count())));
+  const queued = new Set(pending.filter((_, i) => counts[i]! > 0).map((e) => e.id));
   if (queued.size === pending.length) return list;
   return list.map((e) => (e.sync === "pending" && !queued.has(e.id) ? { ...e, sync: "synced" } : e));
 }
