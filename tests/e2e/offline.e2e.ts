@@ -78,9 +78,17 @@ describe("a shift without network", () => {
     await waitPending(b.page, 1);
 
     // A comes back online: its entries reach the server and the indicator shows nothing pending.
+    // API requests go to the network, never answered by the service worker (it serves pages only).
+    const api: { path: string; fromWorker: boolean }[] = [];
+    a.page.on("response", (r) => {
+      const path = new URL(r.url()).pathname;
+      if (path.startsWith("/api/")) api.push({ path, fromWorker: r.fromServiceWorker() });
+    });
     await a.context.setOffline(false);
     await waitPending(a.page, 0);
     expect(await logbook(a.page).locator('li[data-sync="pending"]').count()).toBe(0);
+    expect(api.some((r) => r.path === "/api/sync/push")).toBe(true);
+    expect(api.filter((r) => r.fromWorker)).toEqual([]);
 
     // Checked through the API as another user, in another browser context (B, back online).
     await b.context.setOffline(false);
