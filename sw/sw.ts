@@ -19,6 +19,9 @@ const cryostatPages = new NetworkFirst({ cacheName: "pages", networkTimeoutSecon
 // cryostat never opened online is still served offline from the precached template.
 const CRYOSTAT_PAGE = /^\/cryostats\/[^/]+\/?$/;
 const CRYOSTAT_TEMPLATE = "/cryostats/_";
+// Not the worker's business: a download or a photo from /api/ (a navigation, an image) is never
+// matched by the routes below, so it is neither answered nor cached here.
+const notApi = (url: URL) => !url.pathname.startsWith("/api/");
 
 const serwist: Serwist = new Serwist({
   precacheEntries: self.__SW_MANIFEST,
@@ -41,9 +44,9 @@ const serwist: Serwist = new Serwist({
         }
       },
     },
-    { matcher: ({ request, sameOrigin }) => sameOrigin && request.mode === "navigate", handler: pages },
+    { matcher: ({ request, url, sameOrigin }) => sameOrigin && notApi(url) && request.mode === "navigate", handler: pages },
     {
-      matcher: ({ request, sameOrigin }) => sameOrigin && ["style", "script", "font", "image", "worker"].includes(request.destination),
+      matcher: ({ request, url, sameOrigin }) => sameOrigin && notApi(url) && ["style", "script", "font", "image", "worker"].includes(request.destination),
       handler: new CacheFirst({ cacheName: "assets" }),
     },
   ],
