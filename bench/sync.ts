@@ -325,7 +325,7 @@ async function benchTap() {
     await page.reload();
     await page.waitForFunction((n) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(n), N, { timeout: 120_000 });
     // CPU used meanwhile by the server and by each kind of the browser's processes (BENCH_DEBUG).
-    const cpuOf = () => cpuByProcess(process.pid);
+    const cpuOf = () => (process.env.BENCH_DEBUG ? cpuByProcess(process.pid) : new Map<string, number>());
     const cpu0 = cpuOf();
     // BENCH_PROFILE: the page's own CPU profile of the push, beside the server's.
     const cdp = process.env.BENCH_PROFILE ? await context.newCDPSession(page) : null;
