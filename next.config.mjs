@@ -5,7 +5,19 @@ import withSerwistInit from "@serwist/next";
 
 // Pages a technician needs with no network; they are precached with the build's revision.
 const revision = process.env.RIMELOG_BUILD_ID ?? randomUUID();
-const offlinePages = ["/", "/signin", "/offline", "/cryostats/_", "/calc", "/manifest.webmanifest", "/procedures", "/runs", "/handover", "/transfers/new", "/quench/new"];
+const offlinePages = [
+  "/",
+  "/signin",
+  "/offline",
+  "/cryostats/_",
+  "/calc",
+  "/manifest.webmanifest",
+  "/procedures",
+  "/runs",
+  "/handover",
+  "/transfers/new",
+  "/quench/new",
+];
 
 const withSerwist = withSerwistInit({
   swSrc: "sw/sw.ts",

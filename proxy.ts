@@ -1,7 +1,8 @@
 // Page protection: a request for a page without a session goes to the sign-in page.
 // API routes answer 401/403 themselves (lib/auth/require.ts); static assets pass.
+
+import { type NextRequest, NextResponse } from "next/server";
 import { getToken } from "next-auth/jwt";
-import { NextResponse, type NextRequest } from "next/server";
 
 const PUBLIC_PAGES = ["/signin", "/offline"];
 
@@ -18,5 +19,7 @@ export async function proxy(req: NextRequest) {
 
 export const config = {
   // Everything but the API, Next's assets, the service worker, the manifest and static files.
-  matcher: ["/((?!api|_next|sw\\.js|swe-worker|manifest\\.webmanifest|favicon|icons|fonts|.*\\.(?:png|svg|ico|woff2?|js|css|map)$).*)"],
+  matcher: [
+    "/((?!api|_next|sw\\.js|swe-worker|manifest\\.webmanifest|favicon|icons|fonts|.*\\.(?:png|svg|ico|woff2?|js|css|map)$).*)",
+  ],
 };

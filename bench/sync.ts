@@ -12,21 +12,26 @@ import { randomBytes } from "node:crypto";
 import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { inArray, sql } from "drizzle-orm";
+import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { openDb } from "@/db/client";
 import { toColumns } from "@/db/queries/entries";
 import { entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie } from "@/lib/local/db";
-import { buildEntry, confirmSession, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
+import { buildEntry, confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import { syncOnce, type Transport } from "@/lib/sync/client";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
 import { applyPush } from "@/lib/sync/server";
 
 const N = Number(process.env.BENCH_N) || 10_000;
-const tomasz: SessionUser = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" };
+const tomasz: SessionUser = {
+  id: "u-tomasz",
+  email: "tomasz@larchmere.example",
+  name: "Tomasz Okafor",
+  role: "technician",
+};
 const ms = (t: number) => `${t.toFixed(0)} ms`;
 
 type EntryRowIn = typeof entries.$inferInsert;
@@ -59,11 +64,21 @@ async function rawInserts(rows: EntryRowIn[]): Promise<{ valuesMs: number; jsonM
     t = performance.now();
     await b.transaction(async (tx) => {
       for (let i = 0; i < records.length; i += 500) {
-        await tx.execute(sql`insert into ${entries} select * from json_populate_recordset(null::${entries}, ${JSON.stringify(records.slice(i, i + 500))}::json)`);
+        await tx.execute(
+          sql`insert into ${entries} select * from json_populate_recordset(null::${entries}, ${JSON.stringify(records.slice(i, i + 500))}::json)`,
+        );
       }
     });
     json.push(performance.now() - t);
-    const [{ n } = { n: 0 }] = await b.select({ n: sql<number>`count(*)::int` }).from(entries).where(inArray(entries.id, rows.slice(0, 1000).map((r) => r.id)));
+    const [{ n } = { n: 0 }] = await b
+      .select({ n: sql<number>`count(*)::int` })
+      .from(entries)
+      .where(
+        inArray(
+          entries.id,
+          rows.slice(0, 1000).map((r) => r.id),
+        ),
+      );
     if (n !== Math.min(1000, rows.length)) throw new Error("the JSON baseline did not insert the rows");
     await b.$client.close();
   }
@@ -72,8 +87,12 @@ async function rawInserts(rows: EntryRowIn[]): Promise<{ valuesMs: number; jsonM
 
 function report(what: string, ms_: number, raw: { valuesMs: number; jsonMs: number }, n: number) {
   console.log(`${what}: ${ms(ms_)}`);
-  console.log(`raw batched INSERT … VALUES (200 rows a statement) of the same ${n} rows, median of 3:  ${ms(raw.valuesMs)}  → ratio ${(ms_ / raw.valuesMs).toFixed(2)}× (goal ≤ 2×)`);
-  console.log(`raw INSERT … json_populate_recordset (500 rows a statement), median of 3:            ${ms(raw.jsonMs)}  → ratio ${(ms_ / raw.jsonMs).toFixed(2)}×`);
+  console.log(
+    `raw batched INSERT … VALUES (200 rows a statement) of the same ${n} rows, median of 3:  ${ms(raw.valuesMs)}  → ratio ${(ms_ / raw.valuesMs).toFixed(2)}× (goal ≤ 2×)`,
+  );
+  console.log(
+    `raw INSERT … json_populate_recordset (500 rows a statement), median of 3:            ${ms(raw.jsonMs)}  → ratio ${(ms_ / raw.jsonMs).toFixed(2)}×`,
+  );
 }
 
 async function benchPush() {
@@ -111,7 +130,13 @@ async function benchPush() {
   // The same rows, as stored, inserted raw into a fresh database.
   const ids = (await tablet.entries.toArray()).map((e) => e.id);
   const rows = [];
-  for (let i = 0; i < ids.length; i += 1000) rows.push(...(await db.select().from(entries).where(inArray(entries.id, ids.slice(i, i + 1000)))));
+  for (let i = 0; i < ids.length; i += 1000)
+    rows.push(
+      ...(await db
+        .select()
+        .from(entries)
+        .where(inArray(entries.id, ids.slice(i, i + 1000)))),
+    );
   const raw = await rawInserts(rows);
   report(`push ${N} queued entries (client on fake-indexeddb + server, in process)`, pushMs, raw, rows.length);
   report(`  of which the server's apply (validate, role check, hash chain, insert)`, serverMs, raw, rows.length);
@@ -131,7 +156,8 @@ function cpuByProcess(root: number): Map<string, number> {
       const [head, rest] = readFileSync(`/proc/${d}/stat`, "utf8").split(") ") as [string, string];
       const f = rest.split(" ");
       const cmd = readFileSync(`/proc/${d}/cmdline`, "utf8");
-      const what = /--type=([a-z-]+)/.exec(cmd)?.[1] ?? /--utility-sub-type=([\w.]+)/.exec(cmd)?.[1] ?? head.split(" (")[1]!;
+      const what =
+        /--type=([a-z-]+)/.exec(cmd)?.[1] ?? /--utility-sub-type=([\w.]+)/.exec(cmd)?.[1] ?? head.split(" (")[1]!;
       stats.set(Number(d), { ppid: Number(f[1]), ticks: Number(f[11]) + Number(f[12]), what });
     } catch {
       /* gone meanwhile */
@@ -150,13 +176,20 @@ function cpuByProcess(root: number): Map<string, number> {
 }
 
 async function waitPendingZero(page: import("playwright-core").Page, timeout = 120_000) {
-  await page.waitForFunction(() => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === "0", undefined, { timeout, polling: 50 });
+  await page.waitForFunction(
+    () => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === "0",
+    undefined,
+    { timeout, polling: 50 },
+  );
 }
 
 async function fetchCursor(page: import("playwright-core").Page): Promise<number> {
   let since = 0;
   for (;;) {
-    const body = (await (await page.request.get(`/api/sync/pull?since=${since}`)).json()) as { cursor: number; hasMore: boolean };
+    const body = (await (await page.request.get(`/api/sync/pull?since=${since}`)).json()) as {
+      cursor: number;
+      hasMore: boolean;
+    };
     since = body.cursor;
     if (!body.hasMore) return since;
   }
@@ -170,11 +203,32 @@ async function benchTap() {
   const base = `http://localhost:${port}`;
   // BENCH_PROFILE=<dir>: the server writes a V8 CPU profile there when it stops.
   const profile = process.env.BENCH_PROFILE ? ["--cpu-prof", `--cpu-prof-dir=${process.env.BENCH_PROFILE}`] : [];
-  const server = spawn(process.execPath, [...profile, join(process.cwd(), "node_modules/next/dist/bin/next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
-    detached: true,
-    stdio: "ignore",
-    env: { ...process.env, NODE_ENV: "production", NEXT_DIST_DIR: dist, RIMELOG_DATA_DIR: join(work, "db"), RIMELOG_STORAGE_DIR: join(work, "files"), AUTH_SECRET: randomBytes(24).toString("hex"), NEXTAUTH_URL: base, AUTH_TRUST_HOST: "true" },
-  });
+  const server = spawn(
+    process.execPath,
+    [
+      ...profile,
+      join(process.cwd(), "node_modules/next/dist/bin/next"),
+      "start",
+      "-p",
+      String(port),
+      "-H",
+      "127.0.0.1",
+    ],
+    {
+      detached: true,
+      stdio: "ignore",
+      env: {
+        ...process.env,
+        NODE_ENV: "production",
+        NEXT_DIST_DIR: dist,
+        RIMELOG_DATA_DIR: join(work, "db"),
+        RIMELOG_STORAGE_DIR: join(work, "files"),
+        AUTH_SECRET: randomBytes(24).toString("hex"),
+        NEXTAUTH_URL: base,
+        AUTH_TRUST_HOST: "true",
+      },
+    },
+  );
   const stopServer = async () => {
     if (server.exitCode !== null || server.signalCode !== null) return;
     const gone = new Promise((r) => server.once("exit", r));
@@ -187,7 +241,16 @@ async function benchTap() {
   };
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH || "/usr/bin/chromium",
-    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+    args: [
+      "--headless",
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+    ],
   });
   try {
     for (let i = 0; i < 240; i++) {
@@ -198,7 +261,9 @@ async function benchTap() {
       }
       await new Promise((r) => setTimeout(r, 250));
     }
-    const page = await (await browser.newContext({ baseURL: base, viewport: { width: 1024, height: 768 }, hasTouch: true })).newPage();
+    const page = await (
+      await browser.newContext({ baseURL: base, viewport: { width: 1024, height: 768 }, hasTouch: true })
+    ).newPage();
     await page.goto("/signin");
     await page.getByLabel("Email", { exact: true }).fill(tomasz.email);
     await page.getByLabel("Password", { exact: true }).fill("cold-hall-demo");
@@ -253,8 +318,11 @@ async function benchTap() {
           // A slow tap and the transactions around it (ms after the tap; a readwrite waits for
           // every earlier transaction on the same stores).
           console.log(`slow tap: ${t.durable.toFixed(1)} ms`);
-          for (const x of (t as { txs?: { at: number; ms: number | null; mode: string; stores: string }[] }).txs ?? []) {
-            console.log(`  ${x.at.toFixed(1).padStart(7)} ms  ${x.ms === null ? "  open" : x.ms.toFixed(1).padStart(6)} ms  ${x.mode.padEnd(9)} ${x.stores}`);
+          for (const x of (t as { txs?: { at: number; ms: number | null; mode: string; stores: string }[] }).txs ??
+            []) {
+            console.log(
+              `  ${x.at.toFixed(1).padStart(7)} ms  ${x.ms === null ? "  open" : x.ms.toFixed(1).padStart(6)} ms  ${x.mode.padEnd(9)} ${x.stores}`,
+            );
           }
         }
       }
@@ -274,8 +342,12 @@ async function benchTap() {
       const times = await runTaps(runs, pause);
       const durable = times.map((x) => x.durable);
       const shown = times.map((x) => x.shown);
-      console.log(`tap → entry durable in IndexedDB (strict), ${label}, ${times.length} taps: p50 ${pct(durable, 0.5)} ms, p95 ${pct(durable, 0.95)} ms (goal p95 < 30 ms)`);
-      console.log(`tap → "saved" drawn on screen,           ${label}, ${times.length} taps: p50 ${pct(shown, 0.5)} ms, p95 ${pct(shown, 0.95)} ms`);
+      console.log(
+        `tap → entry durable in IndexedDB (strict), ${label}, ${times.length} taps: p50 ${pct(durable, 0.5)} ms, p95 ${pct(durable, 0.95)} ms (goal p95 < 30 ms)`,
+      );
+      console.log(
+        `tap → "saved" drawn on screen,           ${label}, ${times.length} taps: p50 ${pct(shown, 0.5)} ms, p95 ${pct(shown, 0.95)} ms`,
+      );
     }
 
     // Push from the browser: N entries queued in the tablet store (written straight into
@@ -317,13 +389,23 @@ async function benchTap() {
       if (!r.url().includes("/api/sync/push")) return;
       const { startTime, requestStart, responseStart, responseEnd } = r.timing();
       const server = (await r.response())?.headers()["server-timing"] ?? "";
-      pushTimes.push({ start: startTime, end: startTime + responseEnd, sent: requestStart, first: responseStart, server: server.replaceAll(";dur=", " ").replaceAll(",", "") });
+      pushTimes.push({
+        start: startTime,
+        end: startTime + responseEnd,
+        sent: requestStart,
+        first: responseStart,
+        server: server.replaceAll(";dur=", " ").replaceAll(",", ""),
+      });
     });
     // Entries written behind Dexie's back are seen after a reload; offline, so none leaves early.
     const context = page.context();
     await context.setOffline(true);
     await page.reload();
-    await page.waitForFunction((n) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(n), N, { timeout: 120_000 });
+    await page.waitForFunction(
+      (n) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(n),
+      N,
+      { timeout: 120_000 },
+    );
     // CPU used meanwhile by the server and by each kind of the browser's processes (BENCH_DEBUG).
     const cpuOf = () => (process.env.BENCH_DEBUG ? cpuByProcess(process.pid) : new Map<string, number>());
     const cpu0 = cpuOf();
@@ -335,7 +417,21 @@ async function benchTap() {
       await cdp.send("Profiler.start");
     }
     // BENCH_TRACE=<file>: a Chromium trace of the push (every process and thread), for chrome://tracing.
-    if (process.env.BENCH_TRACE) await browser.startTracing(page, { path: process.env.BENCH_TRACE, categories: ["toplevel", "blink", "IndexedDB", "v8", "devtools.timeline", "disabled-by-default-devtools.timeline", "loading", "net", "mojom"] });
+    if (process.env.BENCH_TRACE)
+      await browser.startTracing(page, {
+        path: process.env.BENCH_TRACE,
+        categories: [
+          "toplevel",
+          "blink",
+          "IndexedDB",
+          "v8",
+          "devtools.timeline",
+          "disabled-by-default-devtools.timeline",
+          "loading",
+          "net",
+          "mojom",
+        ],
+      });
     // Timed in the page: from its `online` event to the moment the indicator's pending count
     // becomes 0 in the document (a mutation observer, not polling).
     await page.evaluate(`(window.__push = new Promise((resolve) => {
@@ -377,7 +473,10 @@ async function benchTap() {
     if (process.env.BENCH_DEBUG) {
       // When each request left and its answer arrived, in ms after "online": the gaps between are the tablet's own work.
       console.log(`pushes: ${pushTimes.length}; ms after online, sent → answered (server's own ms):`);
-      for (const x of pushTimes) console.log(`  ${(x.start - t0).toFixed(0)} → ${(x.end - t0).toFixed(0)}  (request sent by ${x.sent.toFixed(0)}, first byte of the answer at ${x.first.toFixed(0)}; ${x.server})`);
+      for (const x of pushTimes)
+        console.log(
+          `  ${(x.start - t0).toFixed(0)} → ${(x.end - t0).toFixed(0)}  (request sent by ${x.sent.toFixed(0)}, first byte of the answer at ${x.first.toFixed(0)}; ${x.server})`,
+        );
       const used = [...cpu1].map(([what, s]) => `${what} ${(s - (cpu0.get(what) ?? 0)).toFixed(2)} s`);
       console.log(`CPU used during the push, by process: ${used.join(", ")}`);
     }
@@ -390,19 +489,40 @@ async function benchTap() {
       since = body.cursor;
       if (!body.hasMore) break;
     }
-    const values = rows.map((e) => ({ ...(e as EntryRowIn), recordedAt: new Date(e.recordedAt as string), receivedAt: new Date(e.receivedAt as string) }));
+    const values = rows.map((e) => ({
+      ...(e as EntryRowIn),
+      recordedAt: new Date(e.recordedAt as string),
+      receivedAt: new Date(e.receivedAt as string),
+    }));
 
     // The server's share over HTTP: the same kind of push sent from here (no browser work beside
     // it), batch by batch as the tablet sends them, with the tablet page closed.
     const deviceId = (rows[0] as { deviceId: string }).deviceId;
     await page.goto("about:blank");
     await new Promise((r) => setTimeout(r, 1000));
-    const drafts = Array.from({ length: N }, (_, i) => buildEntry({ cryostatId: i % 3 ? "heron" : "wren", kind: "reading", payload: { quantity: "Temperature", stage: "still", value: 0.7 + (i % 50) / 1000, unit: "K" } }, tomasz.id, deviceId, new Date(Date.now() + i)));
-    const sizes = [200, ...Array.from({ length: Math.ceil((N - 200) / PUSH_LIMITS.maxEntries) }, () => PUSH_LIMITS.maxEntries)];
+    const drafts = Array.from({ length: N }, (_, i) =>
+      buildEntry(
+        {
+          cryostatId: i % 3 ? "heron" : "wren",
+          kind: "reading",
+          payload: { quantity: "Temperature", stage: "still", value: 0.7 + (i % 50) / 1000, unit: "K" },
+        },
+        tomasz.id,
+        deviceId,
+        new Date(Date.now() + i),
+      ),
+    );
+    const sizes = [
+      200,
+      ...Array.from({ length: Math.ceil((N - 200) / PUSH_LIMITS.maxEntries) }, () => PUSH_LIMITS.maxEntries),
+    ];
     let serverOwn = 0;
     const tHttp = performance.now();
     for (let at = 0, k = 0; at < drafts.length; at += sizes[k]!, k++) {
-      const res = await page.request.post("/api/sync/push", { data: { entries: drafts.slice(at, at + sizes[k]!) }, headers: { origin: base } });
+      const res = await page.request.post("/api/sync/push", {
+        data: { entries: drafts.slice(at, at + sizes[k]!) },
+        headers: { origin: base },
+      });
       if (!res.ok()) throw new Error(`push from node: ${res.status()} ${await res.text()}`);
       serverOwn += Number(/apply;dur=([\d.]+)/.exec(res.headers()["server-timing"] ?? "")?.[1] ?? NaN);
     }
@@ -412,10 +532,22 @@ async function benchTap() {
     await browser.close();
     await stopServer();
     const raw = await rawInserts(values);
-    report(`browser push of ${N} queued entries over HTTP (Chromium IndexedDB → /api/sync/push → PGlite), "online" to nothing pending`, pushMs, raw, values.length);
+    report(
+      `browser push of ${N} queued entries over HTTP (Chromium IndexedDB → /api/sync/push → PGlite), "online" to nothing pending`,
+      pushMs,
+      raw,
+      values.length,
+    );
     console.log(`  (seen from the bench, from setting the browser online to the page's answer: ${ms(benchSideMs)})`);
-    console.log(`  … and every answer written into the tablet's entries (receipts folded) ${ms(foldMs)} after "online"`);
-    report(`the same push sent from Node over HTTP (no browser beside the server), batch after batch`, httpMs, raw, values.length);
+    console.log(
+      `  … and every answer written into the tablet's entries (receipts folded) ${ms(foldMs)} after "online"`,
+    );
+    report(
+      `the same push sent from Node over HTTP (no browser beside the server), batch after batch`,
+      httpMs,
+      raw,
+      values.length,
+    );
     console.log(`  … of which the server's own apply (Server-Timing): ${ms(serverOwn)}`);
   } finally {
     await browser.close();

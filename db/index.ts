@@ -3,7 +3,7 @@
 // hot reload never opens the directory twice.
 import { resolve } from "node:path";
 import { env } from "@/lib/env";
-import { openDb, type Db } from "./client";
+import { type Db, openDb } from "./client";
 import { lockDataDir } from "./lock";
 import { seedIfEmpty } from "./seed";
 

@@ -4,15 +4,15 @@
 import { randomUUID } from "node:crypto";
 import bcrypt from "bcryptjs";
 import { count } from "drizzle-orm";
-import type { Db } from "./client";
-import { cryostats, facilityRules, procedureTemplates, users, type Role } from "./schema";
-import { appendEntries } from "./queries/entries";
-import { DEFAULT_TEMPLATES } from "./seed-templates";
-import type { CryostatConfig } from "@/lib/schemas/cryostat";
-import type { FacilityRulesValues } from "@/lib/schemas/rules";
-import type { EntryInput, EntryKind } from "@/lib/schemas/entry";
 import { he4PressureFromTemperature } from "@/lib/cryo";
+import type { CryostatConfig } from "@/lib/schemas/cryostat";
+import type { EntryInput, EntryKind } from "@/lib/schemas/entry";
+import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import { recordHash } from "@/lib/sync/hash";
+import type { Db } from "./client";
+import { appendEntries } from "./queries/entries";
+import { cryostats, facilityRules, procedureTemplates, type Role, users } from "./schema";
+import { DEFAULT_TEMPLATES } from "./seed-templates";
 
 export const DEMO_PASSWORD = "cold-hall-demo";
 
@@ -34,7 +34,14 @@ export const HERON: CryostatConfig = {
     { key: "cold", label: "Cold plate", nominalK: 0.07 },
     { key: "mxc", label: "Mixing chamber", nominalK: 0.012 },
   ],
-  magnet: { coilConstantTPerA: 0.09, maxCurrentA: 100, inductanceH: 20, rampLimitTPerMin: 0.15, persistentSwitch: true, dipoleMomentAm2: 2.0e4 },
+  magnet: {
+    coilConstantTPerA: 0.09,
+    maxCurrentA: 100,
+    inductanceH: 20,
+    rampLimitTPerMin: 0.15,
+    persistentSwitch: true,
+    dipoleMomentAm2: 2.0e4,
+  },
   mixture: { tankVolumeLitres: 40 },
 };
 
@@ -57,14 +64,25 @@ export const PLOVER: CryostatConfig = {
       ],
     },
   },
-  magnet: { coilConstantTPerA: 0.12, maxCurrentA: 120, inductanceH: 60, rampLimitTPerMin: 0.2, persistentSwitch: true, dipoleMomentAm2: 3.5e4 },
+  magnet: {
+    coilConstantTPerA: 0.12,
+    maxCurrentA: 120,
+    inductanceH: 60,
+    rampLimitTPerMin: 0.2,
+    persistentSwitch: true,
+    dipoleMomentAm2: 3.5e4,
+  },
   vapourPressureStage: "vti",
 };
 
 export const WREN: CryostatConfig = {
   description: "Helium-4 bath test dewar for quick sensor tests; no magnet.",
   stages: [{ key: "bath", label: "Helium bath", nominalK: 4.2 }],
-  reservoir: { capacityLitres: 60, minimumPercent: 20, calibration: { kind: "linear", litresPerPercent: 0.6, offsetLitres: 0 } },
+  reservoir: {
+    capacityLitres: 60,
+    minimumPercent: 20,
+    calibration: { kind: "linear", litresPerPercent: 0.6, offsetLitres: 0 },
+  },
 };
 
 export const DEMO_RULES: FacilityRulesValues = {
@@ -76,7 +94,8 @@ export const DEMO_RULES: FacilityRulesValues = {
   minHeliumPercent: { plover: 25, wren: 20 },
   maxRampTPerMin: { heron: 0.15, plover: 0.2 },
   controlledAreaMilliTesla: 0.5,
-  controlledAreaNote: "The 0.5 mT line around Heron and Plover is marked on the floor. No pacemakers or active implants beyond it; no loose steel tools.",
+  controlledAreaNote:
+    "The 0.5 mT line around Heron and Plover is marked on the floor. No pacemakers or active implants beyond it; no loose steel tools.",
   forecastWarnDays: 3,
   roomFreeVolumeM3: 220,
   roomAirChangesPerHour: 4,
@@ -98,7 +117,14 @@ function rng(seed: number) {
   };
 }
 
-type Draft = { at: number; cryostatId: string | null; kind: EntryKind; payload: Record<string, unknown>; author: string; runId?: string };
+type Draft = {
+  at: number;
+  cryostatId: string | null;
+  kind: EntryKind;
+  payload: Record<string, unknown>;
+  author: string;
+  runId?: string;
+};
 
 const HOUR = 3_600_000;
 const DAY = 24 * HOUR;
@@ -112,12 +138,47 @@ export function demoHistory(now: number): Draft[] {
   const start = now - 28 * DAY;
 
   // Heron: warmup at day 0–1 (mixture recovered), cooldown from day 7 over ~60 h, cold since.
-  push({ at: start + 2 * HOUR, cryostatId: "heron", kind: "state", payload: { state: "warming", comment: "Warmup for probe rewiring; circulation stopped." }, author: "u-tomasz" });
-  push({ at: start + 3 * HOUR, cryostatId: "heron", kind: "reading", payload: { quantity: "Mixture tank pressure", value: 812, unit: "mbar", comment: "All mixture recovered to the tank, 295 K." }, author: "u-tomasz" });
-  push({ at: start + 1.5 * DAY, cryostatId: "heron", kind: "state", payload: { state: "maintenance", comment: "Vented with dry nitrogen at room temperature; probe out." }, author: "u-tomasz" });
+  push({
+    at: start + 2 * HOUR,
+    cryostatId: "heron",
+    kind: "state",
+    payload: { state: "warming", comment: "Warmup for probe rewiring; circulation stopped." },
+    author: "u-tomasz",
+  });
+  push({
+    at: start + 3 * HOUR,
+    cryostatId: "heron",
+    kind: "reading",
+    payload: {
+      quantity: "Mixture tank pressure",
+      value: 812,
+      unit: "mbar",
+      comment: "All mixture recovered to the tank, 295 K.",
+    },
+    author: "u-tomasz",
+  });
+  push({
+    at: start + 1.5 * DAY,
+    cryostatId: "heron",
+    kind: "state",
+    payload: { state: "maintenance", comment: "Vented with dry nitrogen at room temperature; probe out." },
+    author: "u-tomasz",
+  });
   const coolStart = start + 7 * DAY;
-  push({ at: coolStart - 2 * HOUR, cryostatId: "heron", kind: "reading", payload: { quantity: "Mixture tank pressure", value: 806, unit: "mbar", comment: "Before condensing, 295 K." }, author: "u-priya" });
-  push({ at: coolStart, cryostatId: "heron", kind: "state", payload: { state: "cooling", comment: "Pulse tube on after leak check." }, author: "u-priya" });
+  push({
+    at: coolStart - 2 * HOUR,
+    cryostatId: "heron",
+    kind: "reading",
+    payload: { quantity: "Mixture tank pressure", value: 806, unit: "mbar", comment: "Before condensing, 295 K." },
+    author: "u-priya",
+  });
+  push({
+    at: coolStart,
+    cryostatId: "heron",
+    kind: "state",
+    payload: { state: "cooling", comment: "Pulse tube on after leak check." },
+    author: "u-priya",
+  });
   const targets: Record<string, { base: number; tau: number; delay: number }> = {
     pt1: { base: 44, tau: 9, delay: 0 },
     pt2: { base: 3.4, tau: 14, delay: 0 },
@@ -134,22 +195,76 @@ export function demoHistory(now: number): Draft[] {
         at: coolStart + h * HOUR,
         cryostatId: "heron",
         kind: "reading",
-        payload: valueK < 1 ? { quantity: "Temperature", stage, value: round(valueK * 1000, 2), unit: "mK" } : { quantity: "Temperature", stage, value: round(valueK, 3), unit: "K" },
+        payload:
+          valueK < 1
+            ? { quantity: "Temperature", stage, value: round(valueK * 1000, 2), unit: "mK" }
+            : { quantity: "Temperature", stage, value: round(valueK, 3), unit: "K" },
         author: h % 12 < 6 ? "u-tomasz" : "u-priya",
       });
     }
   }
-  push({ at: coolStart + 60 * HOUR, cryostatId: "heron", kind: "state", payload: { state: "cold", comment: "Base temperature reached." }, author: "u-priya" });
+  push({
+    at: coolStart + 60 * HOUR,
+    cryostatId: "heron",
+    kind: "state",
+    payload: { state: "cold", comment: "Base temperature reached." },
+    author: "u-priya",
+  });
   // Cold: a daily base-temperature reading and the magnet ramped for the ring sample.
   for (let d = 10; d < 28; d++) {
     for (const [stage, t] of Object.entries(targets)) {
       const v = t.base * (1 + noise(0.05));
-      push({ at: start + d * DAY + 9 * HOUR, cryostatId: "heron", kind: "reading", payload: v < 1 ? { quantity: "Temperature", stage, value: round(v * 1000, 2), unit: "mK" } : { quantity: "Temperature", stage, value: round(v, 3), unit: "K" }, author: "u-tomasz" });
+      push({
+        at: start + d * DAY + 9 * HOUR,
+        cryostatId: "heron",
+        kind: "reading",
+        payload:
+          v < 1
+            ? { quantity: "Temperature", stage, value: round(v * 1000, 2), unit: "mK" }
+            : { quantity: "Temperature", stage, value: round(v, 3), unit: "K" },
+        author: "u-tomasz",
+      });
     }
   }
-  push({ at: start + 12 * DAY + 10 * HOUR, cryostatId: "heron", kind: "field.setting", payload: { currentA: 0.5, fieldT: 0.045, persistent: false, rampRateTPerMin: 0.01, comment: "Ring sample LK-7: field sweep around zero." }, author: "u-mateo" });
-  push({ at: start + 16 * DAY + 10 * HOUR, cryostatId: "heron", kind: "field.setting", payload: { currentA: 22.2, fieldT: 2.0, persistent: true, rampRateTPerMin: 0.1, comment: "2 T, persistent mode, switch heater off." }, author: "u-yuki" });
-  push({ at: start + 23 * DAY + 10 * HOUR, cryostatId: "heron", kind: "field.setting", payload: { currentA: 0, fieldT: 0, persistent: false, rampRateTPerMin: 0.1, comment: "Ramped to zero for gate sweeps." }, author: "u-yuki" });
+  push({
+    at: start + 12 * DAY + 10 * HOUR,
+    cryostatId: "heron",
+    kind: "field.setting",
+    payload: {
+      currentA: 0.5,
+      fieldT: 0.045,
+      persistent: false,
+      rampRateTPerMin: 0.01,
+      comment: "Ring sample LK-7: field sweep around zero.",
+    },
+    author: "u-mateo",
+  });
+  push({
+    at: start + 16 * DAY + 10 * HOUR,
+    cryostatId: "heron",
+    kind: "field.setting",
+    payload: {
+      currentA: 22.2,
+      fieldT: 2.0,
+      persistent: true,
+      rampRateTPerMin: 0.1,
+      comment: "2 T, persistent mode, switch heater off.",
+    },
+    author: "u-yuki",
+  });
+  push({
+    at: start + 23 * DAY + 10 * HOUR,
+    cryostatId: "heron",
+    kind: "field.setting",
+    payload: {
+      currentA: 0,
+      fieldT: 0,
+      persistent: false,
+      rampRateTPerMin: 0.1,
+      comment: "Ramped to zero for gate sweeps.",
+    },
+    author: "u-yuki",
+  });
 
   // Plover: cold all month; ~5 L/day boil-off; transfers twice a week; one quench.
   push({ at: start + HOUR, cryostatId: "plover", kind: "state", payload: { state: "cold" }, author: "u-tomasz" });
@@ -163,9 +278,30 @@ export function demoHistory(now: number): Draft[] {
       // Quench at 9.5 T during a ramp: about 30 L lost.
       const before = level;
       level -= 31;
-      push({ at: t0 + 5 * HOUR, cryostatId: "plover", kind: "quench", payload: { at: new Date(t0 + 5 * HOUR).toISOString(), fieldT: 9.5, currentA: 79.2, levelBeforePercent: round(before, 1), levelAfterPercent: round(level, 1), heliumLostLitres: 31, oxygenLowestPercent: 20.4, actions: "Room cleared until the monitors read above 20.5 %. Magnet power supply off. Recovery line checked." }, author: "u-priya" });
+      push({
+        at: t0 + 5 * HOUR,
+        cryostatId: "plover",
+        kind: "quench",
+        payload: {
+          at: new Date(t0 + 5 * HOUR).toISOString(),
+          fieldT: 9.5,
+          currentA: 79.2,
+          levelBeforePercent: round(before, 1),
+          levelAfterPercent: round(level, 1),
+          heliumLostLitres: 31,
+          oxygenLowestPercent: 20.4,
+          actions: "Room cleared until the monitors read above 20.5 %. Magnet power supply off. Recovery line checked.",
+        },
+        author: "u-priya",
+      });
     }
-    push({ at: t0, cryostatId: "plover", kind: "helium.level", payload: { percent: round(level, 1) }, author: d % 2 ? "u-priya" : "u-tomasz" });
+    push({
+      at: t0,
+      cryostatId: "plover",
+      kind: "helium.level",
+      payload: { percent: round(level, 1) },
+      author: d % 2 ? "u-priya" : "u-tomasz",
+    });
     dayOfWeek = d % 7;
     if ((dayOfWeek === 1 || dayOfWeek === 4) && d < 24) {
       // Two transfers a week, topping up to about 90 % (≈ 1 L per % on Plover); none in the last
@@ -208,22 +344,76 @@ export function demoHistory(now: number): Draft[] {
   for (let d = 0; d < 28; d++) {
     const t0 = start + d * DAY + 8 * HOUR + 10 * 60_000;
     const vtiK = 1.55 + noise(0.05);
-    push({ at: t0, cryostatId: "plover", kind: "reading", payload: { quantity: "Temperature", stage: "bath", value: round(4.21 + noise(0.01), 3), unit: "K" }, author: "u-tomasz" });
-    push({ at: t0 + 60_000, cryostatId: "plover", kind: "reading", payload: { quantity: "VTI pressure", value: round(he4PressureFromTemperature(vtiK) / 100, 2), unit: "mbar" }, author: "u-tomasz" });
-    push({ at: t0 + 120_000, cryostatId: "plover", kind: "reading", payload: { quantity: "Temperature", stage: "vti", value: round(vtiK, 3), unit: "K" }, author: "u-tomasz" });
+    push({
+      at: t0,
+      cryostatId: "plover",
+      kind: "reading",
+      payload: { quantity: "Temperature", stage: "bath", value: round(4.21 + noise(0.01), 3), unit: "K" },
+      author: "u-tomasz",
+    });
+    push({
+      at: t0 + 60_000,
+      cryostatId: "plover",
+      kind: "reading",
+      payload: { quantity: "VTI pressure", value: round(he4PressureFromTemperature(vtiK) / 100, 2), unit: "mbar" },
+      author: "u-tomasz",
+    });
+    push({
+      at: t0 + 120_000,
+      cryostatId: "plover",
+      kind: "reading",
+      payload: { quantity: "Temperature", stage: "vti", value: round(vtiK, 3), unit: "K" },
+      author: "u-tomasz",
+    });
   }
-  push({ at: start + 5 * DAY + 11 * HOUR, cryostatId: "plover", kind: "field.setting", payload: { currentA: 41.7, fieldT: 5.0, persistent: true, rampRateTPerMin: 0.15 }, author: "u-mateo" });
-  push({ at: start + 19 * DAY + 12 * HOUR, cryostatId: "plover", kind: "field.setting", payload: { currentA: 0, fieldT: 0, persistent: false, comment: "After the quench; supply off." }, author: "u-priya" });
-  push({ at: start + 21 * DAY + 11 * HOUR, cryostatId: "plover", kind: "field.setting", payload: { currentA: 25, fieldT: 3.0, persistent: true, rampRateTPerMin: 0.1 }, author: "u-mateo" });
+  push({
+    at: start + 5 * DAY + 11 * HOUR,
+    cryostatId: "plover",
+    kind: "field.setting",
+    payload: { currentA: 41.7, fieldT: 5.0, persistent: true, rampRateTPerMin: 0.15 },
+    author: "u-mateo",
+  });
+  push({
+    at: start + 19 * DAY + 12 * HOUR,
+    cryostatId: "plover",
+    kind: "field.setting",
+    payload: { currentA: 0, fieldT: 0, persistent: false, comment: "After the quench; supply off." },
+    author: "u-priya",
+  });
+  push({
+    at: start + 21 * DAY + 11 * HOUR,
+    cryostatId: "plover",
+    kind: "field.setting",
+    payload: { currentA: 25, fieldT: 3.0, persistent: true, rampRateTPerMin: 0.1 },
+    author: "u-mateo",
+  });
 
   // Wren: a cold week of sensor tests.
-  push({ at: start + 14 * DAY, cryostatId: "wren", kind: "state", payload: { state: "cold", comment: "Filled for diode calibration runs." }, author: "u-priya" });
+  push({
+    at: start + 14 * DAY,
+    cryostatId: "wren",
+    kind: "state",
+    payload: { state: "cold", comment: "Filled for diode calibration runs." },
+    author: "u-priya",
+  });
   let wren = 88;
   for (let d = 14; d < 28; d++) {
     wren -= 4 + noise(0.5);
-    push({ at: start + d * DAY + 10 * HOUR, cryostatId: "wren", kind: "helium.level", payload: { percent: round(wren, 1) }, author: "u-priya" });
+    push({
+      at: start + d * DAY + 10 * HOUR,
+      cryostatId: "wren",
+      kind: "helium.level",
+      payload: { percent: round(wren, 1) },
+      author: "u-priya",
+    });
   }
-  push({ at: start + 20 * DAY, cryostatId: "wren", kind: "note", payload: { text: "Diode batch SD-14 mounted; four-wire leads checked at 4.2 K." }, author: "u-priya" });
+  push({
+    at: start + 20 * DAY,
+    cryostatId: "wren",
+    kind: "note",
+    payload: { text: "Diode batch SD-14 mounted; four-wire leads checked at 4.2 K." },
+    author: "u-priya",
+  });
 
   // Daily handovers, day shift → evening shift, on Heron and Plover.
   for (let d = 1; d < 28; d++) {
@@ -232,7 +422,11 @@ export function demoHistory(now: number): Draft[] {
         at: start + d * DAY + 15 * HOUR,
         cryostatId: c,
         kind: "handover",
-        payload: { summary: { openRuns: [], openIssues: [] }, note: c === "heron" ? "Fridge steady. No alarms." : "Level checked; next transfer as planned.", toUserId: "u-priya" },
+        payload: {
+          summary: { openRuns: [], openIssues: [] },
+          note: c === "heron" ? "Fridge steady. No alarms." : "Level checked; next transfer as planned.",
+          toUserId: "u-priya",
+        },
         author: "u-tomasz",
       });
     }
@@ -279,7 +473,13 @@ function withSignatures(list: EntryInput[]): EntryInput[] {
       const u = DEMO_USERS.find((x) => x.id === signer);
       if (!u) continue;
       out.push({
-        ...toEntry({ at: Date.parse(e.recordedAt) + delay, cryostatId: e.cryostatId, kind: "signature", author: u.id, payload: {} }),
+        ...toEntry({
+          at: Date.parse(e.recordedAt) + delay,
+          cryostatId: e.cryostatId,
+          kind: "signature",
+          author: u.id,
+          payload: {},
+        }),
         payload: { signedEntryId: e.id, meaning, signerName: u.name, signerRole: u.role, signedHash: recordHash(e) },
       });
     }
@@ -299,7 +499,9 @@ export async function seedIfEmpty(db: Db, now = Date.now()): Promise<boolean> {
   ]);
   await db.insert(facilityRules).values({ version: 1, values: DEMO_RULES, changedBy: "u-ines" });
   if (DEFAULT_TEMPLATES.length) {
-    await db.insert(procedureTemplates).values(DEFAULT_TEMPLATES.map((t) => ({ ...t, id: randomUUID(), version: 1, createdBy: "u-ines" })));
+    await db
+      .insert(procedureTemplates)
+      .values(DEFAULT_TEMPLATES.map((t) => ({ ...t, id: randomUUID(), version: 1, createdBy: "u-ines" })));
   }
   const all = withSignatures(demoHistory(now).map(toEntry));
   // Written through the normal append path (checks, hash chain, projections), each entry checked

@@ -18,7 +18,9 @@ export function env(): Env {
   if (!cached) {
     const parsed = envSchema.safeParse(process.env);
     if (!parsed.success) {
-      throw new Error(`Bad environment: ${parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);
+      throw new Error(
+        `Bad environment: ${parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`,
+      );
     }
     cached = parsed.data;
   }

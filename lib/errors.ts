@@ -1,6 +1,15 @@
 // Errors as codes: `type:surface`, mapped to an HTTP status in one place. Database details are
 // logged, never returned to the client.
-export type ErrorType = "bad_request" | "unauthorized" | "forbidden" | "not_found" | "conflict" | "too_large" | "rate_limited" | "unsupported" | "unavailable";
+export type ErrorType =
+  | "bad_request"
+  | "unauthorized"
+  | "forbidden"
+  | "not_found"
+  | "conflict"
+  | "too_large"
+  | "rate_limited"
+  | "unsupported"
+  | "unavailable";
 
 const STATUS: Record<ErrorType, number> = {
   bad_request: 400,

@@ -30,7 +30,13 @@ export function formatWhen(iso: string, now = Date.now()): string {
 
 // One formatter for every call: toLocaleString builds a new one each time, which costs
 // milliseconds per logbook row on a tablet.
-const DATE_TIME = new Intl.DateTimeFormat("en-GB", { day: "2-digit", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit" });
+const DATE_TIME = new Intl.DateTimeFormat("en-GB", {
+  day: "2-digit",
+  month: "short",
+  year: "numeric",
+  hour: "2-digit",
+  minute: "2-digit",
+});
 
 export function formatDate(iso: string): string {
   return DATE_TIME.format(new Date(iso));
@@ -60,12 +66,24 @@ export function kindLabel(kind: string): string {
   return KIND_LABEL[kind] ?? kind.replace(/[._]/g, " ").replace(/^\w/, (c) => c.toUpperCase());
 }
 
-const STATE_LABEL: Record<string, string> = { warm: "Warm", cooling: "Cooling down", cold: "Cold", warming: "Warming up", maintenance: "Open for work" };
+const STATE_LABEL: Record<string, string> = {
+  warm: "Warm",
+  cooling: "Cooling down",
+  cold: "Cold",
+  warming: "Warming up",
+  maintenance: "Open for work",
+};
 export function stateLabel(state: string | null): string {
   return state ? (STATE_LABEL[state] ?? state) : "No state recorded";
 }
 
-const MEANING_LABEL: Record<string, string> = { performed: "Performed", verified: "Verified", handed_over: "Handed over", accepted: "Accepted", audited: "Audited" };
+const MEANING_LABEL: Record<string, string> = {
+  performed: "Performed",
+  verified: "Verified",
+  handed_over: "Handed over",
+  accepted: "Accepted",
+  audited: "Audited",
+};
 export function meaningLabel(meaning: string): string {
   return MEANING_LABEL[meaning] ?? meaning;
 }

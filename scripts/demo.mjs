@@ -38,7 +38,6 @@ const DEMO_ACCOUNTS = [
   ["grace@larchmere.example", "safety officer", "Dr. Grace Oyelaran"],
 ];
 
-
 async function mustRun(what, cmd, argv, env) {
   const code = await run(cmd, argv, env);
   if (code !== 0) {
@@ -80,7 +79,11 @@ function newestSourceTime() {
   };
   for (const entry of ["app", "components", "db", "lib", "sw", "public", "types"]) visit(join(ROOT, entry));
   for (const file of readdirSync(ROOT)) {
-    if (/^(package(-lock)?\.json|next\.config\.\w+|proxy\.ts|middleware\.ts|tsconfig\.json|postcss\.config\.\w+|tailwind\.config\.\w+)$/.test(file)) {
+    if (
+      /^(package(-lock)?\.json|next\.config\.\w+|proxy\.ts|middleware\.ts|tsconfig\.json|postcss\.config\.\w+|tailwind\.config\.\w+)$/.test(
+        file,
+      )
+    ) {
       visit(join(ROOT, file));
     }
   }
@@ -122,7 +125,10 @@ if (args.has("--no-build") && buildIsCurrent()) {
 } else {
   if (args.has("--no-build")) console.log(`No build in ${DIST_DIR}/ newer than the sources: building anyway.`);
   console.log("Building (next build --webpack, about half a minute) …");
-  await mustRun("next build", nextBin, ["build", "--webpack"], { NEXT_DIST_DIR: DIST_DIR, NEXT_TELEMETRY_DISABLED: "1" });
+  await mustRun("next build", nextBin, ["build", "--webpack"], {
+    NEXT_DIST_DIR: DIST_DIR,
+    NEXT_TELEMETRY_DISABLED: "1",
+  });
 }
 
 // 4. Start, in its own process group so a signal reaches next-server and everything under it.

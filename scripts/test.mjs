@@ -28,7 +28,6 @@ function seconds(ms) {
   return `${(ms / 1000).toFixed(1)} s`;
 }
 
-
 function finish(failedStage) {
   console.log("\nStage timings:");
   for (const { name, ms, ok } of timings) {

@@ -33,7 +33,8 @@ const serwist: Serwist = new Serwist({
   // listener below, which keeps those requests from reaching the worker at all.
   runtimeCaching: [
     {
-      matcher: ({ request, url, sameOrigin }) => sameOrigin && request.mode === "navigate" && CRYOSTAT_PAGE.test(url.pathname),
+      matcher: ({ request, url, sameOrigin }) =>
+        sameOrigin && request.mode === "navigate" && CRYOSTAT_PAGE.test(url.pathname),
       handler: async (options) => {
         try {
           return await cryostatPages.handle(options);
@@ -44,9 +45,13 @@ const serwist: Serwist = new Serwist({
         }
       },
     },
-    { matcher: ({ request, url, sameOrigin }) => sameOrigin && notApi(url) && request.mode === "navigate", handler: pages },
     {
-      matcher: ({ request, url, sameOrigin }) => sameOrigin && notApi(url) && ["style", "script", "font", "image", "worker"].includes(request.destination),
+      matcher: ({ request, url, sameOrigin }) => sameOrigin && notApi(url) && request.mode === "navigate",
+      handler: pages,
+    },
+    {
+      matcher: ({ request, url, sameOrigin }) =>
+        sameOrigin && notApi(url) && ["style", "script", "font", "image", "worker"].includes(request.destination),
       handler: new CacheFirst({ cacheName: "assets" }),
     },
   ],
@@ -60,7 +65,10 @@ const serwist: Serwist = new Serwist({
 type StaticRoute = { condition: { urlPattern: string }; source: "network" };
 self.addEventListener("install", (event) => {
   const routes = event as ExtendableEvent & { addRoutes?: (r: StaticRoute[]) => Promise<void> };
-  if (routes.addRoutes) event.waitUntil(routes.addRoutes([{ condition: { urlPattern: "/api/*" }, source: "network" }]).catch(() => undefined));
+  if (routes.addRoutes)
+    event.waitUntil(
+      routes.addRoutes([{ condition: { urlPattern: "/api/*" }, source: "network" }]).catch(() => undefined),
+    );
 });
 
 self.addEventListener("message", (event) => {

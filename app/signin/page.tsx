@@ -17,7 +17,9 @@ export default function SignInPage() {
       <Suspense>
         <SignInForm />
       </Suspense>
-      <p className="text-center text-sm text-muted">The logbook of the cryostat room. Works without a network once you have signed in here.</p>
+      <p className="text-center text-sm text-muted">
+        The logbook of the cryostat room. Works without a network once you have signed in here.
+      </p>
     </main>
   );
 }

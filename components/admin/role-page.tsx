@@ -2,10 +2,20 @@
 // screen for those roles, or the "not allowed" notice for everyone else. A server component.
 import type { ComponentType, ReactNode } from "react";
 import { NotAllowed } from "@/components/shell/not-allowed";
-import { currentUser } from "@/lib/auth/require";
 import type { Role } from "@/lib/auth/permissions";
+import { currentUser } from "@/lib/auth/require";
 
-export async function RolePage({ roles, need, title, children }: { roles: readonly Role[]; need: string; title: string; children: ReactNode }) {
+export async function RolePage({
+  roles,
+  need,
+  title,
+  children,
+}: {
+  roles: readonly Role[];
+  need: string;
+  title: string;
+  children: ReactNode;
+}) {
   const me = await currentUser();
   if (!me || !roles.includes(me.role)) return <NotAllowed need={need} />;
   return (
@@ -17,7 +27,15 @@ export async function RolePage({ roles, need, title, children }: { roles: readon
 }
 
 /** A whole page (its default export) that shows one screen, with no props, to the given roles. */
-export function rolePage({ Screen, ...frame }: { roles: readonly Role[]; need: string; title: string; Screen: ComponentType }) {
+export function rolePage({
+  Screen,
+  ...frame
+}: {
+  roles: readonly Role[];
+  need: string;
+  title: string;
+  Screen: ComponentType;
+}) {
   return function Page() {
     return (
       <RolePage {...frame}>

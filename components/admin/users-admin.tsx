@@ -9,7 +9,7 @@ import { OptionList, TableHead } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import type { AdminUser } from "@/db/queries/users";
 import { ROLE_LABEL } from "@/lib/auth/permissions";
-import { newUserSchema, type NewUser } from "@/lib/schemas/user";
+import { type NewUser, newUserSchema } from "@/lib/schemas/user";
 
 const ROLE_OPTIONS = Object.entries(ROLE_LABEL).map(([value, label]) => ({ value, label }));
 
@@ -29,7 +29,11 @@ export function UsersAdmin() {
   const change = async (u: AdminUser, body: { role?: AdminUser["role"]; active?: boolean }) => {
     setError(null);
     try {
-      const r = await fetch(`/api/users/${encodeURIComponent(u.id)}`, { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+      const r = await fetch(`/api/users/${encodeURIComponent(u.id)}`, {
+        method: "PATCH",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify(body),
+      });
       const res = await r.json();
       if (!r.ok) setError(res?.error?.message ?? "The change was not saved.");
       await refresh();
@@ -42,7 +46,9 @@ export function UsersAdmin() {
     <div className="grid gap-4 lg:grid-cols-[1fr_22rem]">
       <Panel className="p-0">
         {error && <Notice tone="danger" title={error} role="alert" />}
-        <p className="px-5 pt-4 text-base text-muted">A change of role or access ends that person&apos;s sessions and is kept on the audit trail.</p>
+        <p className="px-5 pt-4 text-base text-muted">
+          A change of role or access ends that person&apos;s sessions and is kept on the audit trail.
+        </p>
         {!users && !error && <Loading />}
         {users && (
           <table className="w-full text-left">
@@ -95,7 +101,11 @@ function AddUserForm({ onAdded }: { onAdded: () => Promise<void> }) {
   const submit = handleSubmit(async (data) => {
     setMessage(null);
     try {
-      const r = await fetch("/api/users", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(data) });
+      const r = await fetch("/api/users", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify(data),
+      });
       const body = await r.json();
       if (!r.ok) {
         setMessage({ tone: "danger", text: [body.error?.message, ...(body.error?.details ?? [])].join(" ") });
@@ -114,15 +124,25 @@ function AddUserForm({ onAdded }: { onAdded: () => Promise<void> }) {
       <h2 className="mb-3 text-xl font-bold">Add a person</h2>
       <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
         <TextField label="Full name" {...register("name")} error={errors.name?.message} autoComplete="off" />
-        <TextField label="Email address" type="email" {...register("email")} error={errors.email?.message} autoComplete="off" />
-        <SelectField
-          label="Role"
-          {...register("role")}
-          error={errors.role?.message}
-          options={ROLE_OPTIONS}
+        <TextField
+          label="Email address"
+          type="email"
+          {...register("email")}
+          error={errors.email?.message}
+          autoComplete="off"
         />
-        <TextField label="First password" type="password" {...register("password")} error={errors.password?.message} hint="At least 10 characters; they can change it later." autoComplete="new-password" />
-        {message && <Notice tone={message.tone} title={message.text} role={message.tone === "danger" ? "alert" : "status"} />}
+        <SelectField label="Role" {...register("role")} error={errors.role?.message} options={ROLE_OPTIONS} />
+        <TextField
+          label="First password"
+          type="password"
+          {...register("password")}
+          error={errors.password?.message}
+          hint="At least 10 characters; they can change it later."
+          autoComplete="new-password"
+        />
+        {message && (
+          <Notice tone={message.tone} title={message.text} role={message.tone === "danger" ? "alert" : "status"} />
+        )}
         <Button type="submit" variant="primary" disabled={isSubmitting}>
           {isSubmitting ? "Adding…" : "Add person"}
         </Button>

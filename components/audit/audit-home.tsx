@@ -4,7 +4,7 @@
 import Link from "next/link";
 import { useCallback, useEffect, useState } from "react";
 import { Button, buttonClass } from "@/components/ui/button";
-import { OptionList, TableHead, type Choice } from "@/components/ui/form";
+import { type Choice, OptionList, TableHead } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { getJson, useJson } from "@/components/ui/use-json";
 import type { AuditItem } from "@/db/queries/audit";
@@ -25,7 +25,13 @@ export function AuditHome() {
     <>
       <div role="tablist" aria-label="Audit" className="mb-4 flex flex-wrap gap-2">
         {TABS.map((t) => (
-          <button key={t.key} role="tab" aria-selected={tab === t.key} onClick={() => setTab(t.key)} className={`min-h-12 rounded-xl border-2 px-5 font-semibold ${tab === t.key ? "border-accent bg-sunk" : "border-line"}`}>
+          <button
+            key={t.key}
+            role="tab"
+            aria-selected={tab === t.key}
+            onClick={() => setTab(t.key)}
+            className={`min-h-12 rounded-xl border-2 px-5 font-semibold ${tab === t.key ? "border-accent bg-sunk" : "border-line"}`}
+          >
             {t.label}
           </button>
         ))}
@@ -43,7 +49,8 @@ function Summary({ i }: { i: AuditItem }) {
     const eff = i.figures && "efficiencyPercent" in i.figures ? i.figures.efficiencyPercent : null;
     return (
       <span>
-        <span className="num">{trim(Number(p.gainedLitres))}</span> L of <span className="num">{trim(Number(p.suppliedLitres))}</span> L
+        <span className="num">{trim(Number(p.gainedLitres))}</span> L of{" "}
+        <span className="num">{trim(Number(p.suppliedLitres))}</span> L
         {eff !== null && (
           <>
             {" ("}
@@ -68,7 +75,8 @@ function Queue() {
   const items = data?.items;
   if (error) return <Notice tone="danger" role="alert" title={error} />;
   if (!items) return <Loading />;
-  if (!items.length) return <Notice tone="ok" title="Nothing waiting: every transfer, quench and incident has a signed audit." />;
+  if (!items.length)
+    return <Notice tone="ok" title="Nothing waiting: every transfer, quench and incident has a signed audit." />;
   return (
     <Panel className="p-0">
       <table className="w-full text-left">
@@ -91,7 +99,11 @@ function Queue() {
                 <FlagTags flags={i.flags} />
               </td>
               <td className="px-5 py-3">
-                <Link className={buttonClass("secondary")} href={`/audit/${i.entry.id}`} aria-label={`Open ${kindLabel(i.entry.kind)} on ${i.cryostatName} of ${formatDate(i.entry.recordedAt)}`}>
+                <Link
+                  className={buttonClass("secondary")}
+                  href={`/audit/${i.entry.id}`}
+                  aria-label={`Open ${kindLabel(i.entry.kind)} on ${i.cryostatName} of ${formatDate(i.entry.recordedAt)}`}
+                >
                   Open
                 </Link>
               </td>
@@ -113,22 +125,46 @@ const SORTS: Choice[] = [
 type Filters = { cryostat: string; person: string; from: string; to: string; flag: string; sort: string; dir: string };
 
 function TransferTable() {
-  const [f, setF] = useState<Filters>({ cryostat: "", person: "", from: "", to: "", flag: "", sort: "date", dir: "desc" });
-  const [options, setOptions] = useState<{ cryostats: { id: string; name: string }[]; people: { id: string; name: string }[] }>({ cryostats: [], people: [] });
+  const [f, setF] = useState<Filters>({
+    cryostat: "",
+    person: "",
+    from: "",
+    to: "",
+    flag: "",
+    sort: "date",
+    dir: "desc",
+  });
+  const [options, setOptions] = useState<{
+    cryostats: { id: string; name: string }[];
+    people: { id: string; name: string }[];
+  }>({ cryostats: [], people: [] });
   const query = new URLSearchParams(Object.entries(f).filter(([, v]) => v)).toString();
   const { data, error } = useJson<{ items: AuditItem[] }>(`/api/audit/transfers?${query}`);
   const items = data?.items ?? null;
   useEffect(() => {
-    getJson<{ cryostats: { id: string; name: string }[] }>("/api/cryostats").then((b) => setOptions((o) => ({ ...o, cryostats: b.cryostats })), () => undefined);
+    getJson<{ cryostats: { id: string; name: string }[] }>("/api/cryostats").then(
+      (b) => setOptions((o) => ({ ...o, cryostats: b.cryostats })),
+      () => undefined,
+    );
   }, []);
   useEffect(() => {
     if (!items) return;
     const people = new Map<string, string>();
     for (const i of items) {
       people.set(i.entry.authorId, i.authorName);
-      ((i.entry.payload as { peoplePresent?: string[] }).peoplePresent ?? []).forEach((id, k) => people.set(id, i.peopleNames[k] ?? id));
+      ((i.entry.payload as { peoplePresent?: string[] }).peoplePresent ?? []).forEach((id, k) =>
+        people.set(id, i.peopleNames[k] ?? id),
+      );
     }
-    setOptions((o) => ({ ...o, people: [...new Set([...o.people.map((p) => JSON.stringify(p)), ...[...people].map(([id, name]) => JSON.stringify({ id, name }))])].map((s) => JSON.parse(s)) }));
+    setOptions((o) => ({
+      ...o,
+      people: [
+        ...new Set([
+          ...o.people.map((p) => JSON.stringify(p)),
+          ...[...people].map(([id, name]) => JSON.stringify({ id, name })),
+        ]),
+      ].map((s) => JSON.parse(s)),
+    }));
   }, [items]);
   const sel = "min-h-12 rounded-xl border-2 border-line bg-bg px-3";
   const set = (k: keyof Filters) => (e: { target: { value: string } }) => setF((x) => ({ ...x, [k]: e.target.value }));
@@ -150,23 +186,42 @@ function TransferTable() {
     <div className="flex flex-col gap-4">
       <Panel>
         <form className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()} aria-label="Filters">
-          {pick("cryostat", "Cryostat", [{ value: "", label: "All" }, ...options.cryostats.map((c) => ({ value: c.id, label: c.name }))])}
-          {pick("person", "Person", [{ value: "", label: "Anyone" }, ...options.people.map((p) => ({ value: p.id, label: p.name }))])}
+          {pick("cryostat", "Cryostat", [
+            { value: "", label: "All" },
+            ...options.cryostats.map((c) => ({ value: c.id, label: c.name })),
+          ])}
+          {pick("person", "Person", [
+            { value: "", label: "Anyone" },
+            ...options.people.map((p) => ({ value: p.id, label: p.name })),
+          ])}
           {day("from", "From")}
           {day("to", "To")}
-          {pick("flag", "Flag", [{ value: "", label: "Any" }, ...FLAG_CODES.map((c) => ({ value: c, label: FLAG_LABEL[c] }))])}
+          {pick("flag", "Flag", [
+            { value: "", label: "Any" },
+            ...FLAG_CODES.map((c) => ({ value: c, label: FLAG_LABEL[c] })),
+          ])}
           {pick("sort", "Sort by", SORTS)}
-          <Button onClick={() => setF((x) => ({ ...x, dir: x.dir === "asc" ? "desc" : "asc" }))} aria-label={`Order: ${f.dir === "asc" ? "ascending" : "descending"}`}>
+          <Button
+            onClick={() => setF((x) => ({ ...x, dir: x.dir === "asc" ? "desc" : "asc" }))}
+            aria-label={`Order: ${f.dir === "asc" ? "ascending" : "descending"}`}
+          >
             {f.dir === "asc" ? "↑ Ascending" : "↓ Descending"}
           </Button>
           <a className={buttonClass("secondary")} href={`/api/exports/transfers?${query}`} download>
             Export CSV
           </a>
-          <a className={buttonClass("secondary")} href={`/api/exports/report?${new URLSearchParams(Object.entries({ from: f.from, to: f.to, cryostat: f.cryostat }).filter(([, v]) => v)).toString()}`} download>
+          <a
+            className={buttonClass("secondary")}
+            href={`/api/exports/report?${new URLSearchParams(Object.entries({ from: f.from, to: f.to, cryostat: f.cryostat }).filter(([, v]) => v)).toString()}`}
+            download
+          >
             PDF audit report
           </a>
         </form>
-        <p className="mt-2 text-sm text-muted">The PDF report covers the chosen period (default: the last 30 days) with every transfer, quench and incident, its flags and its signatures.</p>
+        <p className="mt-2 text-sm text-muted">
+          The PDF report covers the chosen period (default: the last 30 days) with every transfer, quench and incident,
+          its flags and its signatures.
+        </p>
       </Panel>
       {error && <Notice tone="danger" role="alert" title={error} />}
       {!items && !error && <Loading />}
@@ -174,7 +229,10 @@ function TransferTable() {
         <Panel className="overflow-x-auto p-0">
           <table className="w-full text-left">
             <caption className="px-5 py-3 text-left text-lg font-bold">Transfers ({items.length})</caption>
-            <TableHead cell="px-4 py-2" columns={["When", "Cryostat", "People", "Litres", "Efficiency", "Flags", "Audit"]} />
+            <TableHead
+              cell="px-4 py-2"
+              columns={["When", "Cryostat", "People", "Litres", "Efficiency", "Flags", "Audit"]}
+            />
             <tbody>
               {items.map((i) => {
                 const p = i.entry.payload as Record<string, number>;
@@ -182,7 +240,10 @@ function TransferTable() {
                 return (
                   <tr key={i.entry.id} className="border-t border-line align-top">
                     <td className="px-4 py-2 whitespace-nowrap">
-                      <Link className="inline-flex min-h-12 items-center font-semibold text-accent underline" href={`/audit/${i.entry.id}`}>
+                      <Link
+                        className="inline-flex min-h-12 items-center font-semibold text-accent underline"
+                        href={`/audit/${i.entry.id}`}
+                      >
                         {formatDate(i.entry.recordedAt)}
                       </Link>
                     </td>
@@ -195,7 +256,15 @@ function TransferTable() {
                     <td className="px-4 py-2">
                       <FlagTags flags={i.flags} />
                     </td>
-                    <td className="px-4 py-2">{i.verdict ? <Tag tone={i.verdict === "acceptable" ? "ok" : "danger"}>{i.verdict === "acceptable" ? "Acceptable" : "Needs action"}</Tag> : <Tag>Not audited</Tag>}</td>
+                    <td className="px-4 py-2">
+                      {i.verdict ? (
+                        <Tag tone={i.verdict === "acceptable" ? "ok" : "danger"}>
+                          {i.verdict === "acceptable" ? "Acceptable" : "Needs action"}
+                        </Tag>
+                      ) : (
+                        <Tag>Not audited</Tag>
+                      )}
+                    </td>
                   </tr>
                 );
               })}
@@ -215,14 +284,21 @@ function ChainCheck() {
     setBusy(true);
     setError(null);
     getJson<{ reports: ChainReport[] }>("/api/chain")
-      .then((b) => setReports(b.reports), (e: Error) => setError(e.message))
+      .then(
+        (b) => setReports(b.reports),
+        (e: Error) => setError(e.message),
+      )
       .finally(() => setBusy(false));
   }, []);
   useEffect(check, [check]);
   async function signNow() {
     setBusy(true);
     try {
-      const r = await fetch("/api/chain", { method: "POST", headers: { "content-type": "application/json" }, body: "{}" });
+      const r = await fetch("/api/chain", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: "{}",
+      });
       if (!r.ok) throw new Error((await r.json()).error?.message ?? "Could not sign.");
       check();
     } catch (e) {
@@ -233,8 +309,9 @@ function ChainCheck() {
   return (
     <Panel>
       <p className="mb-3">
-        Every cryostat's log is a hash chain. The check recomputes each link and compares it with the server's signed checkpoints (Ed25519, key kept outside the database), so a row changed, inserted, deleted or reordered in the database — or a
-        chain recomputed after a change — is named here.
+        Every cryostat's log is a hash chain. The check recomputes each link and compares it with the server's signed
+        checkpoints (Ed25519, key kept outside the database), so a row changed, inserted, deleted or reordered in the
+        database — or a chain recomputed after a change — is named here.
       </p>
       <div className="mb-3 flex gap-2">
         <Button variant="primary" onClick={check} disabled={busy}>
@@ -259,12 +336,18 @@ function ChainCheck() {
                     {r.message}
                     {r.firstBad && (
                       <span className="block">
-                        First bad entry: seq {r.firstBad.seq}, {kindLabel(r.firstBad.kind)} of {formatDate(r.firstBad.recordedAt)} ({r.firstBad.id}).
+                        First bad entry: seq {r.firstBad.seq}, {kindLabel(r.firstBad.kind)} of{" "}
+                        {formatDate(r.firstBad.recordedAt)} ({r.firstBad.id}).
                       </span>
                     )}
                   </p>
                 )}
-                {r.untrustedCheckpoints > 0 && <p className="text-warn">{r.untrustedCheckpoints} checkpoint(s) in the database are not signed by this server's key and were ignored.</p>}
+                {r.untrustedCheckpoints > 0 && (
+                  <p className="text-warn">
+                    {r.untrustedCheckpoints} checkpoint(s) in the database are not signed by this server's key and were
+                    ignored.
+                  </p>
+                )}
               </Notice>
             </li>
           ))}

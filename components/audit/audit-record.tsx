@@ -4,18 +4,18 @@
 // `audited` signature (stylus mark + PIN or password) are sent together and checked by the server.
 import Link from "next/link";
 import { useCallback, useEffect, useState } from "react";
+import { EntryBody } from "@/components/logbook/entry-body";
 import { Caution } from "@/components/safety/caution";
 import { useMe } from "@/components/shell/use-me";
 import { SignatureManifestation } from "@/components/signature/manifestation";
-import { SignDialog, type Confirmation } from "@/components/signature/sign-dialog";
-import { EntryBody } from "@/components/logbook/entry-body";
+import { type Confirmation, SignDialog } from "@/components/signature/sign-dialog";
 import { Button, buttonClass } from "@/components/ui/button";
 import { ChoiceButtons } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import type { AuditItem, SignatureView } from "@/db/queries/audit";
 import type { QuenchFigures, TransferFigures } from "@/lib/audit/figures";
-import { formatDate, kindLabel, trim } from "@/lib/format";
 import type { SessionUser } from "@/lib/auth/session-user";
+import { formatDate, kindLabel, trim } from "@/lib/format";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { signatureEntry, signingSubject } from "@/lib/signing/sign";
 import { FlagTags } from "./flag-tags";
@@ -26,7 +26,19 @@ const VERDICTS = [
 ] as const;
 
 function Manifest({ s }: { s: SignatureView }) {
-  return <SignatureManifestation sig={{ signerName: s.signerName, signerRole: s.signerRole, signedAt: s.signedAt, meaning: s.meaning as never, confirmedBy: (s.confirmedBy ?? undefined) as never, image: s.image as never, valid: true }} />;
+  return (
+    <SignatureManifestation
+      sig={{
+        signerName: s.signerName,
+        signerRole: s.signerRole,
+        signedAt: s.signedAt,
+        meaning: s.meaning as never,
+        confirmedBy: (s.confirmedBy ?? undefined) as never,
+        image: s.image as never,
+        valid: true,
+      }}
+    />
+  );
 }
 
 /** A figure (number font) followed by its words, or `none` when there is no figure. */
@@ -59,7 +71,9 @@ function Figures({ item }: { item: AuditItem }) {
           {trim(t.lossLitres)} L liquid ≈ {trim(t.gasToRecoveryLitres / 1000)} m³ gas to recovery (20 °C, 1 atm)
         </dd>
         <dt className="text-muted">Boil-off since the previous transfer</dt>
-        <dd className="num">{t.boilOff ? `${trim(t.boilOff.litresPerDay)} L/day over ${trim(t.boilOff.days)} days` : "—"}</dd>
+        <dd className="num">
+          {t.boilOff ? `${trim(t.boilOff.litresPerDay)} L/day over ${trim(t.boilOff.days)} days` : "—"}
+        </dd>
       </dl>
     );
   }
@@ -71,7 +85,11 @@ function Figures({ item }: { item: AuditItem }) {
       <dt className="text-muted">Gas released (estimate)</dt>
       <FigureText value={q.gasM3} after=" m³ at 20 °C, 1 atm" />
       <dt className="text-muted">Room oxygen (estimate)</dt>
-      <FigureText value={q.oxygenEstimateFraction === null ? null : q.oxygenEstimateFraction * 100} after=" % if mixed into the room" none="room volume not set in the facility rules" />
+      <FigureText
+        value={q.oxygenEstimateFraction === null ? null : q.oxygenEstimateFraction * 100}
+        after=" % if mixed into the room"
+        none="room volume not set in the facility rules"
+      />
     </dl>
   );
 }
@@ -103,10 +121,26 @@ export function AuditRecord({ id }: { id: string }) {
   async function signFinding(finding: EntryInput, signer: SessionUser, c: Confirmation) {
     const subject = signingSubject(finding, signer, "audited");
     const proof = await c.prove(subject);
-    const signature = signatureEntry({ target: finding, subject, signer, deviceId: "audit-desk", image: c.image, confirmedBy: c.confirmedBy, proof });
-    const r = await fetch("/api/audit/findings", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ finding, signature }) });
+    const signature = signatureEntry({
+      target: finding,
+      subject,
+      signer,
+      deviceId: "audit-desk",
+      image: c.image,
+      confirmedBy: c.confirmedBy,
+      proof,
+    });
+    const r = await fetch("/api/audit/findings", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ finding, signature }),
+    });
     const body = await r.json().catch(() => ({}));
-    if (!r.ok) throw new Error([body?.error?.message, ...(body?.error?.details ?? [])].filter(Boolean).join(" ") || `The server answered ${r.status}.`);
+    if (!r.ok)
+      throw new Error(
+        [body?.error?.message, ...(body?.error?.details ?? [])].filter(Boolean).join(" ") ||
+          `The server answered ${r.status}.`,
+      );
     setDone(`Finding signed: ${verdict === "acceptable" ? "acceptable" : "needs action"}.`);
     setFindings("");
     await load();
@@ -120,7 +154,12 @@ export function AuditRecord({ id }: { id: string }) {
       cryostatId: item.entry.cryostatId,
       runId: null,
       kind: "audit.finding",
-      payload: { targetEntryId: item.entry.id, verdict, findings: findings.trim(), flags: item.flags.map((f) => f.code) },
+      payload: {
+        targetEntryId: item.entry.id,
+        verdict,
+        findings: findings.trim(),
+        flags: item.flags.map((f) => f.code),
+      },
       authorId: me.id,
       deviceId: "audit-desk",
       recordedAt: new Date().toISOString(),
@@ -151,8 +190,12 @@ export function AuditRecord({ id }: { id: string }) {
           </div>
           {item.entry.kind === "transfer" && (
             <p className="mt-2">
-              PPE confirmed: <strong>{(item.entry.payload as { ppeConfirmed: boolean }).ppeConfirmed ? "yes" : "no"}</strong> · Oxygen monitor checked:{" "}
-              <strong>{(item.entry.payload as { oxygenMonitorChecked: boolean }).oxygenMonitorChecked ? "yes" : "no"}</strong>
+              PPE confirmed:{" "}
+              <strong>{(item.entry.payload as { ppeConfirmed: boolean }).ppeConfirmed ? "yes" : "no"}</strong> · Oxygen
+              monitor checked:{" "}
+              <strong>
+                {(item.entry.payload as { oxygenMonitorChecked: boolean }).oxygenMonitorChecked ? "yes" : "no"}
+              </strong>
             </p>
           )}
           <div className="mt-3">
@@ -182,7 +225,10 @@ export function AuditRecord({ id }: { id: string }) {
             {item.findings.map((f) => (
               <div key={f.id} className="mb-3" data-finding={f.id}>
                 <p>
-                  <Tag tone={f.verdict === "acceptable" ? "ok" : "danger"}>{f.verdict === "acceptable" ? "Acceptable" : "Needs action"}</Tag> {f.authorName}, {formatDate(f.recordedAt)}
+                  <Tag tone={f.verdict === "acceptable" ? "ok" : "danger"}>
+                    {f.verdict === "acceptable" ? "Acceptable" : "Needs action"}
+                  </Tag>{" "}
+                  {f.authorName}, {formatDate(f.recordedAt)}
                 </p>
                 <p className="whitespace-pre-wrap">{f.findings || "(no text)"}</p>
                 {f.signatures.map((s) => (
@@ -195,11 +241,23 @@ export function AuditRecord({ id }: { id: string }) {
         {officer && (
           <Panel>
             <h3 className="mb-2 text-lg font-bold">Your finding</h3>
-            <ChoiceButtons className="mb-3 flex flex-wrap gap-2" label="Verdict" options={VERDICTS} value={verdict} onChange={setVerdict} />
+            <ChoiceButtons
+              className="mb-3 flex flex-wrap gap-2"
+              label="Verdict"
+              options={VERDICTS}
+              value={verdict}
+              onChange={setVerdict}
+            />
             <label htmlFor="finding-text" className="font-semibold">
               Findings
             </label>
-            <textarea id="finding-text" rows={4} value={findings} onChange={(e) => setFindings(e.target.value)} className="mt-1 w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg" />
+            <textarea
+              id="finding-text"
+              rows={4}
+              value={findings}
+              onChange={(e) => setFindings(e.target.value)}
+              className="mt-1 w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg"
+            />
             {done && <Notice tone="ok" role="status" title={done} />}
             <div className="mt-3 flex gap-2">
               <Button variant="primary" onClick={startSigning} disabled={!me}>
@@ -212,15 +270,26 @@ export function AuditRecord({ id }: { id: string }) {
           </Panel>
         )}
         {signing && me && (
-          <SignDialog me={me} meaning="audited" title="Sign the audit finding" onClose={() => setSigning(null)} onSign={(c) => signFinding(signing, me, c)}>
+          <SignDialog
+            me={me}
+            meaning="audited"
+            title="Sign the audit finding"
+            onClose={() => setSigning(null)}
+            onSign={(c) => signFinding(signing, me, c)}
+          >
             <p>
-              {kindLabel(item.entry.kind)} on {item.cryostatName}, {formatDate(item.entry.recordedAt)} — verdict <strong>{verdict === "acceptable" ? "acceptable" : "needs action"}</strong>.
+              {kindLabel(item.entry.kind)} on {item.cryostatName}, {formatDate(item.entry.recordedAt)} — verdict{" "}
+              <strong>{verdict === "acceptable" ? "acceptable" : "needs action"}</strong>.
             </p>
           </SignDialog>
         )}
       </div>
       <div>
-        <Caution topic={item.entry.kind === "quench" ? "quench" : "transfer"} cryostatId={item.entry.cryostatId ?? undefined} cryostatName={item.cryostatName} />
+        <Caution
+          topic={item.entry.kind === "quench" ? "quench" : "transfer"}
+          cryostatId={item.entry.cryostatId ?? undefined}
+          cryostatName={item.cryostatName}
+        />
       </div>
     </div>
   );

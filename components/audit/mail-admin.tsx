@@ -7,7 +7,10 @@ import type { MailRow } from "@/db/queries/mail";
 import { formatDate } from "@/lib/format";
 
 export function MailAdmin() {
-  const [data, setData] = useState<{ transport: string; messages: (Omit<MailRow, "createdAt" | "sentAt"> & { createdAt: string; sentAt: string | null })[] } | null>(null);
+  const [data, setData] = useState<{
+    transport: string;
+    messages: (Omit<MailRow, "createdAt" | "sentAt"> & { createdAt: string; sentAt: string | null })[];
+  } | null>(null);
   const [error, setError] = useState<string | null>(null);
   useEffect(() => {
     fetch("/api/mail", { cache: "no-store" })
@@ -22,7 +25,14 @@ export function MailAdmin() {
   if (!data) return <Loading />;
   return (
     <div className="flex flex-col gap-3">
-      <Notice tone="neutral" title={data.transport === "fake" ? "Local mail: messages are kept here and not sent anywhere (set RIMELOG_MAIL=smtp and SMTP_URL to send)." : "Messages are sent by SMTP; this is the stored copy."} />
+      <Notice
+        tone="neutral"
+        title={
+          data.transport === "fake"
+            ? "Local mail: messages are kept here and not sent anywhere (set RIMELOG_MAIL=smtp and SMTP_URL to send)."
+            : "Messages are sent by SMTP; this is the stored copy."
+        }
+      />
       {!data.messages.length && <p className="text-muted">No messages yet.</p>}
       {data.messages.map((m) => (
         <Panel key={m.id} data-event={m.eventKey}>
@@ -32,7 +42,13 @@ export function MailAdmin() {
               <span className="text-base text-muted">
                 to {m.to} · {formatDate(m.createdAt)}
               </span>
-              {m.sentAt ? <Tag tone="ok">sent {formatDate(m.sentAt)}</Tag> : m.error ? <Tag tone="danger">not sent: {m.error}</Tag> : <Tag>queued</Tag>}
+              {m.sentAt ? (
+                <Tag tone="ok">sent {formatDate(m.sentAt)}</Tag>
+              ) : m.error ? (
+                <Tag tone="danger">not sent: {m.error}</Tag>
+              ) : (
+                <Tag>queued</Tag>
+              )}
             </summary>
             <pre className="mt-2 whitespace-pre-wrap font-sans">{m.body}</pre>
             <p className="mt-1 text-sm text-muted">Event: {m.eventKey}</p>

@@ -1,9 +1,16 @@
 // Pure shaping of a cryostat's series for uPlot: aligned columns (time in seconds, null where a
 // series has no point), the boil-off fit since the last fill and its forecast to the minimum level.
-import { boilOffRate, forecastMinimumLevel, litresFromLevel, type BoilOffRate, type MinimumLevelForecast } from "@/lib/cryo";
-import type { CryostatSeries } from "@/db/queries/series";
-import type { CryostatConfig } from "@/lib/schemas/cryostat";
+
 import { sinceLastFill } from "@/components/cryo/derive";
+import type { CryostatSeries } from "@/db/queries/series";
+import {
+  type BoilOffRate,
+  boilOffRate,
+  forecastMinimumLevel,
+  litresFromLevel,
+  type MinimumLevelForecast,
+} from "@/lib/cryo";
+import type { CryostatConfig } from "@/lib/schemas/cryostat";
 
 export type Column = (number | null)[];
 
@@ -48,12 +55,23 @@ export function heliumModel(series: CryostatSeries, config: CryostatConfig, nowM
       minimumValue = null;
     }
   }
-  const model: HeliumModel = { unit: inLitres ? "L" : "%", levels, fit: [], minimum: [], minimumValue, rate: null, forecast: null, fitNote: null };
+  const model: HeliumModel = {
+    unit: inLitres ? "L" : "%",
+    levels,
+    fit: [],
+    minimum: [],
+    minimumValue,
+    rate: null,
+    forecast: null,
+    fitNote: null,
+  };
   const recent = sinceLastFill(h.levels.map((l) => ({ timeMs: l.t, percent: l.percent })));
   const byTime = new Map(h.levels.map((l) => [l.t, l]));
   try {
     // The fit is in litres when calibrated (percent otherwise): "litres" below means "the y unit".
-    const rate = boilOffRate(recent.map((p) => ({ timeMs: p.timeMs, litres: y(p.percent, byTime.get(p.timeMs)?.litres ?? null) })));
+    const rate = boilOffRate(
+      recent.map((p) => ({ timeMs: p.timeMs, litres: y(p.percent, byTime.get(p.timeMs)?.litres ?? null) })),
+    );
     model.rate = rate;
     const first = recent[0]?.timeMs ?? nowMs;
     const at = (t: number) => rate.centroidLitres - (rate.litresPerDay * (t - rate.centroidTimeMs)) / 86_400_000;

@@ -4,13 +4,13 @@
 // magnet's field history. Data: the cryostat's series (online, remembered for offline use).
 import { useCallback, useEffect, useMemo, useState } from "react";
 import type uPlotType from "uplot";
+import { figure } from "@/components/cryo/derive";
+import { type CryostatSeries, useCryostatSeries } from "@/components/cryo/use-cryo-data";
 import { Button } from "@/components/ui/button";
 import { Notice, Panel } from "@/components/ui/panel";
-import { figure } from "@/components/cryo/derive";
-import { useCryostatSeries, type CryostatSeries } from "@/components/cryo/use-cryo-data";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 import { align, fieldSteps, heliumModel } from "./chart-model";
-import { UplotChart, type Palette } from "./uplot-chart";
+import { type Palette, UplotChart } from "./uplot-chart";
 
 const HEIGHT = 260;
 
@@ -25,7 +25,13 @@ function timeTicks(u: uPlotType, splits: number[]): string[] {
 }
 
 function baseAxes(p: Palette, yLabel: string, yValues?: uPlotType.Axis["values"]): uPlotType.Axis[] {
-  const common = { stroke: p.axis, grid: { stroke: p.grid, width: 1 }, ticks: { stroke: p.grid, width: 1 }, font: p.font, labelFont: p.font };
+  const common = {
+    stroke: p.axis,
+    grid: { stroke: p.grid, width: 1 },
+    ticks: { stroke: p.grid, width: 1 },
+    font: p.font,
+    labelFont: p.font,
+  };
   return [
     { ...common, values: timeTicks, space: 70, size: 56 },
     { ...common, label: yLabel, size: 64, ...(yValues ? { values: yValues } : {}) },
@@ -46,7 +52,10 @@ function StageChart({ series }: { series: CryostatSeries }) {
   // Default view: the latest cooldown (plus half a day after "cold"), else the whole history.
   const [view, setView] = useState<"cooldown" | "all">(last ? "cooldown" : "all");
   const span = useMemo(
-    () => (view === "cooldown" && last ? { from: last.start - 2 * HOUR_MS, to: (last.end ?? series.generatedAt) + 12 * HOUR_MS } : null),
+    () =>
+      view === "cooldown" && last
+        ? { from: last.start - 2 * HOUR_MS, to: (last.end ?? series.generatedAt) + 12 * HOUR_MS }
+        : null,
     [view, last, series.generatedAt],
   );
   const withPoints = useMemo(
@@ -71,7 +80,8 @@ function StageChart({ series }: { series: CryostatSeries }) {
           width: 2,
           spanGaps: true,
           points: { size: 4 },
-          value: (_u: uPlotType, v: number | null) => (v == null ? "—" : v < 1 ? `${figure(v * 1000, 3)} mK` : `${figure(v, 3)} K`),
+          value: (_u: uPlotType, v: number | null) =>
+            v == null ? "—" : v < 1 ? `${figure(v * 1000, 3)} mK` : `${figure(v, 3)} K`,
         })),
       ],
     }),
@@ -82,11 +92,20 @@ function StageChart({ series }: { series: CryostatSeries }) {
     <>
       {last && (
         <div role="group" aria-label="Time span" className="mb-2 flex flex-wrap gap-2">
-          <Button variant={view === "cooldown" ? "primary" : "secondary"} aria-pressed={view === "cooldown"} onClick={() => setView("cooldown")}>
-            {last.end ? "Last cooldown" : "Cooldown so far"} ({new Date(last.start).toLocaleDateString("en-GB", { day: "numeric", month: "short" })}
+          <Button
+            variant={view === "cooldown" ? "primary" : "secondary"}
+            aria-pressed={view === "cooldown"}
+            onClick={() => setView("cooldown")}
+          >
+            {last.end ? "Last cooldown" : "Cooldown so far"} (
+            {new Date(last.start).toLocaleDateString("en-GB", { day: "numeric", month: "short" })}
             {last.end ? `, ${figure((last.end - last.start) / HOUR_MS, 3)} h` : ""})
           </Button>
-          <Button variant={view === "all" ? "primary" : "secondary"} aria-pressed={view === "all"} onClick={() => setView("all")}>
+          <Button
+            variant={view === "all" ? "primary" : "secondary"}
+            aria-pressed={view === "all"}
+            onClick={() => setView("all")}
+          >
             Whole history
           </Button>
         </div>
@@ -107,7 +126,13 @@ function HeliumChart({ series, config, nowMs }: { series: CryostatSeries; config
       axes: baseAxes(p, model?.unit === "L" ? "Liquid helium (L)" : "Level (%)"),
       series: [
         { label: "Time" },
-        { label: model?.unit === "L" ? "Level (L)" : "Level (%)", stroke: p.series[0], width: 2, spanGaps: true, points: { size: 5 } },
+        {
+          label: model?.unit === "L" ? "Level (L)" : "Level (%)",
+          stroke: p.series[0],
+          width: 2,
+          spanGaps: true,
+          points: { size: 5 },
+        },
         { label: "Boil-off fit", stroke: p.series[2], width: 2, dash: [8, 6], spanGaps: true, points: { show: false } },
         { label: "Minimum", stroke: p.danger, width: 1.5, dash: [3, 4], spanGaps: true, points: { show: false } },
       ],
@@ -118,14 +143,20 @@ function HeliumChart({ series, config, nowMs }: { series: CryostatSeries; config
   const f = model.forecast;
   return (
     <>
-      <UplotChart label="Helium level with the boil-off fit since the last fill and the minimum level" options={options} data={data} />
+      <UplotChart
+        label="Helium level with the boil-off fit since the last fill and the minimum level"
+        options={options}
+        data={data}
+      />
       <p className="mt-2 text-base text-ink" data-testid="helium-forecast">
         {model.rate ? (
           <>
-            Boil-off since the last fill: {figure(model.rate.litresPerDay, 3)} ± {figure(model.rate.standardErrorLitresPerDay, 2)} {model.unit}/day
-            ({model.rate.points} readings).{" "}
+            Boil-off since the last fill: {figure(model.rate.litresPerDay, 3)} ±{" "}
+            {figure(model.rate.standardErrorLitresPerDay, 2)} {model.unit}/day ({model.rate.points} readings).{" "}
             {f?.forecast
-              ? `Minimum (${figure(model.minimumValue ?? NaN, 3)} ${model.unit}) reached about ${new Date(f.reachMs).toLocaleString("en-GB", {
+              ? `Minimum (${figure(model.minimumValue ?? NaN, 3)} ${model.unit}) reached about ${new Date(
+                  f.reachMs,
+                ).toLocaleString("en-GB", {
                   day: "2-digit",
                   month: "short",
                   hour: "2-digit",
@@ -224,7 +255,9 @@ function ChartsFor({ cryostatId }: { cryostatId: string }) {
           {series.error} The charts need one online visit.
         </Notice>
       )}
-      {series.stale && series.error && <p className="text-base text-muted">Charts from the last online visit ({series.error})</p>}
+      {series.stale && series.error && (
+        <p className="text-base text-muted">Charts from the last online visit ({series.error})</p>
+      )}
       {!data && !series.error && <p className="text-muted">Loading charts…</p>}
       {data && nowMs !== null && (
         <>

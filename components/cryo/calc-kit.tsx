@@ -3,7 +3,7 @@
 // errors. A RangeError (or CryoInputError) from lib/cryo is shown next to the input it names
 // (matched by the field's `match` pattern on the message), else under the inputs — never NaN,
 // never a crash. Everything runs in the browser: the page works offline once cached.
-import { useId, useState, type ReactNode } from "react";
+import { type ReactNode, useId, useState } from "react";
 import { OptionList } from "@/components/ui/form";
 import { Panel } from "@/components/ui/panel";
 import { readNumber } from "./derive";
@@ -20,8 +20,23 @@ export type NumberSpec = {
   /** Empty is allowed (the compute function gets NaN and decides). */
   optional?: boolean;
 };
-export type SelectSpec = { kind: "select"; key: string; label: string; initial: string; options: readonly { readonly value: string; readonly label: string }[]; match?: RegExp };
-export type TextSpec = { kind: "text"; key: string; label: string; initial: string; hint?: string; rows?: number; match?: RegExp };
+export type SelectSpec = {
+  kind: "select";
+  key: string;
+  label: string;
+  initial: string;
+  options: readonly { readonly value: string; readonly label: string }[];
+  match?: RegExp;
+};
+export type TextSpec = {
+  kind: "text";
+  key: string;
+  label: string;
+  initial: string;
+  hint?: string;
+  rows?: number;
+  match?: RegExp;
+};
 export type FieldSpec = NumberSpec | SelectSpec | TextSpec;
 
 export type ResultRow = { label: string; text: string; tone?: "ok" | "warn" | "danger" };
@@ -32,7 +47,11 @@ const INPUT =
 
 /** A result that is a figure (set in the number font); a sentence stays in the text font. */
 const FIGURE = /^[≈±−+\-\d]/;
-const TONE: Record<NonNullable<ResultRow["tone"]>, string> = { ok: "text-ok", warn: "text-warn", danger: "text-danger" };
+const TONE: Record<NonNullable<ResultRow["tone"]>, string> = {
+  ok: "text-ok",
+  warn: "text-warn",
+  danger: "text-danger",
+};
 
 export function Calculator({
   title,
@@ -51,7 +70,9 @@ export function Calculator({
   wide?: boolean;
 }) {
   const uid = useId();
-  const [values, setValues] = useState<Record<string, string>>(() => Object.fromEntries(fields.map((f) => [f.key, f.initial])));
+  const [values, setValues] = useState<Record<string, string>>(() =>
+    Object.fromEntries(fields.map((f) => [f.key, f.initial])),
+  );
   const fieldErrors: Record<string, string> = {};
   const n: Record<string, number> = {};
   const s: Record<string, string> = {};
@@ -90,7 +111,9 @@ export function Calculator({
             <div key={f.key} className={`flex flex-col gap-1 ${f.kind === "text" ? "sm:col-span-2" : ""}`}>
               <label htmlFor={id} className="font-semibold">
                 {f.label}
-                {f.kind !== "select" && f.kind !== "text" && f.unit ? <span className="font-normal text-muted"> ({f.unit})</span> : null}
+                {f.kind !== "select" && f.kind !== "text" && f.unit ? (
+                  <span className="font-normal text-muted"> ({f.unit})</span>
+                ) : null}
               </label>
               {f.kind === "select" ? (
                 <select id={id} className={INPUT} value={values[f.key]} onChange={(e) => set(e.target.value)}>
@@ -135,11 +158,18 @@ export function Calculator({
         </p>
       )}
       {rows.length > 0 && (
-        <dl aria-label={`${title}: results`} className="grid gap-x-6 gap-y-2 rounded-xl bg-sunk px-4 py-3 sm:grid-cols-2">
+        <dl
+          aria-label={`${title}: results`}
+          className="grid gap-x-6 gap-y-2 rounded-xl bg-sunk px-4 py-3 sm:grid-cols-2"
+        >
           {rows.map((r) => (
             <div key={r.label} className="flex flex-col">
               <dt className="text-base font-semibold text-muted">{r.label}</dt>
-              <dd className={`${FIGURE.test(r.text) ? "num" : ""} text-lg font-semibold ${r.tone ? TONE[r.tone] : "text-ink"}`}>{r.text}</dd>
+              <dd
+                className={`${FIGURE.test(r.text) ? "num" : ""} text-lg font-semibold ${r.tone ? TONE[r.tone] : "text-ink"}`}
+              >
+                {r.text}
+              </dd>
             </div>
           ))}
         </dl>

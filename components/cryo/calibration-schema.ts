@@ -31,7 +31,10 @@ export const calibrationUploadSchema = z.object({
   sensorLabel: z.string().trim().min(1, "Give the sensor's name or serial number").max(120),
   columns: z.enum(["temperature-value", "value-temperature"]).optional(),
   fileName: z.string().trim().min(1).max(200),
-  text: z.string().min(1, "The file is empty").max(MAX_CALIBRATION_BYTES, "The file is over 200 kB: not a calibration table"),
+  text: z
+    .string()
+    .min(1, "The file is empty")
+    .max(MAX_CALIBRATION_BYTES, "The file is over 200 kB: not a calibration table"),
   /** The stored file, when the storage layer took it first. */
   attachmentId: z.uuid().optional(),
 });

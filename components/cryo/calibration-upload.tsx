@@ -4,22 +4,30 @@
 // Parsing for the preview runs in the browser with the same lib/cryo parser the server re-runs.
 import { useCallback, useMemo, useState } from "react";
 import type uPlotType from "uplot";
+import { type Palette, UplotChart } from "@/components/charts/uplot-chart";
+import { useMe } from "@/components/shell/use-me";
 import { Button } from "@/components/ui/button";
 import { OptionList } from "@/components/ui/form";
 import { Notice, Panel } from "@/components/ui/panel";
-import { UplotChart, type Palette } from "@/components/charts/uplot-chart";
-import { useMe } from "@/components/shell/use-me";
-import { convertReading, parseCalibration, type CalibrationTable, type SensorKind } from "@/lib/cryo";
+import { type CalibrationTable, convertReading, parseCalibration, type SensorKind } from "@/lib/cryo";
 import { putAttachment } from "@/lib/local/record";
-import { COLUMN_ORDER_OPTIONS, MAX_CALIBRATION_BYTES, SENSOR_KIND_LABEL, SENSOR_KIND_VALUES, type CalibrationUpload } from "./calibration-schema";
+import {
+  type CalibrationUpload,
+  COLUMN_ORDER_OPTIONS,
+  MAX_CALIBRATION_BYTES,
+  SENSOR_KIND_LABEL,
+  SENSOR_KIND_VALUES,
+} from "./calibration-schema";
 import { figure, readNumber, temperatureText } from "./derive";
 import { refreshCryoData, useCalibrations, useCryostatList } from "./use-cryo-data";
-
 
 const SELECT = "min-h-12 w-full rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg text-ink focus:border-accent";
 
 function PreviewChart({ table }: { table: CalibrationTable }) {
-  const data = useMemo<uPlotType.AlignedData>(() => [table.points.map((p) => p.value), table.points.map((p) => p.temperatureK)], [table]);
+  const data = useMemo<uPlotType.AlignedData>(
+    () => [table.points.map((p) => p.value), table.points.map((p) => p.temperatureK)],
+    [table],
+  );
   const resistive = table.quantity === "resistance";
   const options = useCallback(
     (p: Palette): Omit<uPlotType.Options, "width"> => ({
@@ -27,7 +35,13 @@ function PreviewChart({ table }: { table: CalibrationTable }) {
       legend: { show: false },
       scales: { x: { time: false, ...(resistive ? { distr: 3, log: 10 } : {}) }, y: { distr: 3, log: 10 } },
       axes: [
-        { stroke: p.axis, grid: { stroke: p.grid }, font: p.font, labelFont: p.font, label: resistive ? "Resistance (Ω)" : "Voltage (V)" },
+        {
+          stroke: p.axis,
+          grid: { stroke: p.grid },
+          font: p.font,
+          labelFont: p.font,
+          label: resistive ? "Resistance (Ω)" : "Voltage (V)",
+        },
         {
           stroke: p.axis,
           grid: { stroke: p.grid },
@@ -42,7 +56,9 @@ function PreviewChart({ table }: { table: CalibrationTable }) {
     }),
     [resistive],
   );
-  return <UplotChart label="The calibration curve: temperature against the sensor's reading" options={options} data={data} />;
+  return (
+    <UplotChart label="The calibration curve: temperature against the sensor's reading" options={options} data={data} />
+  );
 }
 
 export function CalibrationUploadPage() {
@@ -53,7 +69,9 @@ export function CalibrationUploadPage() {
   const [cryostatId, setCryostatId] = useState("");
   const cryostat = list.find((c) => c.id === cryostatId) ?? list[0];
   const [stage, setStage] = useState("");
-  const stageKey = cryostat?.config.stages.some((s) => s.key === stage) ? stage : (cryostat?.config.stages.at(-1)?.key ?? "");
+  const stageKey = cryostat?.config.stages.some((s) => s.key === stage)
+    ? stage
+    : (cryostat?.config.stages.at(-1)?.key ?? "");
   const [sensorKind, setSensorKind] = useState<SensorKind>("ruthenium-oxide");
   const [columns, setColumns] = useState<"auto" | "temperature-value" | "value-temperature">("auto");
   const [sensorLabel, setSensorLabel] = useState("");
@@ -91,7 +109,9 @@ export function CalibrationUploadPage() {
     setFile(null);
     if (!f) return;
     if (f.size > MAX_CALIBRATION_BYTES) {
-      setFileError(`The file is ${Math.round(f.size / 1000)} kB; a calibration table is a small text file (up to 200 kB).`);
+      setFileError(
+        `The file is ${Math.round(f.size / 1000)} kB; a calibration table is a small text file (up to 200 kB).`,
+      );
       return;
     }
     const text = await f.text();
@@ -111,7 +131,10 @@ export function CalibrationUploadPage() {
     // the file's text.
     let attachmentId: string | undefined;
     try {
-      attachmentId = await putAttachment(new Blob([file.text], { type: "text/plain" }), { fileName: file.name, mime: "text/plain" });
+      attachmentId = await putAttachment(new Blob([file.text], { type: "text/plain" }), {
+        fileName: file.name,
+        mime: "text/plain",
+      });
     } catch {
       attachmentId = undefined;
     }
@@ -126,29 +149,47 @@ export function CalibrationUploadPage() {
       ...(attachmentId ? { attachmentId } : {}),
     };
     try {
-      const r = await fetch("/api/calibrations", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+      const r = await fetch("/api/calibrations", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify(body),
+      });
       const json = (await r.json().catch(() => null)) as { error?: { message?: string; details?: string[] } } | null;
-      if (!r.ok) throw new Error([json?.error?.message, ...(json?.error?.details ?? [])].filter(Boolean).join(" ") || `The server answered ${r.status}.`);
+      if (!r.ok)
+        throw new Error(
+          [json?.error?.message, ...(json?.error?.details ?? [])].filter(Boolean).join(" ") ||
+            `The server answered ${r.status}.`,
+        );
       refreshCryoData();
       setVersion((v) => v + 1);
       const stageLabel = cryostat.config.stages.find((s) => s.key === stageKey)?.label ?? stageKey;
-      setResult({ tone: "ok", text: `Accepted: ${cryostat.name}, ${stageLabel} now converts readings with ${sensorLabel.trim()}.` });
+      setResult({
+        tone: "ok",
+        text: `Accepted: ${cryostat.name}, ${stageLabel} now converts readings with ${sensorLabel.trim()}.`,
+      });
     } catch (e) {
-      setResult({ tone: "danger", text: e instanceof TypeError ? "No connection to the server: the table was not accepted. Try again when online." : (e as Error).message });
+      setResult({
+        tone: "danger",
+        text:
+          e instanceof TypeError
+            ? "No connection to the server: the table was not accepted. Try again when online."
+            : (e as Error).message,
+      });
     } finally {
       setBusy(false);
     }
   };
 
-  const stageName = (id: string, key: string) => list.find((c) => c.id === id)?.config.stages.find((s) => s.key === key)?.label ?? key;
+  const stageName = (id: string, key: string) =>
+    list.find((c) => c.id === id)?.config.stages.find((s) => s.key === key)?.label ?? key;
 
   return (
     <div className="flex flex-col gap-4">
       <div>
         <h1 className="text-3xl font-bold">Sensor calibrations</h1>
         <p className="text-muted">
-          One table per thermometer channel. Check the preview before accepting: the reading form of that stage converts resistance (or diode voltage) to
-          temperature with it.
+          One table per thermometer channel. Check the preview before accepting: the reading form of that stage converts
+          resistance (or diode voltage) to temperature with it.
         </p>
       </div>
       {!mayAccept && me && (
@@ -179,7 +220,12 @@ export function CalibrationUploadPage() {
           </label>
           <label className="flex flex-col gap-1 font-semibold">
             Sensor name or serial
-            <input className={SELECT} value={sensorLabel} onChange={(e) => setSensorLabel(e.target.value)} placeholder="e.g. RX-102 #A4411" />
+            <input
+              className={SELECT}
+              value={sensorLabel}
+              onChange={(e) => setSensorLabel(e.target.value)}
+              placeholder="e.g. RX-102 #A4411"
+            />
           </label>
           <label className="flex flex-col gap-1 font-semibold">
             Column order
@@ -221,13 +267,15 @@ export function CalibrationUploadPage() {
                 <div>
                   <dt className="text-base font-semibold text-muted">Temperature range</dt>
                   <dd className="num text-lg font-semibold">
-                    {temperatureText(preview.table.range.temperatureMinK)} – {temperatureText(preview.table.range.temperatureMaxK)}
+                    {temperatureText(preview.table.range.temperatureMinK)} –{" "}
+                    {temperatureText(preview.table.range.temperatureMaxK)}
                   </dd>
                 </div>
                 <div>
                   <dt className="text-base font-semibold text-muted">Reading range</dt>
                   <dd className="num text-lg font-semibold">
-                    {figure(preview.table.range.valueMin)} – {figure(preview.table.range.valueMax)} {preview.table.valueUnit}
+                    {figure(preview.table.range.valueMin)} – {figure(preview.table.range.valueMax)}{" "}
+                    {preview.table.valueUnit}
                   </dd>
                 </div>
               </dl>
@@ -235,19 +283,30 @@ export function CalibrationUploadPage() {
               <div className="grid gap-3 sm:grid-cols-2">
                 <label className="flex flex-col gap-1 font-semibold">
                   Try a reading ({preview.table.valueUnit})
-                  <input className={`${SELECT} num`} inputMode="decimal" value={trial} onChange={(e) => setTrial(e.target.value)} />
+                  <input
+                    className={`${SELECT} num`}
+                    inputMode="decimal"
+                    value={trial}
+                    onChange={(e) => setTrial(e.target.value)}
+                  />
                 </label>
                 <div className="flex items-end" role="status" aria-live="polite">
                   {trialResult && "ok" in trialResult && <p className="num text-xl font-semibold">{trialResult.ok}</p>}
-                  {trialResult && "error" in trialResult && <p className="text-base font-semibold text-danger">{trialResult.error}</p>}
+                  {trialResult && "error" in trialResult && (
+                    <p className="text-base font-semibold text-danger">{trialResult.error}</p>
+                  )}
                 </div>
               </div>
               {mayAccept && (
                 <div className="flex flex-wrap items-center gap-3">
                   <Button variant="primary" disabled={busy || sensorLabel.trim() === ""} onClick={() => void accept()}>
-                    {busy ? "Accepting…" : `Accept for ${cryostat?.name ?? ""}, ${stageName(cryostat?.id ?? "", stageKey)}`}
+                    {busy
+                      ? "Accepting…"
+                      : `Accept for ${cryostat?.name ?? ""}, ${stageName(cryostat?.id ?? "", stageKey)}`}
                   </Button>
-                  {sensorLabel.trim() === "" && <p className="text-base text-muted">Give the sensor&apos;s name or serial first.</p>}
+                  {sensorLabel.trim() === "" && (
+                    <p className="text-base text-muted">Give the sensor&apos;s name or serial first.</p>
+                  )}
                 </div>
               )}
             </>
@@ -268,11 +327,18 @@ export function CalibrationUploadPage() {
           {(inForce.data ?? []).map((c) => (
             <li key={c.id} className="flex flex-wrap justify-between gap-2 py-2">
               <span>
-                <span className="font-semibold">{stageName(c.cryostatId, c.stage)}</span> — {c.sensorLabel} ({SENSOR_KIND_LABEL[c.sensorKind]})
+                <span className="font-semibold">{stageName(c.cryostatId, c.stage)}</span> — {c.sensorLabel} (
+                {SENSOR_KIND_LABEL[c.sensorKind]})
               </span>
               <span className="text-base text-muted">
-                <span className="num">{c.table.points.length}</span> points, {temperatureText(c.table.range.temperatureMinK)}–{temperatureText(c.table.range.temperatureMaxK)} · {c.fileName} ·{" "}
-                {new Date(c.acceptedAt).toLocaleDateString("en-GB", { day: "2-digit", month: "short", year: "numeric" })}
+                <span className="num">{c.table.points.length}</span> points,{" "}
+                {temperatureText(c.table.range.temperatureMinK)}–{temperatureText(c.table.range.temperatureMaxK)} ·{" "}
+                {c.fileName} ·{" "}
+                {new Date(c.acceptedAt).toLocaleDateString("en-GB", {
+                  day: "2-digit",
+                  month: "short",
+                  year: "numeric",
+                })}
               </span>
             </li>
           ))}

@@ -5,6 +5,7 @@
 // table). A value outside a formula's range comes back as a message, never as NaN or a throw.
 import {
   boilOffRate,
+  type CalibrationTable,
   convertReading,
   currentFromField,
   fieldFromCurrent,
@@ -13,7 +14,6 @@ import {
   litresFromLevel,
   ptTemperature,
   rampTime,
-  type CalibrationTable,
 } from "@/lib/cryo";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 
@@ -105,14 +105,17 @@ export function readNumber(value: DeriveInput["value"]): number | undefined {
 }
 
 const PRESSURE_TO_PA: Record<string, number> = { Pa: 1, mbar: 100, bar: 1e5, kPa: 1000 };
-const RESISTANCE_TO_OHM: Record<string, number> = { "Ω": 1, ohm: 1, kΩ: 1000 };
+const RESISTANCE_TO_OHM: Record<string, number> = { Ω: 1, ohm: 1, kΩ: 1000 };
 
 /** Quantities read as a 4He vapour pressure (a pumped pot, a VTI, a bath): not tanks or lines. */
 function isVapourPressure(input: DeriveInput): boolean {
   const q = input.quantity.toLowerCase();
   if (/tank|dump|cylinder|mixture|line|inlet|ivc|ovc|vacuum|supply|return/.test(q)) return false;
   if (input.stage && input.stage === input.cryostat.config.vapourPressureStage) return true;
-  return /\b1\s*k\b|pot|vti|still|vapou?r|bath/.test(q) || (input.stage !== undefined && /pot|vti|still|bath/.test(input.stage));
+  return (
+    /\b1\s*k\b|pot|vti|still|vapou?r|bath/.test(q) ||
+    (input.stage !== undefined && /pot|vti|still|bath/.test(input.stage))
+  );
 }
 
 function isLevel(input: DeriveInput): boolean {
@@ -128,7 +131,10 @@ function vapourPressure(pressure: number, unit: string): Derived {
   const toPa = PRESSURE_TO_PA[unit];
   if (toPa === undefined) return NONE;
   const k = he4TemperatureFromPressure(pressure * toPa);
-  return { status: "ok", items: [{ label: "Temperature (ITS-90, ⁴He vapour pressure)", value: k, unit: "K", text: temperatureText(k) }] };
+  return {
+    status: "ok",
+    items: [{ label: "Temperature (ITS-90, ⁴He vapour pressure)", value: k, unit: "K", text: temperatureText(k) }],
+  };
 }
 
 function helium(input: DeriveInput, percent: number): Derived {
@@ -137,17 +143,29 @@ function helium(input: DeriveInput, percent: number): Derived {
   const litres = litresFromLevel(percent, reservoir.calibration);
   const items: DerivedItem[] = [{ label: "Liquid helium", value: litres, unit: "L", text: `${figure(litres, 3)} L` }];
   const history = input.levelHistory;
-  if (!history || history.length === 0) return { status: "ok", items, note: "No level history on this tablet: no forecast." };
+  if (!history || history.length === 0)
+    return { status: "ok", items, note: "No level history on this tablet: no forecast." };
   const nowMs = input.nowMs ?? Date.now();
   // The reading being typed is the newest point of the fit.
   const sorted = [...history].filter((p) => p.timeMs < nowMs).sort((a, b) => a.timeMs - b.timeMs);
   const points = [...sorted, { timeMs: nowMs, percent }];
   try {
-    const rate = boilOffRate(points.map((p) => ({ timeMs: p.timeMs, litres: litresFromLevel(p.percent, reservoir.calibration) })));
+    const rate = boilOffRate(
+      points.map((p) => ({ timeMs: p.timeMs, litres: litresFromLevel(p.percent, reservoir.calibration) })),
+    );
     const minimumLitres = litresFromLevel(reservoir.minimumPercent, reservoir.calibration);
-    items.push({ label: "Boil-off", value: rate.litresPerDay, unit: "L/day", text: `${figure(rate.litresPerDay, 3)} ± ${figure(rate.standardErrorLitresPerDay, 2)} L/day` });
+    items.push({
+      label: "Boil-off",
+      value: rate.litresPerDay,
+      unit: "L/day",
+      text: `${figure(rate.litresPerDay, 3)} ± ${figure(rate.standardErrorLitresPerDay, 2)} L/day`,
+    });
     if (litres <= minimumLitres) {
-      return { status: "ok", items, note: `At or below the minimum level (${figure(reservoir.minimumPercent, 3)} %): transfer now.` };
+      return {
+        status: "ok",
+        items,
+        note: `At or below the minimum level (${figure(reservoir.minimumPercent, 3)} %): transfer now.`,
+      };
     }
     const f = forecastMinimumLevel(rate, minimumLitres, nowMs);
     if (!f.forecast) return { status: "ok", items, note: f.reason };
@@ -168,18 +186,33 @@ function magnetCurrent(input: DeriveInput, currentA: number): Derived {
   const magnet = input.cryostat.config.magnet;
   if (!magnet) return NONE;
   const fieldT = fieldFromCurrent(currentA, magnet);
-  return magnetRamp(input, magnet, fieldT, { label: "Field at centre", value: fieldT, unit: "T", text: `${figure(fieldT)} T` });
+  return magnetRamp(input, magnet, fieldT, {
+    label: "Field at centre",
+    value: fieldT,
+    unit: "T",
+    text: `${figure(fieldT)} T`,
+  });
 }
 
 function magnetField(input: DeriveInput, fieldT: number): Derived {
   const magnet = input.cryostat.config.magnet;
   if (!magnet) return NONE;
   const currentA = currentFromField(fieldT, magnet);
-  return magnetRamp(input, magnet, fieldT, { label: "Coil current", value: currentA, unit: "A", text: `${figure(currentA)} A` });
+  return magnetRamp(input, magnet, fieldT, {
+    label: "Coil current",
+    value: currentA,
+    unit: "A",
+    text: `${figure(currentA)} A`,
+  });
 }
 
 // Both magnet directions end the same way: the converted figure, then the ramp from the last field.
-function magnetRamp(input: DeriveInput, magnet: NonNullable<CryostatConfig["magnet"]>, fieldT: number, converted: DerivedItem): Derived {
+function magnetRamp(
+  input: DeriveInput,
+  magnet: NonNullable<CryostatConfig["magnet"]>,
+  fieldT: number,
+  converted: DerivedItem,
+): Derived {
   const from = input.fromFieldT ?? 0;
   const ramp = rampTime(from, fieldT, magnet.rampLimitTPerMin, magnet);
   return {
@@ -206,14 +239,22 @@ function sensor(input: DeriveInput, value: number): Derived {
     if (table.quantity === "resistance" && ohm === undefined) return NONE;
     const raw = table.quantity === "voltage" ? (input.unit === "mV" ? value / 1000 : value) : value * (ohm ?? 1);
     const k = convertReading(table, raw);
-    return { status: "ok", items: [{ label: "Temperature (sensor calibration)", value: k, unit: "K", text: temperatureText(k) }] };
+    return {
+      status: "ok",
+      items: [{ label: "Temperature (sensor calibration)", value: k, unit: "K", text: temperatureText(k) }],
+    };
   }
   // A platinum sensor named as such: IEC 60751 needs no uploaded table.
   const pt = /pt\s*-?\s*(100|1000)\b/i.exec(input.quantity);
   if (pt && ohm !== undefined) {
     const c = ptTemperature(value * ohm, Number(pt[1]));
     const k = c + 273.15;
-    return { status: "ok", items: [{ label: `Temperature (IEC 60751, Pt${pt[1]})`, value: k, unit: "K", text: `${figure(k)} K (${figure(c)} °C)` }] };
+    return {
+      status: "ok",
+      items: [
+        { label: `Temperature (IEC 60751, Pt${pt[1]})`, value: k, unit: "K", text: `${figure(k)} K (${figure(c)} °C)` },
+      ],
+    };
   }
   return NONE;
 }

@@ -6,7 +6,7 @@
 // props when the caller has them, else from the copy remembered at the last online visit.
 import { useMemo } from "react";
 import type { CalibrationTable } from "@/lib/cryo";
-import { deriveReading, sinceLastFill, type CryostatLike, type LevelPoint } from "./derive";
+import { type CryostatLike, deriveReading, type LevelPoint, sinceLastFill } from "./derive";
 import { EstimateNote } from "./estimate-note";
 import { useCalibrations, useCryostatSeries } from "./use-cryo-data";
 
@@ -48,7 +48,9 @@ export function DerivedValue(props: DerivedValueProps) {
   }, [props.levelHistory, series.data]);
   const fromFieldT = props.fromFieldT ?? series.data?.fields.at(-1)?.fieldT;
   const calibration =
-    props.calibration ?? calibrations.data?.find((c) => c.cryostatId === cryostat.id && c.stage === stage)?.table ?? undefined;
+    props.calibration ??
+    calibrations.data?.find((c) => c.cryostatId === cryostat.id && c.stage === stage)?.table ??
+    undefined;
 
   const derived = deriveReading({
     cryostat,
@@ -64,13 +66,25 @@ export function DerivedValue(props: DerivedValueProps) {
   if (derived.status === "none") return <div id={id} role="status" aria-live="polite" className="sr-only" />;
   if (derived.status === "error") {
     return (
-      <div id={id} role="status" aria-live="polite" data-derived="error" className={`block text-base font-semibold text-danger ${className}`}>
+      <div
+        id={id}
+        role="status"
+        aria-live="polite"
+        data-derived="error"
+        className={`block text-base font-semibold text-danger ${className}`}
+      >
         {derived.message}
       </div>
     );
   }
   return (
-    <div id={id} role="status" aria-live="polite" data-derived="ok" className={`block rounded-xl border border-line bg-sunk px-3 py-2 ${className}`}>
+    <div
+      id={id}
+      role="status"
+      aria-live="polite"
+      data-derived="ok"
+      className={`block rounded-xl border border-line bg-sunk px-3 py-2 ${className}`}
+    >
       <dl className="flex flex-wrap gap-x-6 gap-y-1">
         {derived.items.map((item) => (
           <div key={item.label} className="flex flex-col">

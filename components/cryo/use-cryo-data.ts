@@ -4,13 +4,11 @@
 // localStorage so the reading forms keep their derived values with no network. The last good copy
 // is shown at once; a fetch refreshes it when the server answers.
 import { useEffect, useState } from "react";
-import { useCryostats } from "@/lib/local/hooks";
 import type { CalibrationRecord } from "@/db/queries/calibrations";
 import type { CryostatSeries } from "@/db/queries/series";
+import { useCryostats } from "@/lib/local/hooks";
 
-export type { CryostatSeries };
-
-export type { CalibrationRecord };
+export type { CalibrationRecord, CryostatSeries };
 
 function read<T>(key: string): T | undefined {
   try {
@@ -36,7 +34,11 @@ const SHARE_MS = 10_000;
 function fetchShared(url: string): Promise<{ ok: boolean; status: number; body: unknown }> {
   const hit = inflight.get(url);
   if (hit && Date.now() - hit.at < SHARE_MS) return hit.promise;
-  const promise = fetch(url, { cache: "no-store" }).then(async (r) => ({ ok: r.ok, status: r.status, body: (await r.json().catch(() => null)) as unknown }));
+  const promise = fetch(url, { cache: "no-store" }).then(async (r) => ({
+    ok: r.ok,
+    status: r.status,
+    body: (await r.json().catch(() => null)) as unknown,
+  }));
   inflight.set(url, { at: Date.now(), promise });
   promise.catch(() => inflight.delete(url));
   return promise;
@@ -63,7 +65,8 @@ function useRemembered<T>(key: string | null, url: string | null, pick: (body: u
     fetchShared(url)
       .then(({ ok, status, body }) => {
         if (!ok) {
-          const message = (body as { error?: { message?: string } } | null)?.error?.message ?? `The server answered ${status}.`;
+          const message =
+            (body as { error?: { message?: string } } | null)?.error?.message ?? `The server answered ${status}.`;
           throw new Error(message);
         }
         const data = pick(body);
@@ -72,7 +75,8 @@ function useRemembered<T>(key: string | null, url: string | null, pick: (body: u
       })
       .catch((e: unknown) => {
         if (cancelled) return;
-        const msg = e instanceof TypeError ? "No connection to the server." : e instanceof Error ? e.message : String(e);
+        const msg =
+          e instanceof TypeError ? "No connection to the server." : e instanceof Error ? e.message : String(e);
         setState({ data: cached, error: msg, loading: false, stale: cached !== undefined });
       });
     return () => {
@@ -97,7 +101,9 @@ export function useCryostatSeries(cryostatId: string | undefined): Remote<Cryost
 export function useCalibrations(cryostatId: string | undefined, refresh = 0): Remote<CalibrationRecord[]> {
   return useRemembered(
     cryostatId ? `rimelog-calibrations-${cryostatId}` : null,
-    cryostatId ? `/api/calibrations?cryostatId=${encodeURIComponent(cryostatId)}${refresh ? `&v=${refresh}` : ""}` : null,
+    cryostatId
+      ? `/api/calibrations?cryostatId=${encodeURIComponent(cryostatId)}${refresh ? `&v=${refresh}` : ""}`
+      : null,
     pickCalibrations,
   );
 }
@@ -106,16 +112,26 @@ export function useCalibrations(cryostatId: string | undefined, refresh = 0): Re
  * The cryostats (id, name, config) for presets: the tablet store's copy (pulled by sync, there
  * offline) when it has one, else the room overview fetched and remembered here.
  */
-export function useCryostatList(): Remote<{ id: string; name: string; config: import("@/lib/schemas/cryostat").CryostatConfig }[]> {
+export function useCryostatList(): Remote<
+  { id: string; name: string; config: import("@/lib/schemas/cryostat").CryostatConfig }[]
+> {
   const local = useCryostats();
   const remote = useRemembered("rimelog-cryostat-list", "/api/cryostats", pickCryostats);
   if (local && local.length > 0) {
-    return { data: local.map((c) => ({ id: c.id, name: c.name, config: c.config })), error: null, loading: false, stale: false };
+    return {
+      data: local.map((c) => ({ id: c.id, name: c.name, config: c.config })),
+      error: null,
+      loading: false,
+      stale: false,
+    };
   }
   return remote;
 }
 const pickCryostats = (body: unknown) =>
-  ((body as { cryostats?: { id: string; name: string; config: import("@/lib/schemas/cryostat").CryostatConfig }[] }).cryostats ?? []).map((c) => ({
+  (
+    (body as { cryostats?: { id: string; name: string; config: import("@/lib/schemas/cryostat").CryostatConfig }[] })
+      .cryostats ?? []
+  ).map((c) => ({
     id: c.id,
     name: c.name,
     config: c.config,

@@ -11,8 +11,10 @@ function toNumber(v: unknown): unknown {
   return /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t) ? Number(t) : Number.NaN;
 }
 const num = (msg = "Enter a number") => z.preprocess(toNumber, z.number({ message: msg }).refine(Number.isFinite, msg));
-const optNum = () => z.preprocess(toNumber, z.number({ message: "Enter a number" }).refine(Number.isFinite, "Enter a number").optional());
-const optText = (max: number) => z.preprocess((v) => (typeof v === "string" && v.trim() === "" ? undefined : v), z.string().max(max).optional());
+const optNum = () =>
+  z.preprocess(toNumber, z.number({ message: "Enter a number" }).refine(Number.isFinite, "Enter a number").optional());
+const optText = (max: number) =>
+  z.preprocess((v) => (typeof v === "string" && v.trim() === "" ? undefined : v), z.string().max(max).optional());
 
 export const readingForm = readingPayload.extend({
   quantity: z.string().trim().min(1, "Say what was read").max(80),

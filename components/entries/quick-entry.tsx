@@ -3,21 +3,26 @@
 // Big targets, the numeric keypad for figures, and "Saved on this tablet" only once the local
 // transaction has committed; a failed local write is shown as an error, never hidden.
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useState, type ReactNode } from "react";
+import { type ReactNode, useState } from "react";
+import { type FieldValues, type Resolver, useForm } from "react-hook-form";
 import { DerivedValue } from "@/components/cryo/derived-value";
-import { useForm, type FieldValues, type Resolver } from "react-hook-form";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice, Panel } from "@/components/ui/panel";
-import { mayWrite } from "@/lib/auth/permissions";
 import type { Role } from "@/lib/auth/permissions";
+import { mayWrite } from "@/lib/auth/permissions";
 import type { LocalCryostat } from "@/lib/local/hooks";
-import { LocalWriteError, recordEntry, type EntryDraft } from "@/lib/local/record";
+import { type EntryDraft, LocalWriteError, recordEntry } from "@/lib/local/record";
 import { UNITS } from "@/lib/schemas/units";
 import { fieldForm, heliumForm, noteForm, readingForm } from "./form-schemas";
 
 type Tab = "reading" | "note" | "helium.level" | "field.setting";
-const TAB_LABEL: Record<Tab, string> = { reading: "Reading", note: "Note", "helium.level": "Helium level", "field.setting": "Field setting" };
+const TAB_LABEL: Record<Tab, string> = {
+  reading: "Reading",
+  note: "Note",
+  "helium.level": "Helium level",
+  "field.setting": "Field setting",
+};
 
 type Outcome = { tone: "ok" | "danger"; text: string } | null;
 
@@ -42,7 +47,10 @@ export function QuickEntry({ cryostat, role }: { cryostat: LocalCryostat; role: 
       setOutcome({ tone: "ok", text: `${TAB_LABEL[draft.kind as Tab] ?? "Entry"} saved on this tablet.` });
       return true;
     } catch (e) {
-      setOutcome({ tone: "danger", text: e instanceof LocalWriteError ? e.message : `Not saved: ${(e as Error).message}` });
+      setOutcome({
+        tone: "danger",
+        text: e instanceof LocalWriteError ? e.message : `Not saved: ${(e as Error).message}`,
+      });
       return false;
     }
   };
@@ -90,10 +98,23 @@ type Save = (d: EntryDraft) => Promise<boolean>;
 
 // The form schemas take typed text and give numbers; react-hook-form sees them as plain values.
 function useEntryForm(schema: Parameters<typeof zodResolver>[0], defaults: FieldValues) {
-  return useForm<FieldValues>({ resolver: zodResolver(schema) as unknown as Resolver<FieldValues>, defaultValues: defaults });
+  return useForm<FieldValues>({
+    resolver: zodResolver(schema) as unknown as Resolver<FieldValues>,
+    defaultValues: defaults,
+  });
 }
 
-function FormShell({ onSubmit, busy, label, children }: { onSubmit: () => void; busy: boolean; label: string; children: ReactNode }) {
+function FormShell({
+  onSubmit,
+  busy,
+  label,
+  children,
+}: {
+  onSubmit: () => void;
+  busy: boolean;
+  label: string;
+  children: ReactNode;
+}) {
   return (
     <form
       noValidate
@@ -115,7 +136,13 @@ const err = (e: unknown) => (e as { message?: string } | undefined)?.message;
 
 function ReadingForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }) {
   const stages = cryostat.config.stages;
-  const f = useEntryForm(readingForm, { quantity: "Temperature", stage: stages[0]?.key ?? "", value: "", unit: "K", comment: "" });
+  const f = useEntryForm(readingForm, {
+    quantity: "Temperature",
+    stage: stages[0]?.key ?? "",
+    value: "",
+    unit: "K",
+    comment: "",
+  });
   const errors = f.formState.errors;
   const submit = f.handleSubmit(async (v) => {
     const ok = await save({ cryostatId: cryostat.id, kind: "reading", payload: v as EntryDraft["payload"] as never });
@@ -131,12 +158,39 @@ function ReadingForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }
         options={[...stages.map((s) => ({ value: s.key, label: s.label })), { value: "", label: "No stage" }]}
         error={err(errors.stage)}
       />
-      <TextField label="Value" id="reading-value" inputMode="decimal" autoComplete="off" className="num" {...f.register("value")} error={err(errors.value)} />
-      <SelectField label="Unit" id="reading-unit" {...f.register("unit")} options={UNITS.map((u) => ({ value: u, label: u }))} error={err(errors.unit)} />
+      <TextField
+        label="Value"
+        id="reading-value"
+        inputMode="decimal"
+        autoComplete="off"
+        className="num"
+        {...f.register("value")}
+        error={err(errors.value)}
+      />
+      <SelectField
+        label="Unit"
+        id="reading-unit"
+        {...f.register("unit")}
+        options={UNITS.map((u) => ({ value: u, label: u }))}
+        error={err(errors.unit)}
+      />
       <div className="sm:col-span-2">
-        <DerivedValue id="reading-derived" cryostat={cryostat} quantity={f.watch("quantity")} unit={f.watch("unit")} value={f.watch("value")} stage={f.watch("stage")} />
+        <DerivedValue
+          id="reading-derived"
+          cryostat={cryostat}
+          quantity={f.watch("quantity")}
+          unit={f.watch("unit")}
+          value={f.watch("value")}
+          stage={f.watch("stage")}
+        />
       </div>
-      <TextField label="Comment (optional)" id="reading-comment" className="sm:col-span-2" {...f.register("comment")} error={err(errors.comment)} />
+      <TextField
+        label="Comment (optional)"
+        id="reading-comment"
+        className="sm:col-span-2"
+        {...f.register("comment")}
+        error={err(errors.comment)}
+      />
     </FormShell>
   );
 }
@@ -180,10 +234,30 @@ function HeliumForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save })
   });
   return (
     <FormShell onSubmit={() => void submit()} busy={f.formState.isSubmitting} label="Save helium level">
-      <TextField label="Level (%)" id="helium-percent" inputMode="decimal" autoComplete="off" {...f.register("percent")} error={err(errors.percent)} />
-      <TextField label="Litres (optional)" id="helium-litres" inputMode="decimal" autoComplete="off" {...f.register("litres")} error={err(errors.litres)} />
+      <TextField
+        label="Level (%)"
+        id="helium-percent"
+        inputMode="decimal"
+        autoComplete="off"
+        {...f.register("percent")}
+        error={err(errors.percent)}
+      />
+      <TextField
+        label="Litres (optional)"
+        id="helium-litres"
+        inputMode="decimal"
+        autoComplete="off"
+        {...f.register("litres")}
+        error={err(errors.litres)}
+      />
       <div className="sm:col-span-2">
-        <DerivedValue id="helium-derived" cryostat={cryostat} quantity="Helium level" unit="%" value={f.watch("percent")} />
+        <DerivedValue
+          id="helium-derived"
+          cryostat={cryostat}
+          quantity="Helium level"
+          unit="%"
+          value={f.watch("percent")}
+        />
       </div>
     </FormShell>
   );
@@ -194,21 +268,55 @@ function FieldForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }) 
   const f = useEntryForm(fieldForm, { currentA: "", fieldT: "", persistent: false, rampRateTPerMin: "", comment: "" });
   const errors = f.formState.errors;
   const submit = f.handleSubmit(async (v) => {
-    if (await save({ cryostatId, kind: "field.setting", payload: v as never })) f.reset({ currentA: "", fieldT: "", persistent: false, rampRateTPerMin: "", comment: "" });
+    if (await save({ cryostatId, kind: "field.setting", payload: v as never }))
+      f.reset({ currentA: "", fieldT: "", persistent: false, rampRateTPerMin: "", comment: "" });
   });
   return (
     <FormShell onSubmit={() => void submit()} busy={f.formState.isSubmitting} label="Save field setting">
-      <TextField label="Field (T)" id="field-t" inputMode="decimal" autoComplete="off" {...f.register("fieldT")} error={err(errors.fieldT)} />
-      <TextField label="Current (A)" id="field-a" inputMode="decimal" autoComplete="off" {...f.register("currentA")} error={err(errors.currentA)} />
+      <TextField
+        label="Field (T)"
+        id="field-t"
+        inputMode="decimal"
+        autoComplete="off"
+        {...f.register("fieldT")}
+        error={err(errors.fieldT)}
+      />
+      <TextField
+        label="Current (A)"
+        id="field-a"
+        inputMode="decimal"
+        autoComplete="off"
+        {...f.register("currentA")}
+        error={err(errors.currentA)}
+      />
       <div className="sm:col-span-2">
-        <DerivedValue id="field-derived" cryostat={cryostat} quantity="Magnet current" unit="A" value={f.watch("currentA")} />
+        <DerivedValue
+          id="field-derived"
+          cryostat={cryostat}
+          quantity="Magnet current"
+          unit="A"
+          value={f.watch("currentA")}
+        />
       </div>
-      <TextField label="Ramp rate (T/min, optional)" id="field-ramp" inputMode="decimal" autoComplete="off" {...f.register("rampRateTPerMin")} error={err(errors.rampRateTPerMin)} />
+      <TextField
+        label="Ramp rate (T/min, optional)"
+        id="field-ramp"
+        inputMode="decimal"
+        autoComplete="off"
+        {...f.register("rampRateTPerMin")}
+        error={err(errors.rampRateTPerMin)}
+      />
       <label className="flex min-h-12 items-center gap-3 self-end rounded-xl border-2 border-line px-4 font-semibold">
         <input type="checkbox" className="h-6 w-6" {...f.register("persistent")} />
         Persistent mode
       </label>
-      <TextField label="Comment (optional)" id="field-comment" className="sm:col-span-2" {...f.register("comment")} error={err(errors.comment)} />
+      <TextField
+        label="Comment (optional)"
+        id="field-comment"
+        className="sm:col-span-2"
+        {...f.register("comment")}
+        error={err(errors.comment)}
+      />
     </FormShell>
   );
 }

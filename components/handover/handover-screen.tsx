@@ -6,8 +6,8 @@ import Link from "next/link";
 import { useSearchParams } from "next/navigation";
 import { useMemo, useState } from "react";
 import { useMe } from "@/components/shell/use-me";
-import { SignDialog } from "@/components/signature/sign-dialog";
 import { SignatureManifestation } from "@/components/signature/manifestation";
+import { SignDialog } from "@/components/signature/sign-dialog";
 import { writeSignature } from "@/components/signature/write-signature";
 import { Button, buttonClass } from "@/components/ui/button";
 import { ProblemNotice } from "@/components/ui/form";
@@ -15,7 +15,7 @@ import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { formatDate, formatTemperature, stateLabel, trim } from "@/lib/format";
 import { useCryostat, useEntries, useUserNames, useUsers } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
-import { handoverSummary, type HandoverSummary } from "@/lib/procedures/handover";
+import { type HandoverSummary, handoverSummary } from "@/lib/procedures/handover";
 import { signaturesOf } from "@/lib/procedures/state";
 
 function errorText(e: unknown): string {
@@ -24,7 +24,11 @@ function errorText(e: unknown): string {
 
 export function HandoverPage() {
   const id = useSearchParams().get("cryostat") ?? "";
-  return id ? <HandoverScreen cryostatId={id} /> : <Notice title="Choose a cryostat">Open the handover from the procedures page.</Notice>;
+  return id ? (
+    <HandoverScreen cryostatId={id} />
+  ) : (
+    <Notice title="Choose a cryostat">Open the handover from the procedures page.</Notice>
+  );
 }
 
 export function SummaryView({ s }: { s: HandoverSummary }) {
@@ -41,7 +45,8 @@ export function SummaryView({ s }: { s: HandoverSummary }) {
             <ul>
               {s.stages.map((st) => (
                 <li key={st.stage}>
-                  {st.stage}: <span className="num font-semibold">{formatTemperature(st.valueK, "K")}</span> <span className="text-sm text-muted">({formatDate(st.at)})</span>
+                  {st.stage}: <span className="num font-semibold">{formatTemperature(st.valueK, "K")}</span>{" "}
+                  <span className="text-sm text-muted">({formatDate(st.at)})</span>
                 </li>
               ))}
             </ul>
@@ -56,7 +61,11 @@ export function SummaryView({ s }: { s: HandoverSummary }) {
           <dd>
             <span className="num font-semibold">{trim(s.heliumPercent)} %</span>
             {s.heliumLitres !== undefined && <span className="num"> ≈ {trim(s.heliumLitres)} L</span>}
-            {s.forecastDays !== undefined && <span className="block text-sm">Minimum level in about {trim(s.forecastDays, 2)} days (estimate from the boil-off since the last fill)</span>}
+            {s.forecastDays !== undefined && (
+              <span className="block text-sm">
+                Minimum level in about {trim(s.forecastDays, 2)} days (estimate from the boil-off since the last fill)
+              </span>
+            )}
           </dd>
         </div>
       )}
@@ -64,7 +73,8 @@ export function SummaryView({ s }: { s: HandoverSummary }) {
         <div>
           <dt className="text-sm text-muted">Field</dt>
           <dd>
-            <span className="num font-semibold">{trim(s.fieldT)} T</span>, {s.persistent ? "persistent mode" : "driven by the supply"}
+            <span className="num font-semibold">{trim(s.fieldT)} T</span>,{" "}
+            {s.persistent ? "persistent mode" : "driven by the supply"}
           </dd>
         </div>
       )}
@@ -92,7 +102,16 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
   const [signing, setSigning] = useState<null | { kind: "give" } | { kind: "accept"; entry: StoredLocalEntry }>(null);
   const [error, setError] = useState<string | null>(null);
 
-  const summary = useMemo(() => (entries && cryostat ? handoverSummary(entries.filter((e) => e.sync !== "rejected"), cryostat.config) : null), [entries, cryostat]);
+  const summary = useMemo(
+    () =>
+      entries && cryostat
+        ? handoverSummary(
+            entries.filter((e) => e.sync !== "rejected"),
+            cryostat.config,
+          )
+        : null,
+    [entries, cryostat],
+  );
   const past = useMemo(() => {
     if (!entries) return [];
     const sigs = signaturesOf(entries);
@@ -102,11 +121,19 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
       .map((e) => ({ entry: e, sigs: sigs.filter((g) => g.signedEntryId === e.id) }));
   }, [entries]);
 
-  if (cryostat === undefined || entries === undefined || !summary) return <Loading label="Reading this cryostat's log on the tablet…" />;
-  if (cryostat === null) return <Notice tone="warn" title="Unknown cryostat">This tablet does not know that cryostat yet.</Notice>;
+  if (cryostat === undefined || entries === undefined || !summary)
+    return <Loading label="Reading this cryostat's log on the tablet…" />;
+  if (cryostat === null)
+    return (
+      <Notice tone="warn" title="Unknown cryostat">
+        This tablet does not know that cryostat yet.
+      </Notice>
+    );
   const mayHand = me?.role === "technician" || me?.role === "researcher";
   const issueText = issues ?? summary.openIssues.join("\n");
-  const incoming = (users ?? []).filter((u) => u.active && u.id !== me?.id && (u.role === "technician" || u.role === "researcher"));
+  const incoming = (users ?? []).filter(
+    (u) => u.active && u.id !== me?.id && (u.role === "technician" || u.role === "researcher"),
+  );
 
   return (
     <div className="flex flex-col gap-4">
@@ -128,15 +155,29 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
           <h2 className="text-xl font-bold">Hand over</h2>
           <label className="flex flex-col gap-1 font-semibold">
             Note for the next shift
-            <textarea value={note} onChange={(e) => setNote(e.target.value)} rows={4} className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg" />
+            <textarea
+              value={note}
+              onChange={(e) => setNote(e.target.value)}
+              rows={4}
+              className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg"
+            />
           </label>
           <label className="flex flex-col gap-1 font-semibold">
             Open issues (one per line)
-            <textarea value={issueText} onChange={(e) => setIssues(e.target.value)} rows={2} className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg" />
+            <textarea
+              value={issueText}
+              onChange={(e) => setIssues(e.target.value)}
+              rows={2}
+              className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg"
+            />
           </label>
           <label className="flex max-w-md flex-col gap-1 font-semibold">
             Handed over to
-            <select value={to} onChange={(e) => setTo(e.target.value)} className="min-h-12 rounded-xl border-2 border-line bg-bg px-3 text-lg">
+            <select
+              value={to}
+              onChange={(e) => setTo(e.target.value)}
+              className="min-h-12 rounded-xl border-2 border-line bg-bg px-3 text-lg"
+            >
               <option value="">Choose…</option>
               {incoming.map((u) => (
                 <option key={u.id} value={u.id}>
@@ -145,7 +186,12 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
               ))}
             </select>
           </label>
-          <Button variant="primary" className="min-h-16 self-start text-xl" disabled={!note.trim() || !to} onClick={() => setSigning({ kind: "give" })}>
+          <Button
+            variant="primary"
+            className="min-h-16 self-start text-xl"
+            disabled={!note.trim() || !to}
+            onClick={() => setSigning({ kind: "give" })}
+          >
             ✍ Hand over and sign
           </Button>
         </Panel>
@@ -158,21 +204,36 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
         {past.map(({ entry, sigs }) => {
           const p = entry.payload as { note: string; toUserId?: string; summary: HandoverSummary };
           const accepted = sigs.some((g) => g.meaning === "accepted" && g.valid);
-          const mayAccept = mayHand && me && me.id !== entry.authorId && (!p.toUserId || p.toUserId === me.id) && !accepted;
+          const mayAccept =
+            mayHand && me && me.id !== entry.authorId && (!p.toUserId || p.toUserId === me.id) && !accepted;
           return (
             <Panel key={entry.id} data-handover={entry.id} className="flex flex-col gap-2">
               <p className="font-semibold">
-                {names[entry.authorId] ?? entry.authorId} → {p.toUserId ? (names[p.toUserId] ?? p.toUserId) : "next shift"} · {formatDate(entry.recordedAt)}{" "}
+                {names[entry.authorId] ?? entry.authorId} →{" "}
+                {p.toUserId ? (names[p.toUserId] ?? p.toUserId) : "next shift"} · {formatDate(entry.recordedAt)}{" "}
                 {accepted ? <Tag tone="ok">Accepted</Tag> : <Tag tone="accent">Not yet accepted</Tag>}
               </p>
               <p className="whitespace-pre-wrap">{p.note}</p>
               {/* Older handovers may carry a partial summary: fill the lists before showing it. */}
-              {(p.summary?.stages?.length ?? 0) > 0 && <SummaryView s={{ ...p.summary, stages: p.summary.stages ?? [], openRuns: p.summary.openRuns ?? [], openIssues: p.summary.openIssues ?? [] }} />}
+              {(p.summary?.stages?.length ?? 0) > 0 && (
+                <SummaryView
+                  s={{
+                    ...p.summary,
+                    stages: p.summary.stages ?? [],
+                    openRuns: p.summary.openRuns ?? [],
+                    openIssues: p.summary.openIssues ?? [],
+                  }}
+                />
+              )}
               {sigs.map((g) => (
                 <SignatureManifestation key={g.entryId} sig={g} />
               ))}
               {mayAccept && (
-                <Button variant="primary" className="min-h-14 self-start" onClick={() => setSigning({ kind: "accept", entry })}>
+                <Button
+                  variant="primary"
+                  className="min-h-14 self-start"
+                  onClick={() => setSigning({ kind: "accept", entry })}
+                >
                   ✍ Accept and sign
                 </Button>
               )}
@@ -190,8 +251,15 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
             setError(null);
             try {
               if (signing.kind === "give") {
-                const openIssues = issueText.split("\n").map((l) => l.trim()).filter(Boolean);
-                const h = await recordEntry({ cryostatId, kind: "handover", payload: { summary: { ...summary, openIssues }, note: note.trim(), toUserId: to } });
+                const openIssues = issueText
+                  .split("\n")
+                  .map((l) => l.trim())
+                  .filter(Boolean);
+                const h = await recordEntry({
+                  cryostatId,
+                  kind: "handover",
+                  payload: { summary: { ...summary, openIssues }, note: note.trim(), toUserId: to },
+                });
                 await writeSignature(h, me, "handed_over", c);
                 setNote("");
                 setIssues(null);
@@ -203,7 +271,11 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
             }
           }}
         >
-          <p>{signing.kind === "give" ? "I hand over this cryostat in the state shown, with the note and open issues written." : "I accept this cryostat in the state handed over."}</p>
+          <p>
+            {signing.kind === "give"
+              ? "I hand over this cryostat in the state shown, with the note and open issues written."
+              : "I accept this cryostat in the state handed over."}
+          </p>
         </SignDialog>
       )}
     </div>

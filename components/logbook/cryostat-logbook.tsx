@@ -5,8 +5,8 @@ import { memo, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Loading, Panel, Tag } from "@/components/ui/panel";
 import { kindLabel } from "@/lib/format";
-import { useEntries, useUserNames } from "@/lib/local/hooks";
 import type { StoredLocalEntry } from "@/lib/local/db";
+import { useEntries, useUserNames } from "@/lib/local/hooks";
 import { EntryBody, EntryMeta } from "./entry-body";
 
 const PAGE = 40;
@@ -45,12 +45,20 @@ export function CryostatLogbook({ cryostatId }: { cryostatId: string }) {
  */
 const EntryRow = memo(
   EntryRowView,
-  (a, b) => a.names === b.names && a.e.id === b.e.id && a.e.sync === b.e.sync && a.e.seq === b.e.seq && a.e.rejection?.message === b.e.rejection?.message,
+  (a, b) =>
+    a.names === b.names &&
+    a.e.id === b.e.id &&
+    a.e.sync === b.e.sync &&
+    a.e.seq === b.e.seq &&
+    a.e.rejection?.message === b.e.rejection?.message,
 );
 
 function EntryRowView({ e, names }: { e: StoredLocalEntry; names: Record<string, string> }) {
   return (
-    <li data-sync={e.sync} className={`flex flex-col gap-1 border-b border-line px-5 py-3 last:border-0 sm:flex-row sm:gap-4 ${e.sync === "rejected" ? "bg-sunk" : ""}`}>
+    <li
+      data-sync={e.sync}
+      className={`flex flex-col gap-1 border-b border-line px-5 py-3 last:border-0 sm:flex-row sm:gap-4 ${e.sync === "rejected" ? "bg-sunk" : ""}`}
+    >
       <div className="sm:w-56 sm:shrink-0">
         <span className="block font-semibold">{kindLabel(e.kind)}</span>
         <EntryMeta entry={e} names={names} />
@@ -70,7 +78,8 @@ function EntryRowView({ e, names }: { e: StoredLocalEntry; names: Record<string,
         {e.supersedes && <p className="text-sm text-warn">Corrects an earlier entry: {e.reason}</p>}
         {e.sync === "rejected" && e.rejection && (
           <p role="note" className="mt-1 text-sm font-semibold text-danger">
-            The server refused this entry: {e.rejection.message} It stays on this tablet only; record it again with the problem fixed.
+            The server refused this entry: {e.rejection.message} It stays on this tablet only; record it again with the
+            problem fixed.
           </p>
         )}
       </div>

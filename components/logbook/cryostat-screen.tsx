@@ -46,7 +46,8 @@ function CryostatView({ id }: { id: string }) {
         <Loading label="Loading the cryostat…" />
       ) : cryostat === null ? (
         <Notice tone="warn" title="This cryostat is not on the tablet">
-          Either it does not exist or the tablet has not synced since it was added. Connect to the network and open it again.
+          Either it does not exist or the tablet has not synced since it was added. Connect to the network and open it
+          again.
         </Notice>
       ) : (
         <>

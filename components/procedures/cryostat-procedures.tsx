@@ -10,7 +10,9 @@ import type { RunStartPayload } from "@/lib/schemas/run";
 
 export function CryostatProcedures({ cryostatId }: { cryostatId: string }) {
   const list = useEntries({ cryostatId, kinds: ["run.start", "run.abort", "run.complete"] });
-  const ended = new Set((list ?? []).filter((e) => e.kind !== "run.start" && e.sync !== "rejected").map((e) => e.runId));
+  const ended = new Set(
+    (list ?? []).filter((e) => e.kind !== "run.start" && e.sync !== "rejected").map((e) => e.runId),
+  );
   const open = (list ?? []).filter((e) => e.kind === "run.start" && e.sync !== "rejected" && !ended.has(e.id));
   return (
     <Panel aria-labelledby={`procs-${cryostatId}`} className="flex flex-col gap-2">
@@ -23,8 +25,12 @@ export function CryostatProcedures({ cryostatId }: { cryostatId: string }) {
         <ul className="flex flex-col gap-1">
           {open.map((e) => (
             <li key={e.id}>
-              <Link href={`/runs?id=${e.id}`} className="flex min-h-12 items-center rounded-xl border-2 border-accent px-4 font-semibold hover:bg-sunk">
-                {(e.payload as RunStartPayload).title} <span className="ml-2 text-sm font-normal text-muted">since {formatDate(e.recordedAt)}</span>
+              <Link
+                href={`/runs?id=${e.id}`}
+                className="flex min-h-12 items-center rounded-xl border-2 border-accent px-4 font-semibold hover:bg-sunk"
+              >
+                {(e.payload as RunStartPayload).title}{" "}
+                <span className="ml-2 text-sm font-normal text-muted">since {formatDate(e.recordedAt)}</span>
               </Link>
             </li>
           ))}

@@ -25,11 +25,20 @@ export function Keypad({ value, onChange, label }: { value: string; onChange: (v
   return (
     <div role="group" aria-label={label} className="grid grid-cols-3 gap-2">
       {KEYS.map((k) => (
-        <Button key={k} onClick={() => onChange(applyKey(value, k))} className="num min-h-16 text-3xl!" aria-label={k === "−" ? "Change sign" : k === "." ? "Decimal point" : k}>
+        <Button
+          key={k}
+          onClick={() => onChange(applyKey(value, k))}
+          className="num min-h-16 text-3xl!"
+          aria-label={k === "−" ? "Change sign" : k === "." ? "Decimal point" : k}
+        >
           {k}
         </Button>
       ))}
-      <Button onClick={() => onChange(applyKey(value, "⌫"))} className="col-span-2 min-h-14 text-xl" aria-label="Delete last digit">
+      <Button
+        onClick={() => onChange(applyKey(value, "⌫"))}
+        className="col-span-2 min-h-14 text-xl"
+        aria-label="Delete last digit"
+      >
         ⌫ Delete
       </Button>
       <Button onClick={() => onChange("")} className="min-h-14 text-xl" aria-label="Clear the value">

@@ -10,7 +10,7 @@ import { Button, buttonClass } from "@/components/ui/button";
 import { ProblemNotice } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
-import { useCryostats, useEntries, useTemplates, useUserNames, type LocalTemplate } from "@/lib/local/hooks";
+import { type LocalTemplate, useCryostats, useEntries, useTemplates, useUserNames } from "@/lib/local/hooks";
 import { recordEntry } from "@/lib/local/record";
 import type { RunStartPayload } from "@/lib/schemas/run";
 import { errorText } from "./run-screen";
@@ -32,7 +32,11 @@ export function ProceduresHome() {
   const [busy, setBusy] = useState<string | null>(null);
 
   const runs = useMemo(() => {
-    const ended = new Map((runEntries ?? []).filter((e) => e.kind !== "run.start" && e.runId && e.sync !== "rejected").map((e) => [e.runId!, e.kind]));
+    const ended = new Map(
+      (runEntries ?? [])
+        .filter((e) => e.kind !== "run.start" && e.runId && e.sync !== "rejected")
+        .map((e) => [e.runId!, e.kind]),
+    );
     return (runEntries ?? [])
       .filter((e) => e.kind === "run.start" && e.sync !== "rejected")
       .map((e) => ({ entry: e, payload: e.payload as RunStartPayload, ended: ended.get(e.id) ?? null }))
@@ -50,7 +54,16 @@ export function ProceduresHome() {
     setBusy(`${t.id}:${cryostatId}`);
     setError(null);
     try {
-      const e = await recordEntry({ cryostatId, kind: "run.start", payload: { templateId: t.id, templateKey: t.key, templateVersion: t.version, title: `${t.title} — ${cryostatName}` } });
+      const e = await recordEntry({
+        cryostatId,
+        kind: "run.start",
+        payload: {
+          templateId: t.id,
+          templateKey: t.key,
+          templateVersion: t.version,
+          title: `${t.title} — ${cryostatName}`,
+        },
+      });
       // A full navigation: the one cached /runs page opens it even with no network.
       window.location.assign(`/runs?id=${e.id}`);
     } catch (err) {
@@ -72,10 +85,14 @@ export function ProceduresHome() {
           <ul className="grid gap-3 md:grid-cols-2">
             {open.map((r) => (
               <li key={r.entry.id}>
-                <Link href={`/runs?id=${r.entry.id}`} className="flex min-h-20 flex-col justify-center rounded-2xl border-2 border-accent bg-panel px-5 py-3 hover:bg-sunk">
+                <Link
+                  href={`/runs?id=${r.entry.id}`}
+                  className="flex min-h-20 flex-col justify-center rounded-2xl border-2 border-accent bg-panel px-5 py-3 hover:bg-sunk"
+                >
                   <span className="text-lg font-bold">{r.payload.title}</span>
                   <span className="text-muted">
-                    {nameOf(r.entry.cryostatId)} · started {formatDate(r.entry.recordedAt)} by {names[r.entry.authorId] ?? r.entry.authorId}
+                    {nameOf(r.entry.cryostatId)} · started {formatDate(r.entry.recordedAt)} by{" "}
+                    {names[r.entry.authorId] ?? r.entry.authorId}
                   </span>
                 </Link>
               </li>
@@ -88,7 +105,11 @@ export function ProceduresHome() {
         <h2 id="start" className="text-2xl font-bold">
           Start a procedure
         </h2>
-        {!mayStart && <p className="text-muted">Technicians and researchers start procedures; you can open any run and its record.</p>}
+        {!mayStart && (
+          <p className="text-muted">
+            Technicians and researchers start procedures; you can open any run and its record.
+          </p>
+        )}
         <div className="grid gap-3 lg:grid-cols-3">
           {cryostats.map((c) => (
             <Panel key={c.id} aria-labelledby={`cry-${c.id}`} className="flex flex-col gap-2">
@@ -98,11 +119,21 @@ export function ProceduresHome() {
               {latest
                 .filter((t) => t.cryostatKinds.includes(c.kind))
                 .map((t) => (
-                  <Button key={t.id} variant="secondary" disabled={!mayStart || busy !== null} onClick={() => void start(t, c.id, c.name)} className="justify-start text-left" aria-label={`Start ${t.title} on ${c.name}`}>
+                  <Button
+                    key={t.id}
+                    variant="secondary"
+                    disabled={!mayStart || busy !== null}
+                    onClick={() => void start(t, c.id, c.name)}
+                    className="justify-start text-left"
+                    aria-label={`Start ${t.title} on ${c.name}`}
+                  >
                     ▶ {t.title} <span className="num ml-auto text-sm text-muted">v{t.version}</span>
                   </Button>
                 ))}
-              <Link href={`/handover?cryostat=${encodeURIComponent(c.id)}`} className={buttonClass("ghost", "justify-start text-accent")}>
+              <Link
+                href={`/handover?cryostat=${encodeURIComponent(c.id)}`}
+                className={buttonClass("ghost", "justify-start text-accent")}
+              >
                 Shift handover for {c.name} →
               </Link>
             </Panel>
@@ -118,9 +149,14 @@ export function ProceduresHome() {
           <ul className="flex flex-col gap-2">
             {finished.map((r) => (
               <li key={r.entry.id}>
-                <Link href={`/runs?id=${r.entry.id}&view=record`} className="flex min-h-12 flex-wrap items-center gap-2 rounded-xl border border-line bg-panel px-4 py-2 hover:bg-sunk">
+                <Link
+                  href={`/runs?id=${r.entry.id}&view=record`}
+                  className="flex min-h-12 flex-wrap items-center gap-2 rounded-xl border border-line bg-panel px-4 py-2 hover:bg-sunk"
+                >
                   <span className="font-semibold">{r.payload.title}</span>
-                  <Tag tone={r.ended === "run.complete" ? "ok" : "danger"}>{r.ended === "run.complete" ? "Completed" : "Aborted"}</Tag>
+                  <Tag tone={r.ended === "run.complete" ? "ok" : "danger"}>
+                    {r.ended === "run.complete" ? "Completed" : "Aborted"}
+                  </Tag>
                   <span className="text-sm text-muted">{formatDate(r.entry.recordedAt)}</span>
                 </Link>
               </li>

@@ -18,5 +18,7 @@ export function RunPage() {
         </Link>
       </Notice>
     );
-  return <RunScreen key={id} runId={id} initialView={view === "record" ? "record" : view === "list" ? "list" : "step"} />;
+  return (
+    <RunScreen key={id} runId={id} initialView={view === "record" ? "record" : view === "list" ? "list" : "step"} />
+  );
 }

@@ -45,7 +45,11 @@ export function RunRecord({ view, names }: { view: RunView; names: Record<string
           <div>
             <dt className="inline font-semibold">Status: </dt>
             <dd className="inline">
-              {state.status === "open" ? "In progress" : state.status === "completed" ? "Completed" : `Aborted — ${state.aborted?.reason}`}
+              {state.status === "open"
+                ? "In progress"
+                : state.status === "completed"
+                  ? "Completed"
+                  : `Aborted — ${state.aborted?.reason}`}
               {ends[0] ? `, ${formatDate(ends[0].recordedAt)} by ${who(ends[0].authorId)}` : ""}
             </dd>
           </div>
@@ -65,10 +69,21 @@ export function RunRecord({ view, names }: { view: RunView; names: Record<string
 
       <ol className="flex flex-col gap-3 print:gap-1">
         {state.steps.map((s) => (
-          <li key={s.step.id} data-record-step={s.step.id} className="break-inside-avoid rounded-2xl border border-line bg-panel p-4 print:rounded-none print:border-x-0 print:border-t-0 print:p-1">
+          <li
+            key={s.step.id}
+            data-record-step={s.step.id}
+            className="break-inside-avoid rounded-2xl border border-line bg-panel p-4 print:rounded-none print:border-x-0 print:border-t-0 print:p-1"
+          >
             <h3 className="font-bold">
-              <span className="num">{s.index + 1}.</span> {s.step.kind === "reading" ? `${s.step.quantity} (${describeRange(s.step)})` : s.step.kind === "hold" ? `Hold point — signed by a ${ROLE_LABEL[s.step.role].toLowerCase()}` : s.step.kind.charAt(0).toUpperCase() + s.step.kind.slice(1)}
-              {s.status === "todo" || s.status === "blocked" ? <span className="font-normal text-muted"> — not done</span> : null}
+              <span className="num">{s.index + 1}.</span>{" "}
+              {s.step.kind === "reading"
+                ? `${s.step.quantity} (${describeRange(s.step)})`
+                : s.step.kind === "hold"
+                  ? `Hold point — signed by a ${ROLE_LABEL[s.step.role].toLowerCase()}`
+                  : s.step.kind.charAt(0).toUpperCase() + s.step.kind.slice(1)}
+              {s.status === "todo" || s.status === "blocked" ? (
+                <span className="font-normal text-muted"> — not done</span>
+              ) : null}
             </h3>
             <p className="text-muted">{s.step.text}</p>
             {s.problems.map((p) => (
@@ -88,7 +103,11 @@ export function RunRecord({ view, names }: { view: RunView; names: Record<string
                       {" "}
                       · {who(e.authorId)}, {formatDate(e.recordedAt)}, tablet {e.deviceId}
                     </span>
-                    {replaced && <span className="block text-sm text-muted">Replaced by a correction (kept here as recorded).</span>}
+                    {replaced && (
+                      <span className="block text-sm text-muted">
+                        Replaced by a correction (kept here as recorded).
+                      </span>
+                    )}
                     {e.supersedes && <span className="block text-sm text-warn">Correction — reason: {e.reason}</span>}
                     {p.kind === "reading" && p.comment && <span className="block">Comment: {p.comment}</span>}
                     {p.kind === "photo" && <Photo id={p.attachmentId} />}
@@ -108,7 +127,10 @@ export function RunRecord({ view, names }: { view: RunView; names: Record<string
       {ends.map(
         (e) =>
           e && (
-            <section key={e.id} className="break-inside-avoid rounded-2xl border border-line bg-panel p-4 print:border-0 print:p-1">
+            <section
+              key={e.id}
+              className="break-inside-avoid rounded-2xl border border-line bg-panel p-4 print:border-0 print:p-1"
+            >
               <h3 className="font-bold">{kindLabel(e.kind)}</h3>
               <p className="text-sm text-muted">
                 {who(e.authorId)}, {formatDate(e.recordedAt)}
@@ -122,7 +144,8 @@ export function RunRecord({ view, names }: { view: RunView; names: Record<string
           ),
       )}
       <p className="hidden text-sm print:block">
-        Printed from Rimelog. Each signature is bound to the SHA-256 hash of the record it signs; the electronic record is the original.
+        Printed from Rimelog. Each signature is bound to the SHA-256 hash of the record it signs; the electronic record
+        is the original.
       </p>
     </article>
   );

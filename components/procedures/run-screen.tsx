@@ -8,8 +8,8 @@ import { useEffect, useState } from "react";
 import { DerivedValue } from "@/components/cryo/derived-value";
 import { Caution } from "@/components/safety/caution";
 import { useMe } from "@/components/shell/use-me";
-import { SignDialog } from "@/components/signature/sign-dialog";
 import { SignatureManifestation } from "@/components/signature/manifestation";
+import { SignDialog } from "@/components/signature/sign-dialog";
 import { writeSignature } from "@/components/signature/write-signature";
 import { Button, buttonClass } from "@/components/ui/button";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
@@ -18,17 +18,26 @@ import type { SessionUser } from "@/lib/auth/session-user";
 import { formatDate, trim } from "@/lib/format";
 import { useCryostat, useUserNames, useUsers } from "@/lib/local/hooks";
 import { LocalWriteError, putAttachment, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
-import { describeRange, readingOutOfRange, type RunState, type StepState } from "@/lib/procedures/state";
+import { describeRange, type RunState, readingOutOfRange, type StepState } from "@/lib/procedures/state";
 import type { RunStepPayload } from "@/lib/schemas/run";
 import type { TemplateStep } from "@/lib/schemas/template";
 import { Keypad, keypadNumber } from "./keypad";
-import { describeEntry, Photo } from "./step-bits";
 import { RunRecord } from "./run-record";
-import { useRun, type RunView } from "./use-run";
+import { describeEntry, Photo } from "./step-bits";
+import { type RunView, useRun } from "./use-run";
 
-type Ctx = { view: RunView; me: SessionUser; cryostatId: string; onError: (m: string | null) => void; names: Record<string, string> };
+type Ctx = {
+  view: RunView;
+  me: SessionUser;
+  cryostatId: string;
+  onError: (m: string | null) => void;
+  names: Record<string, string>;
+};
 
-const STATUS_LABEL: Record<StepState["status"], { text: string; tone: "neutral" | "ok" | "warn" | "danger" | "accent" }> = {
+const STATUS_LABEL: Record<
+  StepState["status"],
+  { text: string; tone: "neutral" | "ok" | "warn" | "danger" | "accent" }
+> = {
   todo: { text: "To do", tone: "neutral" },
   done: { text: "Done", tone: "ok" },
   flagged: { text: "Done · flagged", tone: "warn" },
@@ -57,7 +66,13 @@ export function cautionTopicFor(templateKey: string, topic: Extract<TemplateStep
   }
 }
 
-export function RunScreen({ runId, initialView = "step" }: { runId: string; initialView?: "step" | "list" | "record" }) {
+export function RunScreen({
+  runId,
+  initialView = "step",
+}: {
+  runId: string;
+  initialView?: "step" | "list" | "record";
+}) {
   const { me } = useMe();
   const view = useRun(runId);
   const [mode, setMode] = useState<"step" | "list" | "record">(initialView);
@@ -75,7 +90,10 @@ export function RunScreen({ runId, initialView = "step" }: { runId: string; init
   if (view === null || !me)
     return (
       <Notice tone="warn" title="This run is not on this tablet yet">
-        <p>It appears here after the tablet has synced once with the network (or open it on the tablet where it was started).</p>
+        <p>
+          It appears here after the tablet has synced once with the network (or open it on the tablet where it was
+          started).
+        </p>
         <Link href="/procedures" className={buttonClass("secondary", "mt-2")}>
           ← Procedures
         </Link>
@@ -89,7 +107,14 @@ export function RunScreen({ runId, initialView = "step" }: { runId: string; init
 
   return (
     <div className="flex flex-col gap-4">
-      <RunHeader state={state} title={String(state.startPayload?.title ?? template.title)} version={template.version} cryostatId={ctx.cryostatId} mode={mode} setMode={setMode} />
+      <RunHeader
+        state={state}
+        title={String(state.startPayload?.title ?? template.title)}
+        version={template.version}
+        cryostatId={ctx.cryostatId}
+        mode={mode}
+        setMode={setMode}
+      />
       {error && (
         <Notice tone="danger" title="Not saved" role="alert">
           <p>{error}</p>
@@ -122,7 +147,13 @@ export function RunScreen({ runId, initialView = "step" }: { runId: string; init
         <ol aria-label="Steps" className="flex flex-col gap-3">
           {state.steps.map((st) => (
             <li key={st.step.id}>
-              <StepCard s={st} ctx={ctx} total={state.steps.length} compact={st.index !== at} onOpen={() => setIndex(st.index)} />
+              <StepCard
+                s={st}
+                ctx={ctx}
+                total={state.steps.length}
+                compact={st.index !== at}
+                onOpen={() => setIndex(st.index)}
+              />
             </li>
           ))}
         </ol>
@@ -130,7 +161,11 @@ export function RunScreen({ runId, initialView = "step" }: { runId: string; init
         <>
           <StepCard s={s} ctx={ctx} total={state.steps.length} />
           <nav aria-label="Steps" className="no-print flex flex-wrap items-center gap-2">
-            <Button onClick={() => setIndex(Math.max(0, at - 1))} disabled={at === 0} className="min-h-14 flex-1 text-lg">
+            <Button
+              onClick={() => setIndex(Math.max(0, at - 1))}
+              disabled={at === 0}
+              className="min-h-14 flex-1 text-lg"
+            >
               ← Previous step
             </Button>
             {current !== null && current !== at && (
@@ -138,7 +173,12 @@ export function RunScreen({ runId, initialView = "step" }: { runId: string; init
                 Go to step {current + 1}
               </Button>
             )}
-            <Button variant="primary" onClick={() => setIndex(Math.min(state.steps.length - 1, at + 1))} disabled={at >= state.steps.length - 1} className="min-h-14 flex-1 text-lg">
+            <Button
+              variant="primary"
+              onClick={() => setIndex(Math.min(state.steps.length - 1, at + 1))}
+              disabled={at >= state.steps.length - 1}
+              className="min-h-14 flex-1 text-lg"
+            >
               Next step →
             </Button>
           </nav>
@@ -146,12 +186,29 @@ export function RunScreen({ runId, initialView = "step" }: { runId: string; init
       ) : null}
 
       {state.status === "open" && mode !== "record" && <RunEnd ctx={ctx} state={state} />}
-      {state.completed && !state.signatures.some((g) => g.valid && g.meaning === "performed" && g.signedEntryId === state.completed?.entry.id) && <SignCompletion ctx={ctx} entry={state.completed.entry as StoredLocalEntry} />}
+      {state.completed &&
+        !state.signatures.some(
+          (g) => g.valid && g.meaning === "performed" && g.signedEntryId === state.completed?.entry.id,
+        ) && <SignCompletion ctx={ctx} entry={state.completed.entry as StoredLocalEntry} />}
     </div>
   );
 }
 
-function RunHeader({ state, title, version, cryostatId, mode, setMode }: { state: RunState; title: string; version: number; cryostatId: string; mode: string; setMode: (m: "step" | "list" | "record") => void }) {
+function RunHeader({
+  state,
+  title,
+  version,
+  cryostatId,
+  mode,
+  setMode,
+}: {
+  state: RunState;
+  title: string;
+  version: number;
+  cryostatId: string;
+  mode: string;
+  setMode: (m: "step" | "list" | "record") => void;
+}) {
   const cryostat = useCryostat(cryostatId);
   const { done, required, percent } = state.progress;
   return (
@@ -161,7 +218,13 @@ function RunHeader({ state, title, version, cryostatId, mode, setMode }: { state
           <h1 className="text-2xl font-bold sm:text-3xl">{title}</h1>
           <p className="text-muted">
             {cryostat?.name ?? cryostatId} · procedure version {version} ·{" "}
-            {state.status === "open" ? <Tag tone="accent">In progress</Tag> : state.status === "completed" ? <Tag tone="ok">Completed</Tag> : <Tag tone="danger">Aborted</Tag>}
+            {state.status === "open" ? (
+              <Tag tone="accent">In progress</Tag>
+            ) : state.status === "completed" ? (
+              <Tag tone="ok">Completed</Tag>
+            ) : (
+              <Tag tone="danger">Aborted</Tag>
+            )}
           </p>
         </div>
         <div role="tablist" aria-label="How to show the run" className="no-print flex flex-wrap gap-1">
@@ -172,7 +235,13 @@ function RunHeader({ state, title, version, cryostatId, mode, setMode }: { state
               ["record", "Record"],
             ] as const
           ).map(([m, label]) => (
-            <button key={m} role="tab" aria-selected={mode === m} onClick={() => setMode(m)} className={`min-h-12 rounded-xl border-2 px-4 font-semibold ${mode === m ? "border-accent bg-sunk" : "border-line"}`}>
+            <button
+              key={m}
+              role="tab"
+              aria-selected={mode === m}
+              onClick={() => setMode(m)}
+              className={`min-h-12 rounded-xl border-2 px-4 font-semibold ${mode === m ? "border-accent bg-sunk" : "border-line"}`}
+            >
               {label}
             </button>
           ))}
@@ -185,7 +254,14 @@ function RunHeader({ state, title, version, cryostatId, mode, setMode }: { state
           </span>
           <span className="num">{percent} %</span>
         </div>
-        <div role="progressbar" aria-label="Run progress" aria-valuemin={0} aria-valuemax={100} aria-valuenow={percent} className="mt-1 h-4 overflow-hidden rounded-full bg-sunk">
+        <div
+          role="progressbar"
+          aria-label="Run progress"
+          aria-valuemin={0}
+          aria-valuemax={100}
+          aria-valuenow={percent}
+          className="mt-1 h-4 overflow-hidden rounded-full bg-sunk"
+        >
           <div className="h-full rounded-full bg-accent" style={{ width: `${percent}%` }} />
         </div>
       </div>
@@ -193,11 +269,28 @@ function RunHeader({ state, title, version, cryostatId, mode, setMode }: { state
   );
 }
 
-function StepCard({ s, ctx, total, compact = false, onOpen }: { s: StepState; ctx: Ctx; total: number; compact?: boolean; onOpen?: () => void }) {
+function StepCard({
+  s,
+  ctx,
+  total,
+  compact = false,
+  onOpen,
+}: {
+  s: StepState;
+  ctx: Ctx;
+  total: number;
+  compact?: boolean;
+  onOpen?: () => void;
+}) {
   const st = STATUS_LABEL[s.status];
   const open = ctx.view.state.status === "open";
   return (
-    <Panel data-step={s.step.id} data-status={s.status} aria-labelledby={`step-${s.step.id}`} className={`flex flex-col gap-3 border-2 ${s.status === "flagged" ? "border-warn" : "border-line"}`}>
+    <Panel
+      data-step={s.step.id}
+      data-status={s.status}
+      aria-labelledby={`step-${s.step.id}`}
+      className={`flex flex-col gap-3 border-2 ${s.status === "flagged" ? "border-warn" : "border-line"}`}
+    >
       <div className="flex flex-wrap items-start justify-between gap-2">
         <h2 id={`step-${s.step.id}`} className="text-xl font-bold">
           <span className="num text-muted">
@@ -224,7 +317,9 @@ function StepCard({ s, ctx, total, compact = false, onOpen }: { s: StepState; ct
         <>
           <StepEntries s={s} ctx={ctx} />
           {open && s.status !== "blocked" && <StepAction s={s} ctx={ctx} />}
-          {open && s.status === "blocked" && <Notice tone="neutral">This step waits for the hold point before it to be signed.</Notice>}
+          {open && s.status === "blocked" && (
+            <Notice tone="neutral">This step waits for the hold point before it to be signed.</Notice>
+          )}
         </>
       )}
     </Panel>
@@ -253,7 +348,8 @@ function StepSummary({ s, names }: { s: StepState; names: Record<string, string>
   if (!last) return <span className="text-muted">Nothing recorded yet.</span>;
   return (
     <span className="text-muted">
-      {describeEntry(last.payload as RunStepPayload)} · {names[last.authorId] ?? last.authorId}, {formatDate(last.recordedAt)}
+      {describeEntry(last.payload as RunStepPayload)} · {names[last.authorId] ?? last.authorId},{" "}
+      {formatDate(last.recordedAt)}
     </span>
   );
 }
@@ -270,17 +366,23 @@ function StepEntries({ s, ctx }: { s: StepState; ctx: Ctx }) {
         return (
           <li key={e.id} className={`rounded-xl border border-line p-3 ${replaced ? "opacity-60" : ""}`}>
             <div className="flex flex-wrap items-center gap-2">
-              <span className={`text-lg ${replaced ? "line-through" : "font-semibold"} ${p.kind === "reading" && p.outOfRange ? "text-warn" : ""}`}>
+              <span
+                className={`text-lg ${replaced ? "line-through" : "font-semibold"} ${p.kind === "reading" && p.outOfRange ? "text-warn" : ""}`}
+              >
                 {p.kind === "reading" && p.outOfRange ? "⚑ " : ""}
                 {describeEntry(p)}
               </span>
-              {p.kind === "check" && p.secondPersonId && <span className="text-muted">with {ctx.names[p.secondPersonId] ?? p.secondPersonId}</span>}
+              {p.kind === "check" && p.secondPersonId && (
+                <span className="text-muted">with {ctx.names[p.secondPersonId] ?? p.secondPersonId}</span>
+              )}
               <span className="text-sm text-muted">
                 {ctx.names[e.authorId] ?? e.authorId} · {formatDate(e.recordedAt)}
               </span>
               {local.sync === "pending" && <Tag tone="accent">Saved on this tablet</Tag>}
               {local.sync === "rejected" && <Tag tone="danger">Refused</Tag>}
-              {p.kind === "reading" && !replaced && ctx.view.state.status === "open" && <CorrectReading entry={local} ctx={ctx} />}
+              {p.kind === "reading" && !replaced && ctx.view.state.status === "open" && (
+                <CorrectReading entry={local} ctx={ctx} />
+              )}
             </div>
             {e.supersedes && <p className="text-sm text-warn">Correction: {e.reason}</p>}
             {p.kind === "reading" && p.comment && <p className="text-muted">{p.comment}</p>}
@@ -301,7 +403,13 @@ function StepEntries({ s, ctx }: { s: StepState; ctx: Ctx }) {
 
 async function writeStep(ctx: Ctx, payload: RunStepPayload, extra: { supersedes?: string; reason?: string } = {}) {
   ctx.onError(null);
-  return recordEntry({ cryostatId: ctx.cryostatId, runId: ctx.view.state.runId, kind: "run.step", payload: payload as never, ...extra });
+  return recordEntry({
+    cryostatId: ctx.cryostatId,
+    runId: ctx.view.state.runId,
+    kind: "run.step",
+    payload: payload as never,
+    ...extra,
+  });
 }
 
 function StepAction({ s, ctx }: { s: StepState; ctx: Ctx }) {
@@ -333,7 +441,11 @@ function CheckAction({ step, s, ctx }: { step: Extract<TemplateStep, { kind: "ch
       {step.secondPerson && (
         <label className="flex min-w-64 flex-col gap-1 font-semibold">
           Second person present
-          <select value={second} onChange={(e) => setSecond(e.target.value)} className="min-h-12 rounded-xl border-2 border-line bg-bg px-3 text-lg">
+          <select
+            value={second}
+            onChange={(e) => setSecond(e.target.value)}
+            className="min-h-12 rounded-xl border-2 border-line bg-bg px-3 text-lg"
+          >
             <option value="">Choose…</option>
             {others.map((u) => (
               <option key={u.id} value={u.id}>
@@ -364,7 +476,17 @@ function CheckAction({ step, s, ctx }: { step: Extract<TemplateStep, { kind: "ch
   );
 }
 
-function ReadingAction({ step, ctx, correcting, onDone }: { step: Extract<TemplateStep, { kind: "reading" }>; ctx: Ctx; correcting?: StoredLocalEntry; onDone?: () => void }) {
+function ReadingAction({
+  step,
+  ctx,
+  correcting,
+  onDone,
+}: {
+  step: Extract<TemplateStep, { kind: "reading" }>;
+  ctx: Ctx;
+  correcting?: StoredLocalEntry;
+  onDone?: () => void;
+}) {
   const cryostat = useCryostat(ctx.cryostatId);
   const [value, setValue] = useState("");
   const [comment, setComment] = useState("");
@@ -378,7 +500,8 @@ function ReadingAction({ step, ctx, correcting, onDone }: { step: Extract<Templa
     <div className="grid gap-4 md:grid-cols-[1fr_minmax(16rem,22rem)]">
       <div className="flex flex-col gap-3">
         <label htmlFor={id} className="font-semibold">
-          {correcting ? "Corrected value" : "Value"} in {step.unit} <span className="font-normal text-muted">(acceptable: {describeRange(step)})</span>
+          {correcting ? "Corrected value" : "Value"} in {step.unit}{" "}
+          <span className="font-normal text-muted">(acceptable: {describeRange(step)})</span>
         </label>
         <div className="flex items-center gap-2">
           <input
@@ -386,15 +509,23 @@ function ReadingAction({ step, ctx, correcting, onDone }: { step: Extract<Templa
             inputMode="decimal"
             autoComplete="off"
             value={value}
-            onChange={(e) => setValue(e.target.value.replace(",", ".").replace(/[^0-9.\-]/g, ""))}
+            onChange={(e) => setValue(e.target.value.replace(",", ".").replace(/[^0-9.-]/g, ""))}
             aria-invalid={out !== null}
             aria-describedby={`${id}-check ${id}-derived`}
             className={`num w-full rounded-xl border-2 bg-bg px-4 py-3 text-4xl ${out ? "border-warn" : "border-line"}`}
           />
           <span className="num text-2xl font-semibold">{step.unit}</span>
         </div>
-        <p id={`${id}-check`} role="status" className={`text-lg font-semibold ${out ? "text-warn" : n !== null ? "text-ok" : "text-muted"}`}>
-          {n === null ? "Type the value." : out ? `Out of range: ${out === "low" ? "below" : "above"} ${describeRange(step)}.` : "Within range."}
+        <p
+          id={`${id}-check`}
+          role="status"
+          className={`text-lg font-semibold ${out ? "text-warn" : n !== null ? "text-ok" : "text-muted"}`}
+        >
+          {n === null
+            ? "Type the value."
+            : out
+              ? `Out of range: ${out === "low" ? "below" : "above"} ${describeRange(step)}.`
+              : "Within range."}
         </p>
         {out && step.ifOutOfRange && (
           <Notice tone="warn" title="What to do">
@@ -402,15 +533,32 @@ function ReadingAction({ step, ctx, correcting, onDone }: { step: Extract<Templa
           </Notice>
         )}
         {/* Derived figure from the maths engineer's component (e.g. still pressure → temperature). */}
-        {cryostat && <DerivedValue id={`${id}-derived`} cryostat={cryostat} quantity={step.quantity} unit={step.unit} value={value} />}
+        {cryostat && (
+          <DerivedValue
+            id={`${id}-derived`}
+            cryostat={cryostat}
+            quantity={step.quantity}
+            unit={step.unit}
+            value={value}
+          />
+        )}
         <label className="flex flex-col gap-1 font-semibold">
           Comment{out ? " (required: what was done)" : " (optional)"}
-          <textarea value={comment} onChange={(e) => setComment(e.target.value)} rows={2} className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg" />
+          <textarea
+            value={comment}
+            onChange={(e) => setComment(e.target.value)}
+            rows={2}
+            className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg"
+          />
         </label>
         {correcting && (
           <label className="flex flex-col gap-1 font-semibold">
             Reason for the correction (required)
-            <input value={reason} onChange={(e) => setReason(e.target.value)} className="min-h-12 rounded-xl border-2 border-line bg-bg px-3 text-lg" />
+            <input
+              value={reason}
+              onChange={(e) => setReason(e.target.value)}
+              className="min-h-12 rounded-xl border-2 border-line bg-bg px-3 text-lg"
+            />
           </label>
         )}
         <Button
@@ -423,7 +571,15 @@ function ReadingAction({ step, ctx, correcting, onDone }: { step: Extract<Templa
             try {
               await writeStep(
                 ctx,
-                { stepId: step.id, kind: "reading", quantity: step.quantity, value: n, unit: step.unit, outOfRange: out !== null, ...(comment.trim() ? { comment: comment.trim() } : {}) },
+                {
+                  stepId: step.id,
+                  kind: "reading",
+                  quantity: step.quantity,
+                  value: n,
+                  unit: step.unit,
+                  outOfRange: out !== null,
+                  ...(comment.trim() ? { comment: comment.trim() } : {}),
+                },
                 correcting ? { supersedes: correcting.id, reason: reason.trim() } : {},
               );
               setValue("");
@@ -471,7 +627,13 @@ function NoteAction({ step, ctx }: { step: Extract<TemplateStep, { kind: "note" 
       <label htmlFor={`${step.id}-note`} className="font-semibold">
         Note
       </label>
-      <textarea id={`${step.id}-note`} value={text} onChange={(e) => setText(e.target.value)} rows={3} className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg" />
+      <textarea
+        id={`${step.id}-note`}
+        value={text}
+        onChange={(e) => setText(e.target.value)}
+        rows={3}
+        className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg"
+      />
       <Button
         variant="primary"
         className="min-h-14 self-start text-lg"
@@ -512,7 +674,10 @@ function PhotoAction({ step, ctx }: { step: Extract<TemplateStep, { kind: "photo
           if (!file) return;
           setBusy(true);
           try {
-            const attachmentId = await putAttachment(file, { fileName: file.name || "photo.jpg", mime: file.type || "image/jpeg" });
+            const attachmentId = await putAttachment(file, {
+              fileName: file.name || "photo.jpg",
+              mime: file.type || "image/jpeg",
+            });
             await writeStep(ctx, { stepId: step.id, kind: "photo", attachmentId });
           } catch (err) {
             ctx.onError(errorText(err));
@@ -530,7 +695,11 @@ function CautionAction({ step, ctx }: { step: Extract<TemplateStep, { kind: "cau
   const [busy, setBusy] = useState(false);
   return (
     <div className="flex flex-col gap-3">
-      <Caution topic={cautionTopicFor(ctx.view.template.key, step.topic)} cryostatId={ctx.cryostatId} cryostatName={cryostat?.name ?? ctx.cryostatId} />
+      <Caution
+        topic={cautionTopicFor(ctx.view.template.key, step.topic)}
+        cryostatId={ctx.cryostatId}
+        cryostatName={cryostat?.name ?? ctx.cryostatId}
+      />
       <Button
         variant="primary"
         className="min-h-16 self-start text-xl"
@@ -557,12 +726,15 @@ function HoldAction({ step, s, ctx }: { step: Extract<TemplateStep, { kind: "hol
   if (ctx.me.role !== step.role) {
     return (
       <Notice tone="accent" title={`Needs a ${ROLE_LABEL[step.role as Role].toLowerCase()}'s signature`}>
-        A {ROLE_LABEL[step.role as Role].toLowerCase()} signs this hold point on their own tablet, or here after signing in. The steps after it wait until then.
+        A {ROLE_LABEL[step.role as Role].toLowerCase()} signs this hold point on their own tablet, or here after signing
+        in. The steps after it wait until then.
       </Notice>
     );
   }
   // A hold record written earlier whose signature did not go through is signed as it is.
-  const unsigned = s.current.find((e) => !ctx.view.state.signatures.some((g) => g.valid && g.signedEntryId === e.id)) as StoredLocalEntry | undefined;
+  const unsigned = s.current.find((e) => !ctx.view.state.signatures.some((g) => g.valid && g.signedEntryId === e.id)) as
+    | StoredLocalEntry
+    | undefined;
   return (
     <>
       <Button variant="primary" className="min-h-16 self-start text-xl" onClick={() => setSigning(true)}>
@@ -594,27 +766,47 @@ function RunEnd({ ctx, state }: { ctx: Ctx; state: RunState }) {
   return (
     <Panel className="no-print flex flex-col gap-3">
       <div className="flex flex-wrap gap-2">
-        <Button variant="primary" className="min-h-16 flex-1 text-xl" disabled={!state.canComplete || !mayComplete} onClick={() => setSigning(true)}>
+        <Button
+          variant="primary"
+          className="min-h-16 flex-1 text-xl"
+          disabled={!state.canComplete || !mayComplete}
+          onClick={() => setSigning(true)}
+        >
           ✍ Complete and sign
         </Button>
         <Button variant="danger" className="min-h-16 text-xl" onClick={() => setAborting((a) => !a)}>
           Abort run…
         </Button>
       </div>
-      {!state.canComplete && <p className="text-muted">Complete becomes possible when every required step is done and every hold point is signed.</p>}
+      {!state.canComplete && (
+        <p className="text-muted">
+          Complete becomes possible when every required step is done and every hold point is signed.
+        </p>
+      )}
       {aborting && (
         <div className="flex flex-col gap-2">
           <label htmlFor="abort-reason" className="font-semibold">
             Why is the run aborted? (required)
           </label>
-          <textarea id="abort-reason" value={reason} onChange={(e) => setReason(e.target.value)} rows={2} className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg" />
+          <textarea
+            id="abort-reason"
+            value={reason}
+            onChange={(e) => setReason(e.target.value)}
+            rows={2}
+            className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg"
+          />
           <Button
             variant="danger"
             className="self-start"
             disabled={!reason.trim()}
             onClick={async () => {
               try {
-                await recordEntry({ cryostatId: ctx.cryostatId, runId: state.runId, kind: "run.abort", payload: { reason: reason.trim() } });
+                await recordEntry({
+                  cryostatId: ctx.cryostatId,
+                  runId: state.runId,
+                  kind: "run.abort",
+                  payload: { reason: reason.trim() },
+                });
                 setAborting(false);
               } catch (e) {
                 ctx.onError(errorText(e));
@@ -632,11 +824,19 @@ function RunEnd({ ctx, state }: { ctx: Ctx; state: RunState }) {
           title="Complete the procedure"
           onClose={() => setSigning(false)}
           onSign={async (c) => {
-            const done = await recordEntry({ cryostatId: ctx.cryostatId, runId: state.runId, kind: "run.complete", payload: {} });
+            const done = await recordEntry({
+              cryostatId: ctx.cryostatId,
+              runId: state.runId,
+              kind: "run.complete",
+              payload: {},
+            });
             await writeSignature(done, ctx.me, "performed", c);
           }}
         >
-          <p>I performed this procedure as recorded: {state.progress.done} of {state.progress.required} required steps done.</p>
+          <p>
+            I performed this procedure as recorded: {state.progress.done} of {state.progress.required} required steps
+            done.
+          </p>
         </SignDialog>
       )}
     </Panel>
@@ -653,7 +853,13 @@ function SignCompletion({ ctx, entry }: { ctx: Ctx; entry: StoredLocalEntry }) {
         ✍ Sign the completion
       </Button>
       {signing && (
-        <SignDialog me={ctx.me} meaning="performed" title="Sign the completion" onClose={() => setSigning(false)} onSign={async (c) => void (await writeSignature(entry, ctx.me, "performed", c))}>
+        <SignDialog
+          me={ctx.me}
+          meaning="performed"
+          title="Sign the completion"
+          onClose={() => setSigning(false)}
+          onSign={async (c) => void (await writeSignature(entry, ctx.me, "performed", c))}
+        >
           <p>I performed this procedure as recorded.</p>
         </SignDialog>
       )}

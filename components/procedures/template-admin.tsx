@@ -4,17 +4,27 @@
 // already started keep the version they pinned.
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useCallback, useEffect, useState } from "react";
-import { useFieldArray, useForm, useWatch, type Control, type UseFormRegister } from "react-hook-form";
+import { type Control, type UseFormRegister, useFieldArray, useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
-import { useMe } from "@/components/shell/use-me";
 import { NotAllowed } from "@/components/shell/not-allowed";
+import { useMe } from "@/components/shell/use-me";
 import { Button } from "@/components/ui/button";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
 import { templateInputSchema } from "@/lib/schemas/run";
 import { UNITS } from "@/lib/schemas/units";
 
-type Template = { id: string; key: string; version: number; title: string; purpose: string; cryostatKinds: string[]; steps: unknown[]; createdAt: string; createdBy: string };
+type Template = {
+  id: string;
+  key: string;
+  version: number;
+  title: string;
+  purpose: string;
+  cryostatKinds: string[];
+  steps: unknown[];
+  createdAt: string;
+  createdBy: string;
+};
 type FormIn = z.input<typeof templateInputSchema>;
 type FormOut = z.output<typeof templateInputSchema>;
 
@@ -27,7 +37,8 @@ const STEP_KINDS = ["check", "reading", "hold", "note", "photo", "caution"] as c
 const ROLES = ["technician", "researcher", "safety_officer", "facility_admin"] as const;
 const TOPICS = ["cryogen", "oxygen", "pressure", "transfer_line", "magnet"] as const;
 const INPUT = "min-h-12 w-full rounded-xl border-2 border-line bg-bg px-3 text-lg";
-const optionalNumber = (v: unknown) => (v === "" || v === null || v === undefined || Number.isNaN(v) ? undefined : Number(v));
+const optionalNumber = (v: unknown) =>
+  v === "" || v === null || v === undefined || Number.isNaN(v) ? undefined : Number(v);
 
 export function TemplateAdmin() {
   const { me } = useMe();
@@ -42,7 +53,9 @@ export function TemplateAdmin() {
       if (!r.ok) throw new Error(body.error?.message ?? `The server answered ${r.status}.`);
       setList(body.templates ?? []);
     } catch (e) {
-      setError((e as Error).message.includes("fetch") ? "No connection: templates are edited online." : (e as Error).message);
+      setError(
+        (e as Error).message.includes("fetch") ? "No connection: templates are edited online." : (e as Error).message,
+      );
     }
   }, []);
   useEffect(() => {
@@ -50,9 +63,23 @@ export function TemplateAdmin() {
   }, [load]);
 
   if (me && me.role !== "facility_admin") return <NotAllowed need="facility admin" />;
-  if (error) return <Notice tone="danger" title="Could not load the templates" role="alert">{error}</Notice>;
+  if (error)
+    return (
+      <Notice tone="danger" title="Could not load the templates" role="alert">
+        {error}
+      </Notice>
+    );
   if (!list) return <Loading label="Loading templates…" />;
-  if (editing) return <TemplateEditor base={editing.base} onDone={() => { setEditing(null); void load(); }} />;
+  if (editing)
+    return (
+      <TemplateEditor
+        base={editing.base}
+        onDone={() => {
+          setEditing(null);
+          void load();
+        }}
+      />
+    );
 
   const keys = [...new Set(list.map((t) => t.key))];
   return (
@@ -70,8 +97,14 @@ export function TemplateAdmin() {
                 {latest.title}
               </h2>
               <Tag tone="accent">version {latest.version}</Tag>
-              <span className="text-sm text-muted">{latest.steps.length} steps · {latest.cryostatKinds.join(", ").replaceAll("_", " ")}</span>
-              <Button className="ml-auto" onClick={() => setEditing({ base: latest })} aria-label={`Edit ${latest.title}`}>
+              <span className="text-sm text-muted">
+                {latest.steps.length} steps · {latest.cryostatKinds.join(", ").replaceAll("_", " ")}
+              </span>
+              <Button
+                className="ml-auto"
+                onClick={() => setEditing({ base: latest })}
+                aria-label={`Edit ${latest.title}`}
+              >
                 Edit
               </Button>
             </div>
@@ -91,8 +124,20 @@ function TemplateEditor({ base, onDone }: { base: Template | null; onDone: () =>
   const { register, control, handleSubmit, formState } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(templateInputSchema),
     defaultValues: base
-      ? ({ key: base.key, title: base.title, purpose: base.purpose, cryostatKinds: base.cryostatKinds, steps: base.steps } as FormIn)
-      : { key: "", title: "", purpose: "", cryostatKinds: [], steps: [{ id: "step-1", kind: "check", text: "", secondPerson: false }] },
+      ? ({
+          key: base.key,
+          title: base.title,
+          purpose: base.purpose,
+          cryostatKinds: base.cryostatKinds,
+          steps: base.steps,
+        } as FormIn)
+      : {
+          key: "",
+          title: "",
+          purpose: "",
+          cryostatKinds: [],
+          steps: [{ id: "step-1", kind: "check", text: "", secondPerson: false }],
+        },
   });
   const steps = useFieldArray({ control, name: "steps" });
   const errors = formState.errors;
@@ -100,9 +145,16 @@ function TemplateEditor({ base, onDone }: { base: Template | null; onDone: () =>
   const save = handleSubmit(async (data) => {
     setServerError(null);
     try {
-      const r = await fetch("/api/templates", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ basedOnVersion: base?.version ?? null, template: data }) });
+      const r = await fetch("/api/templates", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ basedOnVersion: base?.version ?? null, template: data }),
+      });
       const body = (await r.json().catch(() => ({}))) as { error?: { message: string; details?: string[] } };
-      if (!r.ok) throw Object.assign(new Error(body.error?.message ?? `The server answered ${r.status}.`), { details: body.error?.details ?? [] });
+      if (!r.ok)
+        throw Object.assign(new Error(body.error?.message ?? `The server answered ${r.status}.`), {
+          details: body.error?.details ?? [],
+        });
       onDone();
     } catch (e) {
       setServerError({ message: (e as Error).message, details: (e as { details?: string[] }).details ?? [] });
@@ -112,7 +164,9 @@ function TemplateEditor({ base, onDone }: { base: Template | null; onDone: () =>
   return (
     <form onSubmit={(e) => void save(e)} className="flex flex-col gap-4" aria-label="Procedure template">
       <Notice tone="neutral">
-        {base ? `Saving makes version ${base.version + 1} of "${base.key}". Runs already started keep the version they began with.` : "A new procedure starts at version 1."}
+        {base
+          ? `Saving makes version ${base.version + 1} of "${base.key}". Runs already started keep the version they began with.`
+          : "A new procedure starts at version 1."}
       </Notice>
       <Panel className="grid gap-3 md:grid-cols-2">
         <label className="flex flex-col gap-1 font-semibold">
@@ -127,7 +181,11 @@ function TemplateEditor({ base, onDone }: { base: Template | null; onDone: () =>
         </label>
         <label className="flex flex-col gap-1 font-semibold md:col-span-2">
           Purpose
-          <textarea {...register("purpose")} rows={2} className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg" />
+          <textarea
+            {...register("purpose")}
+            rows={2}
+            className="rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg"
+          />
           {errors.purpose && <span className="text-sm text-danger">{errors.purpose.message}</span>}
         </label>
         <fieldset className="md:col-span-2">
@@ -148,23 +206,48 @@ function TemplateEditor({ base, onDone }: { base: Template | null; onDone: () =>
             <Panel className="flex flex-col gap-2">
               <div className="flex flex-wrap items-center gap-2">
                 <span className="num text-lg font-bold">{i + 1}.</span>
-                <Button onClick={() => i > 0 && steps.move(i, i - 1)} disabled={i === 0} aria-label={`Move step ${i + 1} up`}>
+                <Button
+                  onClick={() => i > 0 && steps.move(i, i - 1)}
+                  disabled={i === 0}
+                  aria-label={`Move step ${i + 1} up`}
+                >
                   ↑
                 </Button>
-                <Button onClick={() => i < steps.fields.length - 1 && steps.move(i, i + 1)} disabled={i === steps.fields.length - 1} aria-label={`Move step ${i + 1} down`}>
+                <Button
+                  onClick={() => i < steps.fields.length - 1 && steps.move(i, i + 1)}
+                  disabled={i === steps.fields.length - 1}
+                  aria-label={`Move step ${i + 1} down`}
+                >
                   ↓
                 </Button>
-                <Button variant="ghost" className="ml-auto text-danger" onClick={() => steps.remove(i)} aria-label={`Remove step ${i + 1}`}>
+                <Button
+                  variant="ghost"
+                  className="ml-auto text-danger"
+                  onClick={() => steps.remove(i)}
+                  aria-label={`Remove step ${i + 1}`}
+                >
                   Remove
                 </Button>
               </div>
-              <StepFields i={i} register={register} control={control} errors={(errors.steps as unknown as Record<number, Record<string, { message?: string }>> | undefined)?.[i]} />
+              <StepFields
+                i={i}
+                register={register}
+                control={control}
+                errors={
+                  (errors.steps as unknown as Record<number, Record<string, { message?: string }>> | undefined)?.[i]
+                }
+              />
             </Panel>
           </li>
         ))}
       </ol>
       {errors.steps?.message && <p className="text-danger">{errors.steps.message}</p>}
-      <Button onClick={() => steps.append({ id: `step-${steps.fields.length + 1}`, kind: "check", text: "", secondPerson: false })} className="self-start">
+      <Button
+        onClick={() =>
+          steps.append({ id: `step-${steps.fields.length + 1}`, kind: "check", text: "", secondPerson: false })
+        }
+        className="self-start"
+      >
         + Add a step
       </Button>
       {serverError && (
@@ -188,11 +271,23 @@ function TemplateEditor({ base, onDone }: { base: Template | null; onDone: () =>
   );
 }
 
-function StepFields({ i, register, control, errors }: { i: number; register: UseFormRegister<FormIn>; control: Control<FormIn>; errors?: Record<string, { message?: string }> }) {
+function StepFields({
+  i,
+  register,
+  control,
+  errors,
+}: {
+  i: number;
+  register: UseFormRegister<FormIn>;
+  control: Control<FormIn>;
+  errors?: Record<string, { message?: string }>;
+}) {
   const kind = useWatch({ control, name: `steps.${i}.kind` });
-  const err = (k: string) => (errors?.[k]?.message ? <span className="text-sm text-danger">{errors[k]!.message}</span> : null);
+  const err = (k: string) =>
+    errors?.[k]?.message ? <span className="text-sm text-danger">{errors[k]!.message}</span> : null;
   // The step is a union by kind; field names are checked by the schema on save.
-  const r = (name: string, opts?: Record<string, unknown>) => register(`steps.${i}.${name}` as `steps.${number}.text`, opts as Parameters<UseFormRegister<FormIn>>[1] as never);
+  const r = (name: string, opts?: Record<string, unknown>) =>
+    register(`steps.${i}.${name}` as `steps.${number}.text`, opts as Parameters<UseFormRegister<FormIn>>[1] as never);
   return (
     <div className="grid gap-3 md:grid-cols-3">
       <label className="flex flex-col gap-1 font-semibold">

@@ -2,12 +2,18 @@
 // A run as the tablet sees it: its entries from the tablet store (unsent ones included, so a tick
 // shows at once), its pinned template, and the state derived from them.
 import { useMemo } from "react";
-import { useEntries, useEntry, useTemplates, type LocalTemplate } from "@/lib/local/hooks";
+import { type LocalTemplate, useEntries, useEntry, useTemplates } from "@/lib/local/hooks";
 import type { StoredLocalEntry } from "@/lib/local/record";
 import { deriveRun, type RunState } from "@/lib/procedures/state";
 import type { RunStartPayload } from "@/lib/schemas/run";
 
-export type RunView = { state: RunState; template: LocalTemplate; start: StoredLocalEntry; entries: StoredLocalEntry[]; rejected: StoredLocalEntry[] };
+export type RunView = {
+  state: RunState;
+  template: LocalTemplate;
+  start: StoredLocalEntry;
+  entries: StoredLocalEntry[];
+  rejected: StoredLocalEntry[];
+};
 
 /** undefined: loading; null: this tablet does not know the run (or its template) yet. */
 export function useRun(runId: string | undefined): RunView | null | undefined {
@@ -24,6 +30,12 @@ export function useRun(runId: string | undefined): RunView | null | undefined {
     const all = [start, ...list.filter((e) => e.id !== start.id)];
     // A refused entry is shown with its reason but never counts as done.
     const kept = all.filter((e) => e.sync !== "rejected");
-    return { state: deriveRun(runId, template, kept), template, start, entries: all, rejected: all.filter((e) => e.sync === "rejected") };
+    return {
+      state: deriveRun(runId, template, kept),
+      template,
+      start,
+      entries: all,
+      rejected: all.filter((e) => e.sync === "rejected"),
+    };
   }, [runId, start, list, templates]);
 }

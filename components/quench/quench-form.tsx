@@ -6,7 +6,15 @@ import { useMemo, useState } from "react";
 import { Caution } from "@/components/safety/caution";
 import { useFacilityRules } from "@/components/safety/use-facility-rules";
 import { Button } from "@/components/ui/button";
-import { ChoiceButtons, FieldRow, INPUT_CLASS, NumberField, typedNumber, OptionList, ProblemNotice } from "@/components/ui/form";
+import {
+  ChoiceButtons,
+  FieldRow,
+  INPUT_CLASS,
+  NumberField,
+  OptionList,
+  ProblemNotice,
+  typedNumber,
+} from "@/components/ui/form";
 import { Panel } from "@/components/ui/panel";
 import { quenchFigures } from "@/lib/audit/figures";
 import { trim } from "@/lib/format";
@@ -32,7 +40,18 @@ export function QuenchForm() {
   const list = mode === "quench" ? (cryostats ?? []).filter((c) => c.config.magnet) : (cryostats ?? []);
   const cid = list.some((c) => c.id === cryostatId) ? cryostatId : (list[0]?.id ?? "");
   const cryostat = list.find((c) => c.id === cid);
-  const [f, setF] = useState({ at: localNow(), fieldT: "", currentA: "", levelBefore: "", levelAfter: "", lost: "", oxygen: "", actions: "", title: "", description: "" });
+  const [f, setF] = useState({
+    at: localNow(),
+    fieldT: "",
+    currentA: "",
+    levelBefore: "",
+    levelAfter: "",
+    lost: "",
+    oxygen: "",
+    actions: "",
+    title: "",
+    description: "",
+  });
   const set = (k: keyof typeof f, v: string) => setF((x) => ({ ...x, [k]: v }));
   const [msg, setMsg] = useState<{ tone: "ok" | "danger"; title: string; problems?: string[] } | null>(null);
 
@@ -40,8 +59,18 @@ export function QuenchForm() {
     if (mode !== "quench" || n(f.fieldT) === undefined) return null;
     try {
       return quenchFigures(
-        { fieldT: n(f.fieldT)!, currentA: n(f.currentA), levelBeforePercent: n(f.levelBefore), levelAfterPercent: n(f.levelAfter), heliumLostLitres: n(f.lost) },
-        { calibration: cryostat?.config.reservoir?.calibration, inductanceH: cryostat?.config.magnet?.inductanceH, roomFreeVolumeM3: rules?.values.roomFreeVolumeM3 },
+        {
+          fieldT: n(f.fieldT)!,
+          currentA: n(f.currentA),
+          levelBeforePercent: n(f.levelBefore),
+          levelAfterPercent: n(f.levelAfter),
+          heliumLostLitres: n(f.lost),
+        },
+        {
+          calibration: cryostat?.config.reservoir?.calibration,
+          inductanceH: cryostat?.config.magnet?.inductanceH,
+          roomFreeVolumeM3: rules?.values.roomFreeVolumeM3,
+        },
       );
     } catch {
       return null;
@@ -52,7 +81,11 @@ export function QuenchForm() {
     setMsg(null);
     try {
       if (mode === "quench") {
-        const lost = n(f.lost) ?? (figures?.heliumLostLitres !== null && figures?.heliumLostBasis === "levels" ? Number(figures.heliumLostLitres.toFixed(1)) : undefined);
+        const lost =
+          n(f.lost) ??
+          (figures?.heliumLostLitres !== null && figures?.heliumLostBasis === "levels"
+            ? Number(figures.heliumLostLitres.toFixed(1))
+            : undefined);
         await recordEntry({
           cryostatId: cid,
           kind: "quench",
@@ -68,20 +101,35 @@ export function QuenchForm() {
           } as never,
         });
       } else {
-        await recordEntry({ cryostatId: cid, kind: "incident", payload: { title: f.title, description: f.description, actions: f.actions } });
+        await recordEntry({
+          cryostatId: cid,
+          kind: "incident",
+          payload: { title: f.title, description: f.description, actions: f.actions },
+        });
       }
-      setMsg({ tone: "ok", title: `${mode === "quench" ? "Quench" : "Incident"} saved on this tablet. It goes to the safety officer with the next sync.` });
+      setMsg({
+        tone: "ok",
+        title: `${mode === "quench" ? "Quench" : "Incident"} saved on this tablet. It goes to the safety officer with the next sync.`,
+      });
     } catch (e) {
       setMsg({ tone: "danger", title: (e as Error).message, problems: e instanceof LocalWriteError ? e.problems : [] });
     }
   }
 
-  const field = (id: keyof typeof f, label: string) => <NumberField id={`q-${id}`} label={label} value={f[id]} onChange={(v) => set(id, v)} />;
+  const field = (id: keyof typeof f, label: string) => (
+    <NumberField id={`q-${id}`} label={label} value={f[id]} onChange={(v) => set(id, v)} />
+  );
 
   return (
     <div className="grid gap-4 lg:grid-cols-[1fr_24rem]">
       <Panel>
-        <ChoiceButtons className="mb-3 flex gap-2" label="What happened" options={MODES} value={mode} onChange={setMode} />
+        <ChoiceButtons
+          className="mb-3 flex gap-2"
+          label="What happened"
+          options={MODES}
+          value={mode}
+          onChange={setMode}
+        />
         <form className="flex flex-col gap-3" noValidate onSubmit={(e) => (e.preventDefault(), void save())}>
           <FieldRow id="q-cryostat" label="Cryostat">
             <select id="q-cryostat" className={INPUT_CLASS} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
@@ -91,7 +139,13 @@ export function QuenchForm() {
           {mode === "quench" ? (
             <>
               <FieldRow id="q-at" label="Time of the quench">
-                <input id="q-at" type="datetime-local" className={INPUT_CLASS} value={f.at} onChange={(e) => set("at", e.target.value)} />
+                <input
+                  id="q-at"
+                  type="datetime-local"
+                  className={INPUT_CLASS}
+                  value={f.at}
+                  onChange={(e) => set("at", e.target.value)}
+                />
               </FieldRow>
               <div className="grid gap-3 sm:grid-cols-2">
                 {field("fieldT", "Field at quench (T)")}
@@ -105,15 +159,33 @@ export function QuenchForm() {
           ) : (
             <>
               <FieldRow id="q-title" label="What happened (short title)">
-                <input id="q-title" inputMode="text" className={INPUT_CLASS} value={f.title} onChange={(e) => set("title", e.target.value)} />
+                <input
+                  id="q-title"
+                  inputMode="text"
+                  className={INPUT_CLASS}
+                  value={f.title}
+                  onChange={(e) => set("title", e.target.value)}
+                />
               </FieldRow>
               <FieldRow id="q-description" label="Description">
-                <textarea id="q-description" rows={3} className={INPUT_CLASS} value={f.description} onChange={(e) => set("description", e.target.value)} />
+                <textarea
+                  id="q-description"
+                  rows={3}
+                  className={INPUT_CLASS}
+                  value={f.description}
+                  onChange={(e) => set("description", e.target.value)}
+                />
               </FieldRow>
             </>
           )}
           <FieldRow id="q-actions" label="Actions taken">
-            <textarea id="q-actions" rows={3} className={INPUT_CLASS} value={f.actions} onChange={(e) => set("actions", e.target.value)} />
+            <textarea
+              id="q-actions"
+              rows={3}
+              className={INPUT_CLASS}
+              value={f.actions}
+              onChange={(e) => set("actions", e.target.value)}
+            />
           </FieldRow>
           {msg && <ProblemNotice tone={msg.tone} title={msg.title} problems={msg.problems} />}
           <Button type="submit" variant="primary" disabled={!cid}>
@@ -129,7 +201,11 @@ export function QuenchForm() {
               <p data-figure="helium-lost">
                 {heliumLostText(
                   figures.heliumLostLitres,
-                  figures.heliumLostBasis === "levels" ? "from the level before and after" : figures.heliumLostBasis === "recorded" ? "as entered" : "upper bound from the stored energy ½ L I²",
+                  figures.heliumLostBasis === "levels"
+                    ? "from the level before and after"
+                    : figures.heliumLostBasis === "recorded"
+                      ? "as entered"
+                      : "upper bound from the stored energy ½ L I²",
                 )}
               </p>
             ) : (
@@ -142,10 +218,18 @@ export function QuenchForm() {
             )}
             {figures?.oxygenEstimateFraction != null && rules && (
               <p data-figure="oxygen-estimate" className="mt-1">
-                {oxygenEstimateText(figures.oxygenEstimateFraction, rules.values, `${trim(figures.gasM3 ?? 0)} m³ mixed into the room's ${rules.values.roomFreeVolumeM3} m³`)}
+                {oxygenEstimateText(
+                  figures.oxygenEstimateFraction,
+                  rules.values,
+                  `${trim(figures.gasM3 ?? 0)} m³ mixed into the room's ${rules.values.roomFreeVolumeM3} m³`,
+                )}
               </p>
             )}
-            {figures && figures.gasM3 != null && !rules?.values.roomFreeVolumeM3 && <p className="mt-1 text-muted">No oxygen estimate: the room's free volume is not set in the facility rules.</p>}
+            {figures && figures.gasM3 != null && !rules?.values.roomFreeVolumeM3 && (
+              <p className="mt-1 text-muted">
+                No oxygen estimate: the room's free volume is not set in the facility rules.
+              </p>
+            )}
           </Panel>
         )}
         <Caution topic="quench" cryostatId={cid || undefined} cryostatName={cryostat?.name} />

@@ -4,7 +4,7 @@
 import Link from "next/link";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { formatTemperature, formatWhen, kindLabel, stateLabel, trim } from "@/lib/format";
-import { useCryostats, useEntries, useSyncSummary, useUserNames, type LocalCryostat } from "@/lib/local/hooks";
+import { type LocalCryostat, useCryostats, useEntries, useSyncSummary, useUserNames } from "@/lib/local/hooks";
 import { overviewOf } from "@/lib/local/overview";
 
 const STATE_TONE = { cold: "ok", cooling: "accent", warming: "warn", warm: "neutral", maintenance: "neutral" } as const;
@@ -36,7 +36,15 @@ export function RoomOverview() {
   );
 }
 
-function CryostatCard({ c, list, names }: { c: LocalCryostat; list: Parameters<typeof overviewOf>[0]; names: Record<string, string> }) {
+function CryostatCard({
+  c,
+  list,
+  names,
+}: {
+  c: LocalCryostat;
+  list: Parameters<typeof overviewOf>[0];
+  names: Record<string, string>;
+}) {
   const o = overviewOf(
     list,
     c.config.stages.map((s) => s.key),
@@ -71,15 +79,25 @@ function CryostatCard({ c, list, names }: { c: LocalCryostat; list: Parameters<t
       )}
       <dl className="grid grid-cols-2 gap-2">
         {c.config.reservoir && (
-          <Fact label="Helium level" figure warn={o.helium !== null && minimum !== undefined && o.helium.percent < minimum}>
+          <Fact
+            label="Helium level"
+            figure
+            warn={o.helium !== null && minimum !== undefined && o.helium.percent < minimum}
+          >
             {o.helium ? `${trim(o.helium.percent)} %` : "—"}
-            {minimum !== undefined && <span className="block font-sans text-base font-normal text-muted">minimum {minimum} %</span>}
+            {minimum !== undefined && (
+              <span className="block font-sans text-base font-normal text-muted">minimum {minimum} %</span>
+            )}
           </Fact>
         )}
         {c.config.magnet && (
           <Fact label="Field" figure>
             {o.field ? `${trim(o.field.fieldT)} T` : "—"}
-            {o.field && <span className="block font-sans text-base font-normal text-muted">{o.field.persistent ? "persistent mode" : "driven by supply"}</span>}
+            {o.field && (
+              <span className="block font-sans text-base font-normal text-muted">
+                {o.field.persistent ? "persistent mode" : "driven by supply"}
+              </span>
+            )}
           </Fact>
         )}
         <Fact label="On shift">{o.onShift ? (names[o.onShift.userId] ?? o.onShift.userId) : "—"}</Fact>
@@ -97,7 +115,10 @@ function CryostatCard({ c, list, names }: { c: LocalCryostat; list: Parameters<t
           {o.pending} {o.pending === 1 ? "entry" : "entries"} on this tablet not sent yet
         </p>
       )}
-      <Link href={`/cryostats/${c.id}`} className="mt-auto flex min-h-12 items-center justify-center rounded-xl border-2 border-accent font-semibold text-accent hover:bg-sunk">
+      <Link
+        href={`/cryostats/${c.id}`}
+        className="mt-auto flex min-h-12 items-center justify-center rounded-xl border-2 border-accent font-semibold text-accent hover:bg-sunk"
+      >
         Open {c.name}
       </Link>
     </Panel>
@@ -105,7 +126,17 @@ function CryostatCard({ c, list, names }: { c: LocalCryostat; list: Parameters<t
 }
 
 /** One fact of a card; `figure` sets the value in the number font (names and words stay in the text font). */
-function Fact({ label, children, warn = false, figure = false }: { label: string; children: React.ReactNode; warn?: boolean; figure?: boolean }) {
+function Fact({
+  label,
+  children,
+  warn = false,
+  figure = false,
+}: {
+  label: string;
+  children: React.ReactNode;
+  warn?: boolean;
+  figure?: boolean;
+}) {
   return (
     <div className={`rounded-xl bg-sunk px-3 py-2 ${warn ? "outline-2 outline-danger" : ""}`}>
       <dt className="text-base text-muted">{label}</dt>

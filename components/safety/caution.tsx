@@ -3,7 +3,7 @@
 // screen, in plain words, with the facility's own values (oxygen alarm level, PPE, two-person
 // rule, ramp limit, contacts) beside them and a link to the facility's rules document.
 import { useId, useState } from "react";
-import { cautionsFor, facilityFacts, type CautionContext, type CautionTopic } from "@/lib/safety/cautions";
+import { type CautionContext, type CautionTopic, cautionsFor, facilityFacts } from "@/lib/safety/cautions";
 import { useFacilityRules } from "./use-facility-rules";
 
 export type CautionProps = CautionContext & {
@@ -23,7 +23,11 @@ export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: 
   const sections = values ? cautionsFor(topic, values, ctx) : [];
   const facts = values ? facilityFacts(values, ctx) : null;
   return (
-    <aside aria-labelledby={`${id}-title`} data-caution={topic} className={`rounded-2xl border-2 border-warn bg-panel p-4 ${className}`}>
+    <aside
+      aria-labelledby={`${id}-title`}
+      data-caution={topic}
+      className={`rounded-2xl border-2 border-warn bg-panel p-4 ${className}`}
+    >
       <div className="flex flex-wrap items-center justify-between gap-2">
         <h2 id={`${id}-title`} className="text-lg font-bold text-warn">
           <span aria-hidden>⚠ </span>Safety: {TOPIC_TITLE[topic]}
@@ -41,7 +45,8 @@ export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: 
       {!values && loading && <p className="text-muted">Loading the facility's rules…</p>}
       {!values && !loading && (
         <p className="text-ink">
-          The facility's rules are not on this tablet yet{offline ? " (no connection)" : ""}. Follow the facility's rules, your training, the safety officer and the equipment maker's instructions.
+          The facility's rules are not on this tablet yet{offline ? " (no connection)" : ""}. Follow the facility's
+          rules, your training, the safety officer and the equipment maker's instructions.
         </p>
       )}
       {facts && rules && (
@@ -83,7 +88,10 @@ export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: 
             {facts.contacts.map((c, i) => (
               <span key={i} className="mr-3 inline-block">
                 {c.role}: {c.name},{" "}
-                <a className="num inline-flex min-h-12 items-center font-semibold underline" href={`tel:${c.phone.replace(/[^+\d]/g, "")}`}>
+                <a
+                  className="num inline-flex min-h-12 items-center font-semibold underline"
+                  href={`tel:${c.phone.replace(/[^+\d]/g, "")}`}
+                >
                   {c.phone}
                 </a>
               </span>
@@ -93,7 +101,12 @@ export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: 
       )}
       {rules?.document && (
         <p className="mt-2">
-          <a href={RULES_DOCUMENT_URL} target="_blank" rel="noopener" className="inline-flex min-h-12 items-center font-semibold text-accent underline">
+          <a
+            href={RULES_DOCUMENT_URL}
+            target="_blank"
+            rel="noopener"
+            className="inline-flex min-h-12 items-center font-semibold text-accent underline"
+          >
             Open the facility's rules document ({rules.document.fileName})
           </a>
         </p>

@@ -3,7 +3,7 @@
 // facility's own rules document (PDF), and the reason for each change (each save is an audited entry).
 import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
-import { FieldGroup, FieldRow as Row, INPUT_CLASS, ProblemNotice } from "@/components/ui/form";
+import { FieldGroup, INPUT_CLASS, ProblemNotice, FieldRow as Row } from "@/components/ui/form";
 import { Loading, Notice, Panel } from "@/components/ui/panel";
 import type { RulesInForce } from "@/db/queries/rules";
 import { formatDate } from "@/lib/format";
@@ -28,7 +28,10 @@ export function RulesAdmin() {
     if (!r) return;
     rememberRules(r);
     setV(r.values);
-    setText({ ppe: r.values.ppe.join("\n"), contacts: r.values.contacts.map((c) => `${c.name} | ${c.role} | ${c.phone}`).join("\n") });
+    setText({
+      ppe: r.values.ppe.join("\n"),
+      contacts: r.values.contacts.map((c) => `${c.name} | ${c.role} | ${c.phone}`).join("\n"),
+    });
   }
   useEffect(() => {
     fetch("/api/rules", { cache: "no-store" })
@@ -42,7 +45,8 @@ export function RulesAdmin() {
   }, []);
 
   if (!v) return msg ? <Notice tone="danger" role="alert" title={msg.text} /> : <Loading />;
-  const set = <K extends keyof FacilityRulesValues>(k: K, val: FacilityRulesValues[K]) => setV((x) => (x ? { ...x, [k]: val } : x));
+  const set = <K extends keyof FacilityRulesValues>(k: K, val: FacilityRulesValues[K]) =>
+    setV((x) => (x ? { ...x, [k]: val } : x));
   const optNum = (s: string) => (s.trim() === "" ? undefined : Number(s));
 
   async function save() {
@@ -51,7 +55,10 @@ export function RulesAdmin() {
     setMsg(null);
     const values: FacilityRulesValues = {
       ...v,
-      ppe: text.ppe.split("\n").map((s) => s.trim()).filter(Boolean),
+      ppe: text.ppe
+        .split("\n")
+        .map((s) => s.trim())
+        .filter(Boolean),
       contacts: text.contacts
         .split("\n")
         .map((l) => l.split("|").map((s) => s.trim()))
@@ -59,13 +66,20 @@ export function RulesAdmin() {
         .map(([name = "", role = "", phone = ""]) => ({ name, role, phone })),
     };
     try {
-      const r = await fetch("/api/rules", { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify({ values, reason, expectedVersion: rules?.version ?? null }) });
+      const r = await fetch("/api/rules", {
+        method: "PUT",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ values, reason, expectedVersion: rules?.version ?? null }),
+      });
       const body = await r.json();
       if (!r.ok) setMsg({ tone: "danger", text: body.error?.message ?? "Not saved.", details: body.error?.details });
       else {
         adopt(body.rules);
         setReason("");
-        setMsg({ tone: "ok", text: `Saved as version ${body.rules.version}. The change is recorded in the facility log.` });
+        setMsg({
+          tone: "ok",
+          text: `Saved as version ${body.rules.version}. The change is recorded in the facility log.`,
+        });
       }
     } catch {
       setMsg({ tone: "danger", text: "No connection to the server: nothing was changed." });
@@ -77,20 +91,30 @@ export function RulesAdmin() {
   async function upload(file: File) {
     setDocMsg(null);
     if (file.size > RULES_DOCUMENT_MAX_BYTES) {
-      setDocMsg({ tone: "danger", text: `"${file.name}" is ${(file.size / 1048576).toFixed(1)} MB; the limit is ${RULES_DOCUMENT_MAX_BYTES / 1048576} MB. Upload a smaller PDF.` });
+      setDocMsg({
+        tone: "danger",
+        text: `"${file.name}" is ${(file.size / 1048576).toFixed(1)} MB; the limit is ${RULES_DOCUMENT_MAX_BYTES / 1048576} MB. Upload a smaller PDF.`,
+      });
       return;
     }
     try {
       const r = await fetch("/api/rules/document", {
         method: "POST",
-        headers: { "content-type": "application/octet-stream", "x-rimelog-file-name": encodeURIComponent(file.name), "x-rimelog-reason": encodeURIComponent(reason) },
+        headers: {
+          "content-type": "application/octet-stream",
+          "x-rimelog-file-name": encodeURIComponent(file.name),
+          "x-rimelog-reason": encodeURIComponent(reason),
+        },
         body: file,
       });
       const body = await r.json();
       if (!r.ok) setDocMsg({ tone: "danger", text: body.error?.message ?? "Not uploaded." });
       else {
         adopt(body.rules);
-        setDocMsg({ tone: "ok", text: `"${body.rules.document.fileName}" is now the facility's rules document (version ${body.rules.version}).` });
+        setDocMsg({
+          tone: "ok",
+          text: `"${body.rules.document.fileName}" is now the facility's rules document (version ${body.rules.version}).`,
+        });
       }
     } catch {
       setDocMsg({ tone: "danger", text: "No connection to the server: the document was not uploaded." });
@@ -102,22 +126,50 @@ export function RulesAdmin() {
       <Panel>
         <form className="flex flex-col gap-4" noValidate onSubmit={(e) => (e.preventDefault(), void save())}>
           <Row id="r-name" label="Facility name">
-            <input id="r-name" className={INPUT_CLASS} value={v.facilityName} onChange={(e) => set("facilityName", e.target.value)} />
+            <input
+              id="r-name"
+              className={INPUT_CLASS}
+              value={v.facilityName}
+              onChange={(e) => set("facilityName", e.target.value)}
+            />
           </Row>
           <div className="grid gap-3 sm:grid-cols-2">
             <Row id="r-alarm" label="Oxygen alarm level (%)">
-              <input id="r-alarm" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.oxygenAlarmPercent} onChange={(e) => set("oxygenAlarmPercent", Number(e.target.value))} />
+              <input
+                id="r-alarm"
+                inputMode="decimal"
+                className={`${INPUT_CLASS} num`}
+                value={v.oxygenAlarmPercent}
+                onChange={(e) => set("oxygenAlarmPercent", Number(e.target.value))}
+              />
             </Row>
             <Row id="r-evac" label="Oxygen level to leave the room (%)">
-              <input id="r-evac" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.oxygenEvacuatePercent} onChange={(e) => set("oxygenEvacuatePercent", Number(e.target.value))} />
+              <input
+                id="r-evac"
+                inputMode="decimal"
+                className={`${INPUT_CLASS} num`}
+                value={v.oxygenEvacuatePercent}
+                onChange={(e) => set("oxygenEvacuatePercent", Number(e.target.value))}
+              />
             </Row>
           </div>
           <label className="flex min-h-12 items-center gap-2 font-semibold">
-            <input type="checkbox" className="h-6 w-6" checked={v.twoPersonTransfer} onChange={(e) => set("twoPersonTransfer", e.target.checked)} />
+            <input
+              type="checkbox"
+              className="h-6 w-6"
+              checked={v.twoPersonTransfer}
+              onChange={(e) => set("twoPersonTransfer", e.target.checked)}
+            />
             Two people must be present for cryogen transfers
           </label>
           <Row id="r-ppe" label="Required PPE (one per line)">
-            <textarea id="r-ppe" rows={4} className={INPUT_CLASS} value={text.ppe} onChange={(e) => setText((t) => ({ ...t, ppe: e.target.value }))} />
+            <textarea
+              id="r-ppe"
+              rows={4}
+              className={INPUT_CLASS}
+              value={text.ppe}
+              onChange={(e) => setText((t) => ({ ...t, ppe: e.target.value }))}
+            />
           </Row>
           <FieldGroup legend="Per cryostat">
             <div className="grid gap-3 sm:grid-cols-2">
@@ -126,12 +178,42 @@ export function RulesAdmin() {
                   <p className="font-semibold">{c.name}</p>
                   {Boolean(c.config.reservoir) && (
                     <Row id={`r-min-${c.id}`} label="Minimum helium level (%)">
-                      <input id={`r-min-${c.id}`} inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.minHeliumPercent[c.id] ?? ""} onChange={(e) => set("minHeliumPercent", Object.fromEntries(Object.entries({ ...v.minHeliumPercent, [c.id]: optNum(e.target.value) }).filter(([, x]) => x !== undefined)) as Record<string, number>)} />
+                      <input
+                        id={`r-min-${c.id}`}
+                        inputMode="decimal"
+                        className={`${INPUT_CLASS} num`}
+                        value={v.minHeliumPercent[c.id] ?? ""}
+                        onChange={(e) =>
+                          set(
+                            "minHeliumPercent",
+                            Object.fromEntries(
+                              Object.entries({ ...v.minHeliumPercent, [c.id]: optNum(e.target.value) }).filter(
+                                ([, x]) => x !== undefined,
+                              ),
+                            ) as Record<string, number>,
+                          )
+                        }
+                      />
                     </Row>
                   )}
                   {Boolean(c.config.magnet) && (
                     <Row id={`r-ramp-${c.id}`} label="Maximum ramp rate (T/min)">
-                      <input id={`r-ramp-${c.id}`} inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.maxRampTPerMin[c.id] ?? ""} onChange={(e) => set("maxRampTPerMin", Object.fromEntries(Object.entries({ ...v.maxRampTPerMin, [c.id]: optNum(e.target.value) }).filter(([, x]) => x !== undefined)) as Record<string, number>)} />
+                      <input
+                        id={`r-ramp-${c.id}`}
+                        inputMode="decimal"
+                        className={`${INPUT_CLASS} num`}
+                        value={v.maxRampTPerMin[c.id] ?? ""}
+                        onChange={(e) =>
+                          set(
+                            "maxRampTPerMin",
+                            Object.fromEntries(
+                              Object.entries({ ...v.maxRampTPerMin, [c.id]: optNum(e.target.value) }).filter(
+                                ([, x]) => x !== undefined,
+                              ),
+                            ) as Record<string, number>,
+                          )
+                        }
+                      />
                     </Row>
                   )}
                 </div>
@@ -139,30 +221,82 @@ export function RulesAdmin() {
             </div>
           </FieldGroup>
           <div className="grid gap-3 sm:grid-cols-2">
-            <Row id="r-mt" label="Controlled-area field line (mT)" hint="0.5 mT is common; some standards use 0.9 mT. Set your facility's own.">
-              <input id="r-mt" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.controlledAreaMilliTesla} onChange={(e) => set("controlledAreaMilliTesla", Number(e.target.value))} />
+            <Row
+              id="r-mt"
+              label="Controlled-area field line (mT)"
+              hint="0.5 mT is common; some standards use 0.9 mT. Set your facility's own."
+            >
+              <input
+                id="r-mt"
+                inputMode="decimal"
+                className={`${INPUT_CLASS} num`}
+                value={v.controlledAreaMilliTesla}
+                onChange={(e) => set("controlledAreaMilliTesla", Number(e.target.value))}
+              />
             </Row>
             <Row id="r-days" label="Warn when helium reaches the minimum within (days)">
-              <input id="r-days" inputMode="numeric" className={`${INPUT_CLASS} num`} value={v.forecastWarnDays} onChange={(e) => set("forecastWarnDays", Number(e.target.value))} />
+              <input
+                id="r-days"
+                inputMode="numeric"
+                className={`${INPUT_CLASS} num`}
+                value={v.forecastWarnDays}
+                onChange={(e) => set("forecastWarnDays", Number(e.target.value))}
+              />
             </Row>
             <Row id="r-effmin" label="Plausible transfer efficiency, lowest (%)" hint="Default 40 % when empty.">
-              <input id="r-effmin" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.transferEfficiencyMinPercent ?? ""} onChange={(e) => set("transferEfficiencyMinPercent", optNum(e.target.value))} />
+              <input
+                id="r-effmin"
+                inputMode="decimal"
+                className={`${INPUT_CLASS} num`}
+                value={v.transferEfficiencyMinPercent ?? ""}
+                onChange={(e) => set("transferEfficiencyMinPercent", optNum(e.target.value))}
+              />
             </Row>
             <Row id="r-effmax" label="Plausible transfer efficiency, highest (%)" hint="Default 95 % when empty.">
-              <input id="r-effmax" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.transferEfficiencyMaxPercent ?? ""} onChange={(e) => set("transferEfficiencyMaxPercent", optNum(e.target.value))} />
+              <input
+                id="r-effmax"
+                inputMode="decimal"
+                className={`${INPUT_CLASS} num`}
+                value={v.transferEfficiencyMaxPercent ?? ""}
+                onChange={(e) => set("transferEfficiencyMaxPercent", optNum(e.target.value))}
+              />
             </Row>
             <Row id="r-vol" label="Room free volume (m³)" hint="For the oxygen estimate after a quench.">
-              <input id="r-vol" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.roomFreeVolumeM3 ?? ""} onChange={(e) => set("roomFreeVolumeM3", optNum(e.target.value))} />
+              <input
+                id="r-vol"
+                inputMode="decimal"
+                className={`${INPUT_CLASS} num`}
+                value={v.roomFreeVolumeM3 ?? ""}
+                onChange={(e) => set("roomFreeVolumeM3", optNum(e.target.value))}
+              />
             </Row>
             <Row id="r-ach" label="Room ventilation (air changes per hour)">
-              <input id="r-ach" inputMode="decimal" className={`${INPUT_CLASS} num`} value={v.roomAirChangesPerHour ?? ""} onChange={(e) => set("roomAirChangesPerHour", optNum(e.target.value))} />
+              <input
+                id="r-ach"
+                inputMode="decimal"
+                className={`${INPUT_CLASS} num`}
+                value={v.roomAirChangesPerHour ?? ""}
+                onChange={(e) => set("roomAirChangesPerHour", optNum(e.target.value))}
+              />
             </Row>
           </div>
           <Row id="r-note" label="Controlled-area note">
-            <textarea id="r-note" rows={2} className={INPUT_CLASS} value={v.controlledAreaNote} onChange={(e) => set("controlledAreaNote", e.target.value)} />
+            <textarea
+              id="r-note"
+              rows={2}
+              className={INPUT_CLASS}
+              value={v.controlledAreaNote}
+              onChange={(e) => set("controlledAreaNote", e.target.value)}
+            />
           </Row>
           <Row id="r-contacts" label="Emergency contacts (one per line: name | role | phone)">
-            <textarea id="r-contacts" rows={4} className={INPUT_CLASS} value={text.contacts} onChange={(e) => setText((t) => ({ ...t, contacts: e.target.value }))} />
+            <textarea
+              id="r-contacts"
+              rows={4}
+              className={INPUT_CLASS}
+              value={text.contacts}
+              onChange={(e) => setText((t) => ({ ...t, contacts: e.target.value }))}
+            />
           </Row>
           <Row id="r-reason" label="Reason for the change" hint="Recorded with the change in the facility log.">
             <input id="r-reason" className={INPUT_CLASS} value={reason} onChange={(e) => setReason(e.target.value)} />
@@ -186,7 +320,10 @@ export function RulesAdmin() {
           <h2 className="mb-2 text-lg font-bold">The facility's rules document</h2>
           {rules?.document ? (
             <p className="mb-2">
-              <a href="/api/rules/document" className="inline-flex min-h-12 items-center font-semibold text-accent underline">
+              <a
+                href="/api/rules/document"
+                className="inline-flex min-h-12 items-center font-semibold text-accent underline"
+              >
                 {rules.document.fileName}
               </a>{" "}
               <span className="num text-sm text-muted">({(rules.document.bytes / 1024).toFixed(0)} KB)</span>
@@ -197,7 +334,13 @@ export function RulesAdmin() {
           <label htmlFor="r-doc" className="font-semibold">
             Upload a new PDF (up to {RULES_DOCUMENT_MAX_BYTES / 1048576} MB)
           </label>
-          <input id="r-doc" type="file" accept="application/pdf,.pdf" className="mt-1 block min-h-12 w-full" onChange={(e) => e.target.files?.[0] && void upload(e.target.files[0])} />
+          <input
+            id="r-doc"
+            type="file"
+            accept="application/pdf,.pdf"
+            className="mt-1 block min-h-12 w-full"
+            onChange={(e) => e.target.files?.[0] && void upload(e.target.files[0])}
+          />
           {docMsg && (
             <div className="mt-2">
               <Notice tone={docMsg.tone} role={docMsg.tone === "danger" ? "alert" : "status"} title={docMsg.text} />

@@ -5,8 +5,8 @@ import { usePathname } from "next/navigation";
 import { SignOutButton } from "@/components/sync/sign-out-button";
 import { SyncIndicator } from "@/components/sync/sync-indicator";
 import { ROLE_LABEL } from "@/lib/auth/permissions";
-import { useMe } from "./use-me";
 import { ThemeToggle } from "./theme-toggle";
+import { useMe } from "./use-me";
 
 const NAV: { href: string; label: string; roles?: string[] }[] = [
   { href: "/", label: "Room" },

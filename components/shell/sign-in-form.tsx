@@ -43,8 +43,21 @@ export function SignInForm() {
     <Panel>
       <h1 className="mb-4 text-2xl font-bold">Sign in</h1>
       <form onSubmit={submit} className="flex flex-col gap-4" noValidate>
-        <TextField label="Email" type="email" autoComplete="username" inputMode="email" {...register("email")} error={errors.email?.message} />
-        <TextField label="Password" type="password" autoComplete="current-password" {...register("password")} error={errors.password?.message} />
+        <TextField
+          label="Email"
+          type="email"
+          autoComplete="username"
+          inputMode="email"
+          {...register("email")}
+          error={errors.email?.message}
+        />
+        <TextField
+          label="Password"
+          type="password"
+          autoComplete="current-password"
+          {...register("password")}
+          error={errors.password?.message}
+        />
         {error && (
           <Notice tone="danger" role="alert">
             {error}

@@ -6,7 +6,7 @@ import { Button } from "@/components/ui/button";
 import { Notice, Panel } from "@/components/ui/panel";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { formatDate } from "@/lib/format";
-import { cachedPin, storePin, type CachedPin } from "@/lib/signing/tablet";
+import { type CachedPin, cachedPin, storePin } from "@/lib/signing/tablet";
 
 type Verifier = { saltB64: string; iterations: number; verifier: string; expiresAt: string };
 
@@ -40,7 +40,11 @@ export function PinPanel({ me }: { me: SessionUser }) {
     if (next !== again) return setMsg({ tone: "danger", text: "The two PINs differ." });
     setBusy(true);
     try {
-      const r = await fetch("/api/pin", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ password, pin: next }) });
+      const r = await fetch("/api/pin", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ password, pin: next }),
+      });
       const body = (await r.json().catch(() => ({}))) as { pin?: Verifier; error?: { message?: string } };
       if (!r.ok || !body.pin) throw new Error(body.error?.message ?? `The server answered ${r.status}.`);
       storePin({ userId: me.id, ...body.pin });
@@ -51,7 +55,12 @@ export function PinPanel({ me }: { me: SessionUser }) {
       setAgain("");
       setMsg({ tone: "ok", text: "Signing PIN set on this tablet." });
     } catch (e) {
-      setMsg({ tone: "danger", text: (e as Error).message.includes("fetch") ? "No connection: a PIN can only be set online." : (e as Error).message });
+      setMsg({
+        tone: "danger",
+        text: (e as Error).message.includes("fetch")
+          ? "No connection: a PIN can only be set online."
+          : (e as Error).message,
+      });
     } finally {
       setBusy(false);
     }
@@ -66,7 +75,9 @@ export function PinPanel({ me }: { me: SessionUser }) {
             Signing PIN
           </h2>
           <p className="text-muted" data-pin-status>
-            {pin ? `Set on this tablet, usable offline until ${formatDate(pin.expiresAt)}.` : "Not set on this tablet: signing offline needs it."}
+            {pin
+              ? `Set on this tablet, usable offline until ${formatDate(pin.expiresAt)}.`
+              : "Not set on this tablet: signing offline needs it."}
           </p>
         </div>
         <Button onClick={() => setOpen((o) => !o)}>{pin ? "Change PIN" : "Set PIN"}</Button>
@@ -75,17 +86,42 @@ export function PinPanel({ me }: { me: SessionUser }) {
         <div className="mt-3 grid gap-3 sm:grid-cols-3">
           <label className="flex flex-col gap-1 font-semibold">
             Your password
-            <input type="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} className={input} />
+            <input
+              type="password"
+              autoComplete="current-password"
+              value={password}
+              onChange={(e) => setPassword(e.target.value)}
+              className={input}
+            />
           </label>
           <label className="flex flex-col gap-1 font-semibold">
             New PIN (6–12 digits)
-            <input type="password" inputMode="numeric" autoComplete="off" value={next} onChange={(e) => setNext(e.target.value)} className={input} />
+            <input
+              type="password"
+              inputMode="numeric"
+              autoComplete="off"
+              value={next}
+              onChange={(e) => setNext(e.target.value)}
+              className={input}
+            />
           </label>
           <label className="flex flex-col gap-1 font-semibold">
             PIN again
-            <input type="password" inputMode="numeric" autoComplete="off" value={again} onChange={(e) => setAgain(e.target.value)} className={input} />
+            <input
+              type="password"
+              inputMode="numeric"
+              autoComplete="off"
+              value={again}
+              onChange={(e) => setAgain(e.target.value)}
+              className={input}
+            />
           </label>
-          <Button variant="primary" onClick={() => void save()} disabled={busy} className="sm:col-span-3 sm:justify-self-start">
+          <Button
+            variant="primary"
+            onClick={() => void save()}
+            disabled={busy}
+            className="sm:col-span-3 sm:justify-self-start"
+          >
             {busy ? "Saving…" : "Save PIN"}
           </Button>
         </div>

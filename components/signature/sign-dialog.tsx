@@ -2,7 +2,7 @@
 // Signing: who is signing and what it means are shown first, then the mark on the pad and the
 // signer's secret (PIN on the tablet, or the password while online). Only after the secret checks
 // out does the caller write the record and its signature (R5: the image alone never signs).
-import { useRef, useState, type ReactNode } from "react";
+import { type ReactNode, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/panel";
 import { ROLE_LABEL } from "@/lib/auth/permissions";
@@ -11,15 +11,24 @@ import { meaningLabel } from "@/lib/format";
 import type { SignatureMeaning } from "@/lib/schemas/entry";
 import type { ConfirmedBy, SigningSubject } from "@/lib/signing/proof";
 import { cachedPin, pinProof, unlockPin } from "@/lib/signing/tablet";
-import { SignaturePad, type PadHandle } from "./signature-pad";
+import { type PadHandle, SignaturePad } from "./signature-pad";
 
-export type Confirmation = { confirmedBy: ConfirmedBy; prove: (subject: SigningSubject) => Promise<string>; image: string };
+export type Confirmation = {
+  confirmedBy: ConfirmedBy;
+  prove: (subject: SigningSubject) => Promise<string>;
+  image: string;
+};
 
 async function passwordProof(password: string, subject: SigningSubject): Promise<string> {
   const r = await fetch("/api/pin/confirm", {
     method: "POST",
     headers: { "content-type": "application/json" },
-    body: JSON.stringify({ password, signedEntryId: subject.signedEntryId, signedHash: subject.signedHash, meaning: subject.meaning }),
+    body: JSON.stringify({
+      password,
+      signedEntryId: subject.signedEntryId,
+      signedHash: subject.signedHash,
+      meaning: subject.meaning,
+    }),
   });
   const body = (await r.json().catch(() => ({}))) as { proof?: string; error?: { message?: string } };
   if (!r.ok || !body.proof) throw new Error(body.error?.message ?? `The server answered ${r.status}.`);
@@ -64,7 +73,8 @@ export function SignDialog({
           const why = {
             no_pin: "No signing PIN on this tablet. Set one while online, or sign with your password.",
             expired: "The PIN on this tablet has expired. Connect to the network once, or sign with your password.",
-            locked: "Too many wrong PINs: the PIN was removed from this tablet. Sign with your password while online, then set a PIN again.",
+            locked:
+              "Too many wrong PINs: the PIN was removed from this tablet. Sign with your password while online, then set a PIN again.",
             wrong: `That PIN is not right. ${u.left ?? 0} attempt(s) left.`,
           }[u.reason];
           throw new Error(why);
@@ -72,7 +82,8 @@ export function SignDialog({
         const key = u.key;
         prove = async (s) => pinProof(key, s);
       } else {
-        if (!navigator.onLine) throw new Error("Signing with the password needs the network. Use your PIN on this tablet.");
+        if (!navigator.onLine)
+          throw new Error("Signing with the password needs the network. Use your PIN on this tablet.");
         const pw = secret;
         prove = (s) => passwordProof(pw, s);
       }
@@ -87,12 +98,18 @@ export function SignDialog({
 
   return (
     <div className="fixed inset-0 z-50 flex items-start justify-center overflow-y-auto bg-black/50 p-4 no-print">
-      <div role="dialog" aria-modal="true" aria-labelledby="sign-title" className="w-full max-w-2xl rounded-2xl border-2 border-line bg-panel p-5 shadow-xl">
+      <div
+        role="dialog"
+        aria-modal="true"
+        aria-labelledby="sign-title"
+        className="w-full max-w-2xl rounded-2xl border-2 border-line bg-panel p-5 shadow-xl"
+      >
         <h2 id="sign-title" className="text-2xl font-bold">
           {title}
         </h2>
         <p className="mt-1 text-lg">
-          Signing as <strong>{me.name}</strong> ({ROLE_LABEL[me.role]}) — meaning: <strong>{meaningLabel(meaning)}</strong>
+          Signing as <strong>{me.name}</strong> ({ROLE_LABEL[me.role]}) — meaning:{" "}
+          <strong>{meaningLabel(meaning)}</strong>
         </p>
         {children && <div className="mt-2 rounded-xl bg-sunk p-3">{children}</div>}
         <div className="mt-4">
@@ -105,7 +122,10 @@ export function SignDialog({
               type="button"
               role="radio"
               aria-checked={mode === m}
-              onClick={() => { setMode(m); setSecret(""); }}
+              onClick={() => {
+                setMode(m);
+                setSecret("");
+              }}
               className={`min-h-12 rounded-xl border-2 px-4 font-semibold ${mode === m ? "border-accent bg-sunk" : "border-line"}`}
             >
               {m === "pin" ? "PIN on this tablet" : "Password (online)"}
@@ -125,7 +145,11 @@ export function SignDialog({
           onKeyDown={(e) => e.key === "Enter" && void sign()}
           className="num mt-1 w-full rounded-xl border-2 border-line bg-bg px-4 py-3 text-2xl tracking-widest"
         />
-        {mode === "pin" && !hasPin && <p className="mt-1 text-sm text-warn">No PIN is set on this tablet for you (set it on the Procedures page while online).</p>}
+        {mode === "pin" && !hasPin && (
+          <p className="mt-1 text-sm text-warn">
+            No PIN is set on this tablet for you (set it on the Procedures page while online).
+          </p>
+        )}
         {error && (
           <div className="mt-3">
             <Notice tone="danger" role="alert">

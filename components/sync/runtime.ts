@@ -4,7 +4,7 @@
 import { useEffect, useState } from "react";
 import { localSyncDb } from "@/lib/local/db";
 import { httpTransport } from "@/lib/sync/http";
-import { SyncLoop, type LoopState } from "@/lib/sync/loop";
+import { type LoopState, SyncLoop } from "@/lib/sync/loop";
 
 let loop: SyncLoop | undefined;
 

@@ -49,13 +49,16 @@ export function SignOutButton() {
         {busy ? "Signing out…" : "Sign out"}
       </Button>
       {(message || confirmRejected !== null) && (
-        <div role="alert" className="absolute right-0 top-full z-30 mt-2 w-[min(24rem,90vw)] rounded-2xl border-2 border-danger bg-panel p-4 text-ink shadow-lg">
+        <div
+          role="alert"
+          className="absolute right-0 top-full z-30 mt-2 w-[min(24rem,90vw)] rounded-2xl border-2 border-danger bg-panel p-4 text-ink shadow-lg"
+        >
           {message && <p>{message}</p>}
           {confirmRejected !== null && (
             <>
               <p className="mb-2">
-                {confirmRejected} {confirmRejected === 1 ? "entry was" : "entries were"} refused by the server and will be removed from this tablet when you sign out. Open the sync
-                status to read them first.
+                {confirmRejected} {confirmRejected === 1 ? "entry was" : "entries were"} refused by the server and will
+                be removed from this tablet when you sign out. Open the sync status to read them first.
               </p>
               <Button variant="danger" className="w-full" onClick={() => void finish()}>
                 Sign out and remove them

@@ -9,7 +9,8 @@ const waitingListeners = new Set<(w: boolean) => void>();
 let waiting = false;
 
 function register(): Promise<Workbox | null> {
-  if (typeof window === "undefined" || !("serviceWorker" in navigator) || process.env.NODE_ENV !== "production") return Promise.resolve(null);
+  if (typeof window === "undefined" || !("serviceWorker" in navigator) || process.env.NODE_ENV !== "production")
+    return Promise.resolve(null);
   wbPromise ??= import("workbox-window").then(async ({ Workbox }) => {
     const wb = new Workbox("/sw.js", { scope: "/" });
     wb.addEventListener("waiting", () => {

@@ -29,7 +29,8 @@ export function SyncIndicator() {
 
   useEffect(() => {
     if (!open) return;
-    const close = (e: PointerEvent) => panel.current && !panel.current.parentElement?.contains(e.target as Node) && setOpen(false);
+    const close = (e: PointerEvent) =>
+      panel.current && !panel.current.parentElement?.contains(e.target as Node) && setOpen(false);
     document.addEventListener("pointerdown", close);
     return () => document.removeEventListener("pointerdown", close);
   }, [open]);
@@ -37,7 +38,14 @@ export function SyncIndicator() {
   const pending = summary?.pending ?? 0;
   const rejected = summary?.rejected.length ?? 0;
   const waitingPhotos = summary?.pendingAttachments ?? 0;
-  const tone = rejected > 0 ? "border-danger text-danger" : !loop.online ? "border-warn text-warn" : pending > 0 ? "border-accent text-accent" : "border-ok text-ok";
+  const tone =
+    rejected > 0
+      ? "border-danger text-danger"
+      : !loop.online
+        ? "border-warn text-warn"
+        : pending > 0
+          ? "border-accent text-accent"
+          : "border-ok text-ok";
   const last = summary?.lastSuccess ? formatWhen(summary.lastSuccess, now) : "never";
 
   return (
@@ -57,7 +65,10 @@ export function SyncIndicator() {
         data-online={loop.online ? "yes" : "no"}
         className={`flex min-h-12 items-center gap-2 rounded-xl border-2 bg-panel px-3 text-left leading-tight ${tone}`}
       >
-        <span aria-hidden className={`inline-block h-3 w-3 rounded-full ${loop.online ? "bg-current" : "border-2 border-current"}`} />
+        <span
+          aria-hidden
+          className={`inline-block h-3 w-3 rounded-full ${loop.online ? "bg-current" : "border-2 border-current"}`}
+        />
         <span role="status" aria-live="polite" aria-label="Sync status">
           <span className="block font-semibold">
             {loop.online ? "Online" : "Offline"} · {pending === 0 ? "nothing to send" : `${pending} to send`}
@@ -111,7 +122,8 @@ export function SyncIndicator() {
             <div className="mt-3 rounded-xl border-2 border-danger p-3">
               <p className="font-semibold text-danger">Refused by the server</p>
               <p className="mb-2 text-sm">
-                These stay on this tablet and are not in the shared log. Record each again with the problem fixed, or show it to the facility admin.
+                These stay on this tablet and are not in the shared log. Record each again with the problem fixed, or
+                show it to the facility admin.
               </p>
               <ul className="flex flex-col gap-2">
                 {summary.rejected.map((e) => (

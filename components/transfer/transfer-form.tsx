@@ -9,7 +9,16 @@ import { useMe } from "@/components/shell/use-me";
 import { SignDialog } from "@/components/signature/sign-dialog";
 import { writeSignature } from "@/components/signature/write-signature";
 import { Button } from "@/components/ui/button";
-import { ChoiceButtons, FieldGroup, FieldRow as Field, INPUT_CLASS, NumberField, typedNumber, OptionList, ProblemNotice } from "@/components/ui/form";
+import {
+  ChoiceButtons,
+  FieldRow as Field,
+  FieldGroup,
+  INPUT_CLASS,
+  NumberField,
+  OptionList,
+  ProblemNotice,
+  typedNumber,
+} from "@/components/ui/form";
 import { Notice, Panel } from "@/components/ui/panel";
 import { transferFigures } from "@/lib/audit/figures";
 import { litresFromLevel, litresFromMass } from "@/lib/cryo";
@@ -91,7 +100,12 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
         { levelBeforePercent: b, levelAfterPercent: a, suppliedLitres, gainedLitres },
         {
           calibration: cryostat?.config.reservoir?.calibration,
-          previous: prev ? { levelAfterPercent: (prev.payload as { levelAfterPercent: number }).levelAfterPercent, at: prev.recordedAt } : null,
+          previous: prev
+            ? {
+                levelAfterPercent: (prev.payload as { levelAfterPercent: number }).levelAfterPercent,
+                at: prev.recordedAt,
+              }
+            : null,
           at: new Date().toISOString(),
         },
       );
@@ -116,7 +130,9 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
         ...(typedNumber(f.pressureAfter) !== undefined ? { pressureAfterMbar: typedNumber(f.pressureAfter) } : {}),
         suppliedLitres: suppliedLitres ?? Number.NaN,
         suppliedBy: f.suppliedBy,
-        ...(f.suppliedBy === "weight" ? { supplyMassBeforeKg: typedNumber(f.massBefore), supplyMassAfterKg: typedNumber(f.massAfter) } : {}),
+        ...(f.suppliedBy === "weight"
+          ? { supplyMassBeforeKg: typedNumber(f.massBefore), supplyMassAfterKg: typedNumber(f.massAfter) }
+          : {}),
         gainedLitres: gainedLitres ?? Number.NaN,
         durationMin: typedNumber(f.duration) ?? Number.NaN,
         anomalies: f.anomalies,
@@ -131,7 +147,11 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
     }
   }
 
-  async function signPerformed(entry: StoredLocalEntry, signer: NonNullable<typeof me>, c: Parameters<typeof writeSignature>[3]) {
+  async function signPerformed(
+    entry: StoredLocalEntry,
+    signer: NonNullable<typeof me>,
+    c: Parameters<typeof writeSignature>[3],
+  ) {
     await writeSignature(entry, signer, "performed", c);
     setSigned(true);
   }
@@ -158,13 +178,23 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
             Record another transfer
           </Button>
         </div>
-        {signing && me && <SignDialog me={me} meaning="performed" title="Sign the helium transfer" onClose={() => setSigning(false)} onSign={(c) => signPerformed(saved, me, c)} />}
+        {signing && me && (
+          <SignDialog
+            me={me}
+            meaning="performed"
+            title="Sign the helium transfer"
+            onClose={() => setSigning(false)}
+            onSign={(c) => signPerformed(saved, me, c)}
+          />
+        )}
       </Panel>
     );
   }
 
   const ppe = rules?.values.ppe ?? [];
-  const active = (users ?? []).filter((u) => u.active && (u.role === "technician" || u.role === "researcher" || u.role === "safety_officer"));
+  const active = (users ?? []).filter(
+    (u) => u.active && (u.role === "technician" || u.role === "researcher" || u.role === "safety_officer"),
+  );
 
   return (
     <div className="grid gap-4 lg:grid-cols-[1fr_24rem]">
@@ -179,12 +209,23 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
         >
           <div className="grid gap-3 sm:grid-cols-2">
             <Field id="t-cryostat" label="Cryostat">
-              <select id="t-cryostat" className={INPUT_CLASS} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
+              <select
+                id="t-cryostat"
+                className={INPUT_CLASS}
+                value={cid}
+                onChange={(e) => setCryostatId(e.target.value)}
+              >
                 <OptionList options={withReservoir.map((c) => ({ value: c.id, label: c.name }))} />
               </select>
             </Field>
             <Field id="t-supply" label="Supply dewar">
-              <input id="t-supply" className={INPUT_CLASS} value={f.supplyDewar} onChange={(e) => set("supplyDewar", e.target.value)} placeholder="e.g. D-250-A" />
+              <input
+                id="t-supply"
+                className={INPUT_CLASS}
+                value={f.supplyDewar}
+                onChange={(e) => set("supplyDewar", e.target.value)}
+                placeholder="e.g. D-250-A"
+              />
             </Field>
           </div>
 
@@ -196,52 +237,142 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
                     type="checkbox"
                     className="h-6 w-6"
                     checked={people.includes(u.id)}
-                    onChange={(e) => set("people", e.target.checked ? [...people, u.id] : people.filter((p) => p !== u.id))}
+                    onChange={(e) =>
+                      set("people", e.target.checked ? [...people, u.id] : people.filter((p) => p !== u.id))
+                    }
                   />
                   {u.name}
                 </label>
               ))}
             </div>
-            {rules?.values.twoPersonTransfer && people.length < 2 && <p className="mt-2 font-semibold text-warn">The facility's rules require two people present for a transfer.</p>}
+            {rules?.values.twoPersonTransfer && people.length < 2 && (
+              <p className="mt-2 font-semibold text-warn">
+                The facility's rules require two people present for a transfer.
+              </p>
+            )}
           </FieldGroup>
 
           <FieldGroup legend="Safety checks">
             <label className="flex min-h-12 items-center gap-2">
-              <input type="checkbox" className="h-6 w-6" checked={f.ppeConfirmed} onChange={(e) => set("ppeConfirmed", e.target.checked)} />
+              <input
+                type="checkbox"
+                className="h-6 w-6"
+                checked={f.ppeConfirmed}
+                onChange={(e) => set("ppeConfirmed", e.target.checked)}
+              />
               PPE worn{ppe.length ? `: ${ppe.join(", ")}` : ""}
             </label>
             <label className="flex min-h-12 items-center gap-2">
-              <input type="checkbox" className="h-6 w-6" checked={f.oxygenMonitorChecked} onChange={(e) => set("oxygenMonitorChecked", e.target.checked)} />
+              <input
+                type="checkbox"
+                className="h-6 w-6"
+                checked={f.oxygenMonitorChecked}
+                onChange={(e) => set("oxygenMonitorChecked", e.target.checked)}
+              />
               Oxygen monitor checked before starting
             </label>
-            <NumberField id="t-oxygen" label="Lowest oxygen reading during the transfer (%)" hint={rules ? `Facility alarm level ${rules.values.oxygenAlarmPercent} %` : undefined} value={f.oxygenLowest} onChange={(v) => set("oxygenLowest", v)} />
+            <NumberField
+              id="t-oxygen"
+              label="Lowest oxygen reading during the transfer (%)"
+              hint={rules ? `Facility alarm level ${rules.values.oxygenAlarmPercent} %` : undefined}
+              value={f.oxygenLowest}
+              onChange={(v) => set("oxygenLowest", v)}
+            />
           </FieldGroup>
 
           <div className="grid gap-3 sm:grid-cols-2">
-            <NumberField id="t-level-before" label="Level before (%)" value={f.levelBefore} onChange={(v) => set("levelBefore", v)} />
-            <NumberField id="t-level-after" label="Level after (%)" value={f.levelAfter} onChange={(v) => set("levelAfter", v)} />
-            <NumberField id="t-p-before" label="Pressure before (mbar)" value={f.pressureBefore} onChange={(v) => set("pressureBefore", v)} />
-            <NumberField id="t-p-after" label="Pressure after (mbar)" value={f.pressureAfter} onChange={(v) => set("pressureAfter", v)} />
+            <NumberField
+              id="t-level-before"
+              label="Level before (%)"
+              value={f.levelBefore}
+              onChange={(v) => set("levelBefore", v)}
+            />
+            <NumberField
+              id="t-level-after"
+              label="Level after (%)"
+              value={f.levelAfter}
+              onChange={(v) => set("levelAfter", v)}
+            />
+            <NumberField
+              id="t-p-before"
+              label="Pressure before (mbar)"
+              value={f.pressureBefore}
+              onChange={(v) => set("pressureBefore", v)}
+            />
+            <NumberField
+              id="t-p-after"
+              label="Pressure after (mbar)"
+              value={f.pressureAfter}
+              onChange={(v) => set("pressureAfter", v)}
+            />
           </div>
 
           <FieldGroup legend="Taken from the supply">
-            <ChoiceButtons className="mb-2 flex gap-2" label="Litres taken measured by" options={SUPPLIED_BY} value={f.suppliedBy} onChange={(m) => set("suppliedBy", m)} />
+            <ChoiceButtons
+              className="mb-2 flex gap-2"
+              label="Litres taken measured by"
+              options={SUPPLIED_BY}
+              value={f.suppliedBy}
+              onChange={(m) => set("suppliedBy", m)}
+            />
             {f.suppliedBy === "level" ? (
-              <NumberField id="t-supplied" label="Litres taken from the supply" value={f.supplied} onChange={(v) => set("supplied", v)} />
+              <NumberField
+                id="t-supplied"
+                label="Litres taken from the supply"
+                value={f.supplied}
+                onChange={(v) => set("supplied", v)}
+              />
             ) : (
               <div className="grid gap-3 sm:grid-cols-2">
-                <NumberField id="t-mass-before" label="Supply dewar mass before (kg)" value={f.massBefore} onChange={(v) => set("massBefore", v)} />
-                <NumberField id="t-mass-after" label="Supply dewar mass after (kg)" hint={suppliedLitres !== undefined ? `≈ ${trim(suppliedLitres)} L of liquid (density 0.1247 kg/L)` : undefined} value={f.massAfter} onChange={(v) => set("massAfter", v)} />
+                <NumberField
+                  id="t-mass-before"
+                  label="Supply dewar mass before (kg)"
+                  value={f.massBefore}
+                  onChange={(v) => set("massBefore", v)}
+                />
+                <NumberField
+                  id="t-mass-after"
+                  label="Supply dewar mass after (kg)"
+                  hint={
+                    suppliedLitres !== undefined
+                      ? `≈ ${trim(suppliedLitres)} L of liquid (density 0.1247 kg/L)`
+                      : undefined
+                  }
+                  value={f.massAfter}
+                  onChange={(v) => set("massAfter", v)}
+                />
               </div>
             )}
           </FieldGroup>
 
           <div className="grid gap-3 sm:grid-cols-2">
-            <NumberField id="t-gained" label="Litres gained in the cryostat" hint={gainedFromLevels !== undefined ? `From the level change: ${trim(gainedFromLevels)} L (leave empty to use it)` : undefined} placeholder={gainedFromLevels !== undefined ? String(gainedFromLevels) : ""} value={f.gained} onChange={(v) => set("gained", v)} />
-            <NumberField id="t-duration" label="Duration (min)" value={f.duration} onChange={(v) => set("duration", v)} />
+            <NumberField
+              id="t-gained"
+              label="Litres gained in the cryostat"
+              hint={
+                gainedFromLevels !== undefined
+                  ? `From the level change: ${trim(gainedFromLevels)} L (leave empty to use it)`
+                  : undefined
+              }
+              placeholder={gainedFromLevels !== undefined ? String(gainedFromLevels) : ""}
+              value={f.gained}
+              onChange={(v) => set("gained", v)}
+            />
+            <NumberField
+              id="t-duration"
+              label="Duration (min)"
+              value={f.duration}
+              onChange={(v) => set("duration", v)}
+            />
           </div>
           <Field id="t-anomalies" label="Anomalies">
-            <textarea id="t-anomalies" rows={3} className={INPUT_CLASS} value={f.anomalies} onChange={(e) => set("anomalies", e.target.value)} />
+            <textarea
+              id="t-anomalies"
+              rows={3}
+              className={INPUT_CLASS}
+              value={f.anomalies}
+              onChange={(e) => set("anomalies", e.target.value)}
+            />
           </Field>
 
           {error && <ProblemNotice tone="danger" title={error.title} problems={error.problems} />}
@@ -264,7 +395,11 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
               <dt>Gas to recovery (20 °C, 1 atm)</dt>
               <dd className="num">{trim(figures.gasToRecoveryLitres / 1000)} m³</dd>
               <dt>Boil-off since last transfer</dt>
-              <dd className="num">{figures.boilOff ? `${trim(figures.boilOff.litresPerDay)} L/day over ${trim(figures.boilOff.days)} d` : "—"}</dd>
+              <dd className="num">
+                {figures.boilOff
+                  ? `${trim(figures.boilOff.litresPerDay)} L/day over ${trim(figures.boilOff.days)} d`
+                  : "—"}
+              </dd>
             </dl>
           ) : (
             <p className="text-muted">Enter the levels and litres to see efficiency, gas to recovery and boil-off.</p>

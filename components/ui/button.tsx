@@ -14,6 +14,11 @@ export function buttonClass(variant: Variant = "secondary", extra = ""): string 
   return `inline-flex min-h-12 min-w-12 items-center justify-center gap-2 rounded-xl border-2 px-5 py-2 text-base font-semibold disabled:cursor-not-allowed disabled:opacity-50 ${VARIANTS[variant]} ${extra}`;
 }
 
-export function Button({ variant = "secondary", className = "", type = "button", ...rest }: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant }) {
+export function Button({
+  variant = "secondary",
+  className = "",
+  type = "button",
+  ...rest
+}: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant }) {
   return <button type={type} className={buttonClass(variant, className)} {...rest} />;
 }

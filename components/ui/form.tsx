@@ -5,13 +5,25 @@ import type { ReactNode } from "react";
 import { Notice } from "./panel";
 
 /** A typed figure: undefined when empty, NaN when it is not a number (the save names the problem). A decimal comma is accepted. */
-export const typedNumber = (s: string): number | undefined => (s.trim() === "" ? undefined : Number(s.replace(",", ".")));
+export const typedNumber = (s: string): number | undefined =>
+  s.trim() === "" ? undefined : Number(s.replace(",", "."));
 
 /** The class of a text input, select or textarea on the entry forms. */
-export const INPUT_CLASS = "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink focus:border-accent";
+export const INPUT_CLASS =
+  "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink focus:border-accent";
 
 /** Label above the control, a hint below it. The control must carry the same id. */
-export function FieldRow({ id, label, hint, children }: { id: string; label: string; hint?: string | undefined; children: ReactNode }) {
+export function FieldRow({
+  id,
+  label,
+  hint,
+  children,
+}: {
+  id: string;
+  label: string;
+  hint?: string | undefined;
+  children: ReactNode;
+}) {
   return (
     <div className="flex flex-col gap-1">
       <label htmlFor={id} className="font-semibold">
@@ -55,7 +67,14 @@ export function ChoiceButtons<T extends string>({
   return (
     <div className={className} role="radiogroup" aria-label={label}>
       {options.map((o) => (
-        <button key={o.value} type="button" role="radio" aria-checked={value === o.value} onClick={() => onChange(o.value)} className={`min-h-12 rounded-xl border-2 px-4 font-semibold ${value === o.value ? "border-accent bg-sunk" : "border-line"}`}>
+        <button
+          key={o.value}
+          type="button"
+          role="radio"
+          aria-checked={value === o.value}
+          onClick={() => onChange(o.value)}
+          className={`min-h-12 rounded-xl border-2 px-4 font-semibold ${value === o.value ? "border-accent bg-sunk" : "border-line"}`}
+        >
           {o.label}
         </button>
       ))}
@@ -64,7 +83,13 @@ export function ChoiceButtons<T extends string>({
 }
 
 /** A table's header row; an empty-looking column gets its name for screen readers only. */
-export function TableHead({ columns, cell = "px-5 py-2" }: { columns: readonly (string | { srOnly: string })[]; cell?: string }) {
+export function TableHead({
+  columns,
+  cell = "px-5 py-2",
+}: {
+  columns: readonly (string | { srOnly: string })[];
+  cell?: string;
+}) {
   return (
     <thead>
       <tr className="text-base text-muted">
@@ -79,7 +104,15 @@ export function TableHead({ columns, cell = "px-5 py-2" }: { columns: readonly (
 }
 
 /** The outcome of a save: a title and, when the server named them, the problems one per line. */
-export function ProblemNotice({ tone, title, problems }: { tone: "ok" | "danger" | "warn"; title: string; problems?: readonly string[] | undefined }) {
+export function ProblemNotice({
+  tone,
+  title,
+  problems,
+}: {
+  tone: "ok" | "danger" | "warn";
+  title: string;
+  problems?: readonly string[] | undefined;
+}) {
   return (
     <Notice tone={tone} role={tone === "danger" ? "alert" : "status"} title={title}>
       {problems?.length ? (
@@ -111,7 +144,14 @@ export function NumberField({
 }) {
   return (
     <FieldRow id={id} label={label} hint={hint}>
-      <input id={id} inputMode="decimal" className={`${INPUT_CLASS} num`} value={value} placeholder={placeholder} onChange={(e) => onChange(e.target.value)} />
+      <input
+        id={id}
+        inputMode="decimal"
+        className={`${INPUT_CLASS} num`}
+        value={value}
+        placeholder={placeholder}
+        onChange={(e) => onChange(e.target.value)}
+      />
     </FieldRow>
   );
 }

@@ -15,10 +15,26 @@ const TONES: Record<Tone, string> = {
 };
 
 export function Tag({ tone = "neutral", children }: { tone?: Tone; children: ReactNode }) {
-  return <span className={`inline-flex items-center rounded-full border-2 px-3 py-0.5 text-base font-semibold ${TONES[tone]}`}>{children}</span>;
+  return (
+    <span
+      className={`inline-flex items-center rounded-full border-2 px-3 py-0.5 text-base font-semibold ${TONES[tone]}`}
+    >
+      {children}
+    </span>
+  );
 }
 
-export function Notice({ tone = "neutral", title, children, role }: { tone?: Tone; title?: string; children?: ReactNode; role?: "alert" | "status" }) {
+export function Notice({
+  tone = "neutral",
+  title,
+  children,
+  role,
+}: {
+  tone?: Tone;
+  title?: string;
+  children?: ReactNode;
+  role?: "alert" | "status";
+}) {
   return (
     <div role={role} className={`rounded-xl border-2 bg-panel px-4 py-3 ${TONES[tone]}`}>
       {title && <p className="font-semibold">{title}</p>}

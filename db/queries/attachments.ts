@@ -2,9 +2,17 @@
 // idempotent by the id the tablet made, pointing at the object store by a server-made key.
 import { eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { attachments, type Attachment } from "@/db/schema";
+import { type Attachment, attachments } from "@/db/schema";
 
-export type NewAttachment = { id: string; fileName: string; mime: string; bytes: number; sha256: string; storageKey: string; uploadedBy: string };
+export type NewAttachment = {
+  id: string;
+  fileName: string;
+  mime: string;
+  bytes: number;
+  sha256: string;
+  storageKey: string;
+  uploadedBy: string;
+};
 
 export async function getAttachment(db: Db, { id }: { id: string }): Promise<Attachment | undefined> {
   const [row] = await db.select().from(attachments).where(eq(attachments.id, id));

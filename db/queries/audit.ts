@@ -5,39 +5,67 @@
 import "server-only";
 import { and, asc, desc, eq, gte, inArray, lte, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { cryostats, entries, facilityRules, signatures, users, type EntryRow } from "@/db/schema";
-import { flagsFor, type AuditRecord, type Flag, type FlagCode } from "@/lib/audit/flags";
-import { transferFigures, quenchFigures, type QuenchFigures, type TransferFigures } from "@/lib/audit/figures";
+import { cryostats, type EntryRow, entries, facilityRules, signatures, users } from "@/db/schema";
+import { type QuenchFigures, quenchFigures, type TransferFigures, transferFigures } from "@/lib/audit/figures";
+import { type AuditRecord, type Flag, type FlagCode, flagsFor } from "@/lib/audit/flags";
 import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import { chainOf } from "@/lib/sync/hash";
 import { chainBreaks } from "./chain";
-import { ofKind, type LogCheck, type Problem } from "./log-check";
+import { type LogCheck, ofKind, type Problem } from "./log-check";
 import { toStoredRow } from "./stored";
 
 export const AUDITED_KINDS = ["transfer", "quench", "incident"] as const;
 
 /** A finding must name a stored transfer, quench or incident of the same cryostat. */
-export async function auditFindingCheck(db: Db, e: EntryInput, batch: Map<string, EntryInput>): Promise<Problem | null> {
+export async function auditFindingCheck(
+  db: Db,
+  e: EntryInput,
+  batch: Map<string, EntryInput>,
+): Promise<Problem | null> {
   const targetId = (e.payload as { targetEntryId: string }).targetEntryId;
   const inBatch = batch.get(targetId);
-  const [row] = inBatch ? [] : await db.select({ kind: entries.kind, cryostatId: entries.cryostatId }).from(entries).where(eq(entries.id, targetId));
+  const [row] = inBatch
+    ? []
+    : await db
+        .select({ kind: entries.kind, cryostatId: entries.cryostatId })
+        .from(entries)
+        .where(eq(entries.id, targetId));
   const target = inBatch ?? row;
   if (!target) return { code: "bad_request:audit", message: "The audited record is not on the server." };
-  if (!(AUDITED_KINDS as readonly string[]).includes(target.kind)) return { code: "bad_request:audit", message: `A ${target.kind} entry is not audited; findings are for transfers, quenches and incidents.` };
-  if (target.cryostatId !== e.cryostatId) return { code: "bad_request:audit", message: "A finding belongs to the same cryostat as the record it audits." };
+  if (!(AUDITED_KINDS as readonly string[]).includes(target.kind))
+    return {
+      code: "bad_request:audit",
+      message: `A ${target.kind} entry is not audited; findings are for transfers, quenches and incidents.`,
+    };
+  if (target.cryostatId !== e.cryostatId)
+    return { code: "bad_request:audit", message: "A finding belongs to the same cryostat as the record it audits." };
   return null;
 }
 
 /** An "audited" signature signs a finding, and only with the officer's PIN or password (R5). */
-export async function auditSignatureCheck(db: Db, e: EntryInput, batch: Map<string, EntryInput>): Promise<Problem | null> {
+export async function auditSignatureCheck(
+  db: Db,
+  e: EntryInput,
+  batch: Map<string, EntryInput>,
+): Promise<Problem | null> {
   const p = e.payload as { signedEntryId: string; meaning: string; confirmedBy?: string; confirmProof?: string };
   if (p.meaning !== "audited") return null;
   const inBatch = batch.get(p.signedEntryId);
-  const [row] = inBatch ? [] : await db.select({ kind: entries.kind }).from(entries).where(eq(entries.id, p.signedEntryId));
+  const [row] = inBatch
+    ? []
+    : await db.select({ kind: entries.kind }).from(entries).where(eq(entries.id, p.signedEntryId));
   const target = inBatch ?? row;
-  if (target && target.kind !== "audit.finding") return { code: "bad_request:signature", message: "An audit signature signs the officer's finding, not the record itself." };
-  if (!p.confirmedBy || !p.confirmProof) return { code: "forbidden:signature", message: "An audit signature must be confirmed with the officer's PIN or password." };
+  if (target && target.kind !== "audit.finding")
+    return {
+      code: "bad_request:signature",
+      message: "An audit signature signs the officer's finding, not the record itself.",
+    };
+  if (!p.confirmedBy || !p.confirmProof)
+    return {
+      code: "forbidden:signature",
+      message: "An audit signature must be confirmed with the officer's PIN or password.",
+    };
   return null;
 }
 
@@ -46,8 +74,27 @@ export const auditChecks: LogCheck[] = [
   { when: ofKind("signature"), check: auditSignatureCheck },
 ];
 
-export type SignatureView = { entryId: string; signedEntryId: string; meaning: string; signerId: string; signerName: string; signerRole: string; signedAt: string; signedHash: string; confirmedBy: string | null; image: string | null };
-export type FindingView = { id: string; verdict: "acceptable" | "needs_action"; findings: string; flags: string[]; authorName: string; recordedAt: string; signatures: SignatureView[] };
+export type SignatureView = {
+  entryId: string;
+  signedEntryId: string;
+  meaning: string;
+  signerId: string;
+  signerName: string;
+  signerRole: string;
+  signedAt: string;
+  signedHash: string;
+  confirmedBy: string | null;
+  image: string | null;
+};
+export type FindingView = {
+  id: string;
+  verdict: "acceptable" | "needs_action";
+  findings: string;
+  flags: string[];
+  authorName: string;
+  recordedAt: string;
+  signatures: SignatureView[];
+};
 
 export type AuditItem = {
   entry: StoredEntry;
@@ -104,15 +151,33 @@ async function describeRecords(db: Db, rows: EntryRow[], { keyDir }: { keyDir: s
     .orderBy(asc(entries.seq));
   const findingsBy = new Map<string, FindingView[]>();
   for (const f of findingRows) {
-    const p = f.payload as { targetEntryId: string; verdict: "acceptable" | "needs_action"; findings: string; flags: string[] };
+    const p = f.payload as {
+      targetEntryId: string;
+      verdict: "acceptable" | "needs_action";
+      findings: string;
+      flags: string[];
+    };
     const list = findingsBy.get(p.targetEntryId) ?? [];
-    list.push({ id: f.id, verdict: p.verdict, findings: p.findings, flags: p.flags, authorName: people.get(f.authorId) ?? f.authorId, recordedAt: f.recordedAt.toISOString(), signatures: sigsBy.get(f.id) ?? [] });
+    list.push({
+      id: f.id,
+      verdict: p.verdict,
+      findings: p.findings,
+      flags: p.flags,
+      authorName: people.get(f.authorId) ?? f.authorId,
+      recordedAt: f.recordedAt.toISOString(),
+      signatures: sigsBy.get(f.id) ?? [],
+    });
     findingsBy.set(p.targetEntryId, list);
   }
   const breaks = await chainBreaks(db, { keyDir });
   // Previous transfer per cryostat, for the boil-off in between.
   const transfers = await db
-    .select({ id: entries.id, cryostatId: entries.cryostatId, recordedAt: entries.recordedAt, payload: entries.payload })
+    .select({
+      id: entries.id,
+      cryostatId: entries.cryostatId,
+      recordedAt: entries.recordedAt,
+      payload: entries.payload,
+    })
     .from(entries)
     .where(eq(entries.kind, "transfer"))
     .orderBy(asc(entries.recordedAt));
@@ -122,7 +187,14 @@ async function describeRecords(db: Db, rows: EntryRow[], { keyDir }: { keyDir: s
     const sigs = sigsBy.get(row.id) ?? [];
     const findings = findingsBy.get(row.id) ?? [];
     const signedFindings = findings.filter((f) => f.signatures.some((s) => s.meaning === "audited"));
-    const rec: AuditRecord = { id: row.id, kind: row.kind, cryostatId: row.cryostatId, seq: row.seq, payload: row.payload, signatures: sigs.filter((s) => s.meaning !== "audited") };
+    const rec: AuditRecord = {
+      id: row.id,
+      kind: row.kind,
+      cryostatId: row.cryostatId,
+      seq: row.seq,
+      payload: row.payload,
+      signatures: sigs.filter((s) => s.meaning !== "audited"),
+    };
     const flags = rules ? flagsFor(rec, { rules, chainBreakSeq: breaks.get(chainOf(row.cryostatId)) ?? null }) : [];
     const c = row.cryostatId ? cryos.get(row.cryostatId) : undefined;
     let figures: AuditItem["figures"] = null;
@@ -133,11 +205,20 @@ async function describeRecords(db: Db, rows: EntryRow[], { keyDir }: { keyDir: s
         const prev = idx > 0 ? mine[idx - 1] : undefined;
         figures = transferFigures(row.payload as never, {
           calibration: c?.config.reservoir?.calibration,
-          previous: prev ? { levelAfterPercent: (prev.payload as { levelAfterPercent: number }).levelAfterPercent, at: prev.recordedAt.toISOString() } : null,
+          previous: prev
+            ? {
+                levelAfterPercent: (prev.payload as { levelAfterPercent: number }).levelAfterPercent,
+                at: prev.recordedAt.toISOString(),
+              }
+            : null,
           at: row.recordedAt.toISOString(),
         });
       } else if (row.kind === "quench") {
-        figures = quenchFigures(row.payload as never, { calibration: c?.config.reservoir?.calibration, inductanceH: c?.config.magnet?.inductanceH, roomFreeVolumeM3: rules?.roomFreeVolumeM3 });
+        figures = quenchFigures(row.payload as never, {
+          calibration: c?.config.reservoir?.calibration,
+          inductanceH: c?.config.magnet?.inductanceH,
+          roomFreeVolumeM3: rules?.roomFreeVolumeM3,
+        });
       }
     } catch {
       figures = null; // figures are a help, never a reason to hide the record
@@ -146,7 +227,9 @@ async function describeRecords(db: Db, rows: EntryRow[], { keyDir }: { keyDir: s
       entry,
       cryostatName: c?.name ?? row.cryostatId ?? "Facility",
       authorName: people.get(row.authorId) ?? row.authorId,
-      peopleNames: ((row.payload as { peoplePresent?: string[] }).peoplePresent ?? []).map((id) => people.get(id) ?? id),
+      peopleNames: ((row.payload as { peoplePresent?: string[] }).peoplePresent ?? []).map(
+        (id) => people.get(id) ?? id,
+      ),
       flags,
       signatures: sigs,
       findings,
@@ -163,13 +246,22 @@ function latestOnly(rows: EntryRow[]): EntryRow[] {
 }
 
 export async function auditQueue(db: Db, { keyDir }: { keyDir: string }): Promise<AuditItem[]> {
-  const rows = latestOnly(await db.select().from(entries).where(inArray(entries.kind, [...AUDITED_KINDS])).orderBy(desc(entries.recordedAt)));
+  const rows = latestOnly(
+    await db
+      .select()
+      .from(entries)
+      .where(inArray(entries.kind, [...AUDITED_KINDS]))
+      .orderBy(desc(entries.recordedAt)),
+  );
   const items = await describeRecords(db, rows, { keyDir });
   return items.filter((i) => i.verdict === null);
 }
 
 export async function auditRecord(db: Db, { id, keyDir }: { id: string; keyDir: string }): Promise<AuditItem | null> {
-  const [row] = await db.select().from(entries).where(and(eq(entries.id, id), inArray(entries.kind, [...AUDITED_KINDS])));
+  const [row] = await db
+    .select()
+    .from(entries)
+    .where(and(eq(entries.id, id), inArray(entries.kind, [...AUDITED_KINDS])));
   if (!row) return null;
   const [item] = await describeRecords(db, [row], { keyDir });
   return item ?? null;
@@ -206,14 +298,20 @@ export async function auditTable(db: Db, f: TransferFilter & { keyDir: string })
   let items = await describeRecords(db, rows, { keyDir: f.keyDir });
   if (f.personId) {
     const pid = f.personId;
-    items = items.filter((i) => i.entry.authorId === pid || ((i.entry.payload as { peoplePresent?: string[] }).peoplePresent ?? []).includes(pid));
+    items = items.filter(
+      (i) =>
+        i.entry.authorId === pid ||
+        ((i.entry.payload as { peoplePresent?: string[] }).peoplePresent ?? []).includes(pid),
+    );
   }
   if (f.flag) items = items.filter((i) => i.flags.some((x) => x.code === f.flag));
   const dir = f.dir === "asc" ? 1 : -1;
-  const eff = (i: AuditItem) => (i.figures && "efficiencyPercent" in i.figures ? (i.figures.efficiencyPercent ?? -1) : -1);
+  const eff = (i: AuditItem) =>
+    i.figures && "efficiencyPercent" in i.figures ? (i.figures.efficiencyPercent ?? -1) : -1;
   const key: Record<NonNullable<TransferFilter["sort"]>, (a: AuditItem, b: AuditItem) => number> = {
     date: (a, b) => a.entry.recordedAt.localeCompare(b.entry.recordedAt),
-    cryostat: (a, b) => a.cryostatName.localeCompare(b.cryostatName) || a.entry.recordedAt.localeCompare(b.entry.recordedAt),
+    cryostat: (a, b) =>
+      a.cryostatName.localeCompare(b.cryostatName) || a.entry.recordedAt.localeCompare(b.entry.recordedAt),
     efficiency: (a, b) => eff(a) - eff(b),
     flags: (a, b) => a.flags.length - b.flags.length || a.entry.recordedAt.localeCompare(b.entry.recordedAt),
   };

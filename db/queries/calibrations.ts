@@ -2,11 +2,11 @@
 // the table in force per stage (the newest accepted for that cryostat and stage).
 import { randomUUID } from "node:crypto";
 import { and, desc, eq } from "drizzle-orm";
-import type { Db } from "@/db/client";
-import { calibrations, cryostats, users, type CalibrationRow } from "@/db/schema";
-import { AppError } from "@/lib/errors";
-import { CryoInputError, parseCalibration, type CalibrationTable } from "@/lib/cryo";
 import type { CalibrationUpload } from "@/components/cryo/calibration-schema";
+import type { Db } from "@/db/client";
+import { type CalibrationRow, calibrations, cryostats, users } from "@/db/schema";
+import { type CalibrationTable, CryoInputError, parseCalibration } from "@/lib/cryo";
+import { AppError } from "@/lib/errors";
 
 export interface CalibrationRecord {
   id: string;
@@ -39,7 +39,10 @@ function toRecord(row: CalibrationRow, name: string | null): CalibrationRecord {
 }
 
 /** Parse the file again (never trust the preview) and store it as the stage's table in force. */
-export async function acceptCalibration(db: Db, { upload, userId }: { upload: CalibrationUpload; userId: string }): Promise<CalibrationRecord> {
+export async function acceptCalibration(
+  db: Db,
+  { upload, userId }: { upload: CalibrationUpload; userId: string },
+): Promise<CalibrationRecord> {
   const [cryostat] = await db.select().from(cryostats).where(eq(cryostats.id, upload.cryostatId));
   if (!cryostat) throw new AppError("not_found", "cryostat", `No cryostat "${upload.cryostatId}".`);
   if (!cryostat.config.stages.some((s) => s.key === upload.stage)) {
@@ -47,9 +50,13 @@ export async function acceptCalibration(db: Db, { upload, userId }: { upload: Ca
   }
   let table: CalibrationTable;
   try {
-    table = parseCalibration(upload.text, { sensorKind: upload.sensorKind, ...(upload.columns ? { columns: upload.columns } : {}) });
+    table = parseCalibration(upload.text, {
+      sensorKind: upload.sensorKind,
+      ...(upload.columns ? { columns: upload.columns } : {}),
+    });
   } catch (e) {
-    if (e instanceof CryoInputError || e instanceof RangeError) throw new AppError("bad_request", "calibration", e.message);
+    if (e instanceof CryoInputError || e instanceof RangeError)
+      throw new AppError("bad_request", "calibration", e.message);
     throw e;
   }
   const [row] = await db

@@ -5,8 +5,15 @@ import "server-only";
 import { desc, eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { chainCheckpoints, chainHeads, entries } from "@/db/schema";
-import { verifyChain, type ChainVerdict, type TrustedCheckpoint } from "@/lib/audit/chain";
-import { appendCheckpointLog, loadOrCreateKey, readCheckpointLog, signCheckpoint, verifyCheckpoint, type Checkpoint } from "@/lib/audit/checkpoint";
+import { type ChainVerdict, type TrustedCheckpoint, verifyChain } from "@/lib/audit/chain";
+import {
+  appendCheckpointLog,
+  type Checkpoint,
+  loadOrCreateKey,
+  readCheckpointLog,
+  signCheckpoint,
+  verifyCheckpoint,
+} from "@/lib/audit/checkpoint";
 import { toStoredRow } from "./stored";
 
 /** How often a chain head is signed while the chain grows. */
@@ -18,22 +25,44 @@ export async function listChains(db: Db): Promise<{ chain: string; seq: number; 
 
 async function dbCheckpoints(db: Db, chain: string): Promise<Checkpoint[]> {
   const rows = await db.select().from(chainCheckpoints).where(eq(chainCheckpoints.chain, chain));
-  return rows.map((r) => ({ chain: r.chain, seq: r.seq, hash: r.hash, signedAt: r.signedAt.toISOString(), signature: r.signature, publicKey: r.publicKey }));
+  return rows.map((r) => ({
+    chain: r.chain,
+    seq: r.seq,
+    hash: r.hash,
+    signedAt: r.signedAt.toISOString(),
+    signature: r.signature,
+    publicKey: r.publicKey,
+  }));
 }
 
 /**
  * Sign every chain head that has moved since its last checkpoint (or whose last checkpoint is
  * older than `minAgeMs`, when given). Returns the new checkpoints.
  */
-export async function signChainHeads(db: Db, { keyDir, now = new Date(), minAgeMs = 0 }: { keyDir: string; now?: Date; minAgeMs?: number }): Promise<Checkpoint[]> {
+export async function signChainHeads(
+  db: Db,
+  { keyDir, now = new Date(), minAgeMs = 0 }: { keyDir: string; now?: Date; minAgeMs?: number },
+): Promise<Checkpoint[]> {
   const key = loadOrCreateKey(keyDir);
   const out: Checkpoint[] = [];
   for (const head of await listChains(db)) {
-    const [last] = await db.select().from(chainCheckpoints).where(eq(chainCheckpoints.chain, head.chain)).orderBy(desc(chainCheckpoints.seq)).limit(1);
+    const [last] = await db
+      .select()
+      .from(chainCheckpoints)
+      .where(eq(chainCheckpoints.chain, head.chain))
+      .orderBy(desc(chainCheckpoints.seq))
+      .limit(1);
     if (last && last.seq === head.seq && last.hash === head.hash) continue;
     if (last && now.getTime() - last.signedAt.getTime() < minAgeMs) continue;
     const cp = signCheckpoint(key, head, now.toISOString());
-    await db.insert(chainCheckpoints).values({ chain: cp.chain, seq: cp.seq, hash: cp.hash, signature: cp.signature, publicKey: cp.publicKey, signedAt: now });
+    await db.insert(chainCheckpoints).values({
+      chain: cp.chain,
+      seq: cp.seq,
+      hash: cp.hash,
+      signature: cp.signature,
+      publicKey: cp.publicKey,
+      signedAt: now,
+    });
     appendCheckpointLog(keyDir, cp);
     out.push(cp);
   }
@@ -48,7 +77,10 @@ export async function checkChain(db: Db, { chain, keyDir }: { chain: string; key
   const rows = (await db.select().from(entries).where(eq(entries.chain, chain))).map(toStoredRow);
   const [head] = await db.select().from(chainHeads).where(eq(chainHeads.chain, chain));
   const seen = new Map<string, Checkpoint>();
-  for (const cp of [...(await dbCheckpoints(db, chain)), ...readCheckpointLog(keyDir).filter((c) => c.chain === chain)]) {
+  for (const cp of [
+    ...(await dbCheckpoints(db, chain)),
+    ...readCheckpointLog(keyDir).filter((c) => c.chain === chain),
+  ]) {
     seen.set(`${cp.seq}:${cp.hash}:${cp.signature}`, cp);
   }
   const trusted: TrustedCheckpoint[] = [];
@@ -57,7 +89,10 @@ export async function checkChain(db: Db, { chain, keyDir }: { chain: string; key
     if (verifyCheckpoint(cp, [key.publicKeyHex])) trusted.push({ seq: cp.seq, hash: cp.hash, signedAt: cp.signedAt });
     else untrusted++;
   }
-  const verdict = verifyChain(chain, rows, { head: head ? { seq: head.seq, hash: head.hash } : null, checkpoints: trusted });
+  const verdict = verifyChain(chain, rows, {
+    head: head ? { seq: head.seq, hash: head.hash } : null,
+    checkpoints: trusted,
+  });
   return { ...verdict, untrustedCheckpoints: untrusted, checkedAt: new Date().toISOString() };
 }
 

@@ -2,7 +2,7 @@
 // (state, stage temperatures, helium level, field, last entry, who holds the shift).
 import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { cryostats, entries, users, type Cryostat } from "@/db/schema";
+import { type Cryostat, cryostats, entries, users } from "@/db/schema";
 import type { CryostatState } from "@/lib/schemas/cryostat";
 
 export async function listCryostats(db: Db): Promise<Cryostat[]> {
@@ -24,7 +24,13 @@ export type CryostatOverview = Cryostat & {
   onShift: { name: string; since: string } | null;
 };
 
-type Latest = { cryostatId: string | null; kind: string; payload: Record<string, unknown>; recordedAt: Date; authorId: string };
+type Latest = {
+  cryostatId: string | null;
+  kind: string;
+  payload: Record<string, unknown>;
+  recordedAt: Date;
+  authorId: string;
+};
 
 /** The latest entry per (cryostat, key) for the given kinds; `key` splits readings by stage. */
 async function latestBy(db: Db, kinds: string[], byStage: boolean): Promise<Latest[]> {
@@ -50,7 +56,11 @@ export async function roomOverview(db: Db): Promise<CryostatOverview[]> {
     latestBy(db, ["reading"], true),
     latestBy(db, ["helium.level", "transfer"], false),
     latestBy(db, ["field.setting"], false),
-    latestBy(db, ["note", "reading", "helium.level", "field.setting", "state", "handover", "transfer", "quench", "incident"], false),
+    latestBy(
+      db,
+      ["note", "reading", "helium.level", "field.setting", "state", "handover", "transfer", "quench", "incident"],
+      false,
+    ),
     latestBy(db, ["handover"], false),
     db.select({ id: users.id, name: users.name }).from(users),
   ]);
@@ -75,10 +85,18 @@ export async function roomOverview(db: Db): Promise<CryostatOverview[]> {
         })
         .sort((a, b) => order.indexOf(a.stage) - order.indexOf(b.stage)),
       helium: h && hp ? { percent: hp.percent ?? hp.levelAfterPercent ?? 0, at: h.recordedAt.toISOString() } : null,
-      field: f && fp ? { fieldT: fp.fieldT, currentA: fp.currentA, persistent: fp.persistent, at: f.recordedAt.toISOString() } : null,
-      lastEntry: l ? { kind: l.kind, at: l.recordedAt.toISOString(), authorName: nameOf.get(l.authorId) ?? l.authorId } : null,
+      field:
+        f && fp
+          ? { fieldT: fp.fieldT, currentA: fp.currentA, persistent: fp.persistent, at: f.recordedAt.toISOString() }
+          : null,
+      lastEntry: l
+        ? { kind: l.kind, at: l.recordedAt.toISOString(), authorName: nameOf.get(l.authorId) ?? l.authorId }
+        : null,
       onShift: ho
-        ? { name: nameOf.get((ho.payload as { toUserId?: string }).toUserId ?? ho.authorId) ?? "", since: ho.recordedAt.toISOString() }
+        ? {
+            name: nameOf.get((ho.payload as { toUserId?: string }).toUserId ?? ho.authorId) ?? "",
+            since: ho.recordedAt.toISOString(),
+          }
         : null,
     };
   });

@@ -4,8 +4,8 @@ import { createHash } from "node:crypto";
 import { and, desc, eq, getTableColumns, gt, inArray, lt, notInArray, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { chainHeads, cryostats, devices, entries, users } from "@/db/schema";
+import { mayRead, maySign, mayWrite, readableKindsExcluded } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { mayRead, mayWrite, maySign, readableKindsExcluded } from "@/lib/auth/permissions";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { chainOf, genesisHash, linkText, recordHash } from "@/lib/sync/hash";
 import { checkedAgainstLog, runProjectors, validateAgainstLog } from "./projections";
@@ -48,18 +48,28 @@ export async function appendEntries(
 
     const ids = batch.map((e) => e.id);
     // The ids as one JSON parameter, not one bound parameter each (a push may carry 2,000).
-    const existing = await t.select().from(entries).where(sql`${entries.id} in (select json_array_elements_text(${JSON.stringify(ids)}::json)::uuid)`);
+    const existing = await t
+      .select()
+      .from(entries)
+      .where(sql`${entries.id} in (select json_array_elements_text(${JSON.stringify(ids)}::json)::uuid)`);
     const existingById = new Map(existing.map((r) => [r.id, r]));
 
     const deviceIds = [...new Set(batch.map((e) => e.deviceId))];
     const revoked = new Set(
-      (await t.select({ id: devices.id, revokedAt: devices.revokedAt }).from(devices).where(inArray(devices.id, deviceIds)))
+      (
+        await t
+          .select({ id: devices.id, revokedAt: devices.revokedAt })
+          .from(devices)
+          .where(inArray(devices.id, deviceIds))
+      )
         .filter((d) => d.revokedAt)
         .map((d) => d.id),
     );
     const knownCryostats = new Set((await t.select({ id: cryostats.id }).from(cryostats)).map((c) => c.id));
 
-    const [{ maxSeq } = { maxSeq: 0 }] = await t.select({ maxSeq: sql<number>`coalesce(max(${entries.seq}), 0)::int` }).from(entries);
+    const [{ maxSeq } = { maxSeq: 0 }] = await t
+      .select({ maxSeq: sql<number>`coalesce(max(${entries.seq}), 0)::int` })
+      .from(entries);
     let seq = Number(maxSeq);
     const heads = new Map((await t.select().from(chainHeads)).map((h) => [h.chain, h.hash]));
     const touched = new Map<string, { seq: number; hash: string }>();
@@ -71,22 +81,36 @@ export async function appendEntries(
       const reject = (code: string, message: string) => rejected.push({ id: e.id, code, message });
       const stored = existingById.get(e.id);
       if (stored) {
-        if (recordHash(toStoredRow(stored)) === recordHash(e)) accepted.push({ id: e.id, seq: stored.seq, hash: stored.hash, prevHash: stored.prevHash, receivedAt: stored.receivedAt.toISOString() });
+        if (recordHash(toStoredRow(stored)) === recordHash(e))
+          accepted.push({
+            id: e.id,
+            seq: stored.seq,
+            hash: stored.hash,
+            prevHash: stored.prevHash,
+            receivedAt: stored.receivedAt.toISOString(),
+          });
         else reject("conflict:entry", "Another entry with this id is already stored with different content.");
         continue;
       }
       const dup = seenInBatch.get(e.id);
       if (dup) {
-        if (recordHash(dup) !== recordHash(e)) reject("conflict:entry", "The batch holds two different entries with this id.");
+        if (recordHash(dup) !== recordHash(e))
+          reject("conflict:entry", "The batch holds two different entries with this id.");
         continue; // answered with the first copy below
       }
       const actor = e.authorId === user.id ? user : importAuthors?.get(e.authorId);
       if (!actor) {
-        reject("forbidden:author", "This entry was written by another user; it can only be sent from that user's session.");
+        reject(
+          "forbidden:author",
+          "This entry was written by another user; it can only be sent from that user's session.",
+        );
         continue;
       }
       if (revoked.has(e.deviceId)) {
-        reject("forbidden:device", "This tablet has been withdrawn by the facility admin; its entries are not accepted.");
+        reject(
+          "forbidden:device",
+          "This tablet has been withdrawn by the facility admin; its entries are not accepted.",
+        );
         continue;
       }
       if (!mayWrite(actor.role, e.kind)) {
@@ -115,7 +139,9 @@ export async function appendEntries(
       const prevHash = touched.get(chain)?.hash ?? heads.get(chain) ?? genesisHash(chain);
       const at = receivedAt.toISOString();
       // node's native SHA-256 (a tenth of the pure-JS one's time; a push may carry 2,000 entries).
-      const hash = createHash("sha256").update(linkText(prevHash, e, seq, at)).digest("hex");
+      const hash = createHash("sha256")
+        .update(linkText(prevHash, e, seq, at))
+        .digest("hex");
       touched.set(chain, { seq, hash });
       seenInBatch.set(e.id, e);
       rows.push({ ...e, recordedAt: new Date(e.recordedAt), chain, seq, receivedAt, prevHash, hash });
@@ -126,7 +152,9 @@ export async function appendEntries(
     // them (json_populate_recordset), which costs far less than thousands of bound parameters.
     if (rows.length) {
       const records = JSON.stringify(rows.map(toColumns));
-      await t.execute(sql`insert into ${entries} select * from json_populate_recordset(null::${entries}, ${records}::json) on conflict (id) do nothing`);
+      await t.execute(
+        sql`insert into ${entries} select * from json_populate_recordset(null::${entries}, ${records}::json) on conflict (id) do nothing`,
+      );
     }
     for (const [chain, head] of touched) {
       await t
@@ -148,7 +176,12 @@ export async function appendEntries(
 /** A cryostat's logbook, newest first, paged by seq. */
 export async function listCryostatEntries(
   db: Db,
-  { cryostatId, role, cursor, limit = 30 }: { cryostatId: string; role: SessionUser["role"]; cursor?: number; limit?: number },
+  {
+    cryostatId,
+    role,
+    cursor,
+    limit = 30,
+  }: { cryostatId: string; role: SessionUser["role"]; cursor?: number; limit?: number },
 ) {
   const hidden = readableKindsExcluded(role);
   const rows = await db
@@ -166,13 +199,27 @@ export async function listCryostatEntries(
   const page = rows.slice(0, limit).map(toStoredRow);
   const last = page.at(-1);
   const authorIds = [...new Set(page.map((e) => e.authorId))];
-  const names = authorIds.length ? await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, authorIds)) : [];
-  return { entries: page, names: Object.fromEntries(names.map((n) => [n.id, n.name])), nextCursor: rows.length > limit && last ? last.seq : null };
+  const names = authorIds.length
+    ? await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, authorIds))
+    : [];
+  return {
+    entries: page,
+    names: Object.fromEntries(names.map((n) => [n.id, n.name])),
+    nextCursor: rows.length > limit && last ? last.seq : null,
+  };
 }
 
 /** Entries after a cursor, oldest first, filtered to what the role may read. */
-export async function pullEntries(db: Db, { since, role, limit = 500 }: { since: number; role: SessionUser["role"]; limit?: number }) {
-  const rows = await db.select().from(entries).where(gt(entries.seq, since)).orderBy(entries.seq).limit(limit + 1);
+export async function pullEntries(
+  db: Db,
+  { since, role, limit = 500 }: { since: number; role: SessionUser["role"]; limit?: number },
+) {
+  const rows = await db
+    .select()
+    .from(entries)
+    .where(gt(entries.seq, since))
+    .orderBy(entries.seq)
+    .limit(limit + 1);
   const page = rows.slice(0, limit);
   const last = page.at(-1);
   return {

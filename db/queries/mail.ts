@@ -5,10 +5,16 @@
 import "server-only";
 import { and, asc, desc, eq, gt, inArray, isNull, lt, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { cryostats, entries, facilityRules, mailOutbox, signatures, users, type Role } from "@/db/schema";
+import { cryostats, entries, facilityRules, mailOutbox, type Role, signatures, users } from "@/db/schema";
 import { boilOffRate, forecastMinimumLevel, litresFromLevel } from "@/lib/cryo";
 import { env } from "@/lib/env";
-import { findingNeedsActionMail, handoverWaitingMail, heliumForecastMail, quenchMail, type MailMessage } from "@/lib/mail/messages";
+import {
+  findingNeedsActionMail,
+  handoverWaitingMail,
+  heliumForecastMail,
+  type MailMessage,
+  quenchMail,
+} from "@/lib/mail/messages";
 import type { MailTransport } from "@/lib/mail/transport";
 
 /** Queue a message; false when that event's message was already queued. */
@@ -24,8 +30,24 @@ export async function enqueueMail(db: Db, m: MailMessage): Promise<boolean> {
 
 async function emailsOf(db: Db, { roles, ids }: { roles?: Role[]; ids?: string[] }): Promise<string[]> {
   const out: string[] = [];
-  if (roles?.length) out.push(...(await db.select({ email: users.email }).from(users).where(and(inArray(users.role, roles), eq(users.active, true)))).map((u) => u.email));
-  if (ids?.length) out.push(...(await db.select({ email: users.email }).from(users).where(and(inArray(users.id, ids), eq(users.active, true)))).map((u) => u.email));
+  if (roles?.length)
+    out.push(
+      ...(
+        await db
+          .select({ email: users.email })
+          .from(users)
+          .where(and(inArray(users.role, roles), eq(users.active, true)))
+      ).map((u) => u.email),
+    );
+  if (ids?.length)
+    out.push(
+      ...(
+        await db
+          .select({ email: users.email })
+          .from(users)
+          .where(and(inArray(users.id, ids), eq(users.active, true)))
+      ).map((u) => u.email),
+    );
   return [...new Set(out)];
 }
 
@@ -46,7 +68,13 @@ type Row = typeof entries.$inferInsert;
 export async function mailProjector(db: Db, rows: Row[]): Promise<void> {
   for (const r of rows) {
     if (r.kind === "quench") {
-      const p = r.payload as { at: string; fieldT: number; heliumLostLitres?: number; oxygenLowestPercent?: number; actions: string };
+      const p = r.payload as {
+        at: string;
+        fieldT: number;
+        heliumLostLitres?: number;
+        oxygenLowestPercent?: number;
+        actions: string;
+      };
       await enqueueMail(
         db,
         quenchMail({
@@ -82,14 +110,24 @@ export async function mailProjector(db: Db, rows: Row[]): Promise<void> {
 }
 
 /** Handovers to a named person that nobody has accepted yet (recent ones only). */
-export async function queueWaitingHandovers(db: Db, { now = new Date(), withinMs = 2 * 86_400_000, graceMs = 15 * 60_000 } = {}): Promise<number> {
+export async function queueWaitingHandovers(
+  db: Db,
+  { now = new Date(), withinMs = 2 * 86_400_000, graceMs = 15 * 60_000 } = {},
+): Promise<number> {
   const since = new Date(now.getTime() - withinMs);
   // A grace period: most handovers are accepted on the spot, and those need no mail.
   const until = new Date(now.getTime() - graceMs);
   const list = await db
     .select()
     .from(entries)
-    .where(and(eq(entries.kind, "handover"), gt(entries.recordedAt, since), lt(entries.recordedAt, until), sql`${entries.payload} ? 'toUserId'`))
+    .where(
+      and(
+        eq(entries.kind, "handover"),
+        gt(entries.recordedAt, since),
+        lt(entries.recordedAt, until),
+        sql`${entries.payload} ? 'toUserId'`,
+      ),
+    )
     .orderBy(asc(entries.seq));
   let queued = 0;
   for (const h of list) {
@@ -102,7 +140,14 @@ export async function queueWaitingHandovers(db: Db, { now = new Date(), withinMs
     const p = h.payload as { toUserId: string; note: string };
     const ok = await enqueueMail(
       db,
-      handoverWaitingMail({ handoverId: h.id, cryostatName: await cryostatName(db, h.cryostatId), from: await nameOf(db, h.authorId), at: h.recordedAt.toISOString(), note: p.note, to: await emailsOf(db, { ids: [p.toUserId] }) }),
+      handoverWaitingMail({
+        handoverId: h.id,
+        cryostatName: await cryostatName(db, h.cryostatId),
+        from: await nameOf(db, h.authorId),
+        at: h.recordedAt.toISOString(),
+        note: p.note,
+        to: await emailsOf(db, { ids: [p.toUserId] }),
+      }),
     );
     if (ok) queued++;
   }
@@ -127,13 +172,30 @@ export async function queueHeliumForecasts(db: Db, { now = new Date() } = {}): P
     const levels = await db
       .select()
       .from(entries)
-      .where(and(eq(entries.cryostatId, c.id), eq(entries.kind, "helium.level"), lastTransfer ? gt(entries.recordedAt, lastTransfer.recordedAt) : undefined))
+      .where(
+        and(
+          eq(entries.cryostatId, c.id),
+          eq(entries.kind, "helium.level"),
+          lastTransfer ? gt(entries.recordedAt, lastTransfer.recordedAt) : undefined,
+        ),
+      )
       .orderBy(asc(entries.recordedAt));
     if (!levels.length) continue;
     const points: { timeMs: number; litres: number }[] = [];
     try {
-      if (lastTransfer) points.push({ timeMs: lastTransfer.recordedAt.getTime(), litres: litresFromLevel((lastTransfer.payload as { levelAfterPercent: number }).levelAfterPercent, reservoir.calibration) });
-      for (const l of levels) points.push({ timeMs: l.recordedAt.getTime(), litres: litresFromLevel((l.payload as { percent: number }).percent, reservoir.calibration) });
+      if (lastTransfer)
+        points.push({
+          timeMs: lastTransfer.recordedAt.getTime(),
+          litres: litresFromLevel(
+            (lastTransfer.payload as { levelAfterPercent: number }).levelAfterPercent,
+            reservoir.calibration,
+          ),
+        });
+      for (const l of levels)
+        points.push({
+          timeMs: l.recordedAt.getTime(),
+          litres: litresFromLevel((l.payload as { percent: number }).percent, reservoir.calibration),
+        });
       const rate = boilOffRate(points);
       const minLitres = litresFromLevel(minimumPercent, reservoir.calibration);
       const f = forecastMinimumLevel(rate, minLitres, now.getTime());
@@ -161,8 +223,17 @@ export async function queueHeliumForecasts(db: Db, { now = new Date() } = {}): P
 }
 
 /** Send what is queued; a failure is written on the row and retried on the next tick. */
-export async function deliverPending(db: Db, transport: MailTransport, { limit = 50 } = {}): Promise<{ sent: number; failed: number }> {
-  const pending = await db.select().from(mailOutbox).where(isNull(mailOutbox.sentAt)).orderBy(asc(mailOutbox.createdAt)).limit(limit);
+export async function deliverPending(
+  db: Db,
+  transport: MailTransport,
+  { limit = 50 } = {},
+): Promise<{ sent: number; failed: number }> {
+  const pending = await db
+    .select()
+    .from(mailOutbox)
+    .where(isNull(mailOutbox.sentAt))
+    .orderBy(asc(mailOutbox.createdAt))
+    .limit(limit);
   let sent = 0;
   let failed = 0;
   for (const m of pending) {
@@ -171,7 +242,10 @@ export async function deliverPending(db: Db, transport: MailTransport, { limit =
       await db.update(mailOutbox).set({ sentAt: new Date(), error: null }).where(eq(mailOutbox.id, m.id));
       sent++;
     } catch (e) {
-      await db.update(mailOutbox).set({ error: String((e as Error).message).slice(0, 500) }).where(eq(mailOutbox.id, m.id));
+      await db
+        .update(mailOutbox)
+        .set({ error: String((e as Error).message).slice(0, 500) })
+        .where(eq(mailOutbox.id, m.id));
       failed++;
     }
   }

@@ -4,17 +4,18 @@
 // looks at) and projectors.
 import { eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { entries, signatures, type EntryRow } from "@/db/schema";
+import { type EntryRow, entries, signatures } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { recordHash } from "@/lib/sync/hash";
 import { auditChecks } from "./audit";
-import { ofKind, type LogCheck, type Problem } from "./log-check";
+import { type LogCheck, ofKind, type Problem } from "./log-check";
 import { mailProjector } from "./mail";
 import { projectRuns, runChecks } from "./runs";
 import { toStoredRow } from "./stored";
 
 export type { Problem };
+
 type Check = LogCheck["check"];
 type Projector = (db: Db, rows: (typeof entries.$inferInsert)[]) => Promise<void>;
 
@@ -28,11 +29,19 @@ async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Pr
 /** A signature must name a stored record and carry the hash of exactly that record's content. */
 const signatureBinding: Check = async (db, e, batch, user) => {
   const p = e.payload as { signedEntryId: string; signedHash: string; signerRole: string };
-  if (p.signerRole !== user.role) return { code: "forbidden:signature", message: "The signer's role does not match the signed-in user's role." };
+  if (p.signerRole !== user.role)
+    return { code: "forbidden:signature", message: "The signer's role does not match the signed-in user's role." };
   const target = await findEntry(db, p.signedEntryId, batch);
-  if (!target) return { code: "bad_request:signature", message: "The signed record is not on the server; send it first (or together)." };
+  if (!target)
+    return {
+      code: "bad_request:signature",
+      message: "The signed record is not on the server; send it first (or together).",
+    };
   if (recordHash(target) !== p.signedHash) {
-    return { code: "conflict:signature", message: "The signature does not match the record's content: the record was changed after signing." };
+    return {
+      code: "conflict:signature",
+      message: "The signature does not match the record's content: the record was changed after signing.",
+    };
   }
   return null;
 };
@@ -41,7 +50,11 @@ const signatureBinding: Check = async (db, e, batch, user) => {
 const correctionTarget: Check = async (db, e, batch) => {
   const target = await findEntry(db, e.supersedes!, batch);
   if (!target) return { code: "bad_request:supersedes", message: "The corrected entry is not on the server." };
-  if (target.cryostatId !== e.cryostatId) return { code: "bad_request:supersedes", message: "A correction must belong to the same cryostat as the entry it corrects." };
+  if (target.cryostatId !== e.cryostatId)
+    return {
+      code: "bad_request:supersedes",
+      message: "A correction must belong to the same cryostat as the entry it corrects.",
+    };
   return null;
 };
 
@@ -58,7 +71,14 @@ const projectors: Projector[] = [
       const p = r.payload as { signedEntryId: string; meaning: string; signedHash: string };
       await db
         .insert(signatures)
-        .values({ entryId: r.id, signedEntryId: p.signedEntryId, signerId: r.authorId, meaning: p.meaning, signedHash: p.signedHash, signedAt: r.recordedAt.toISOString() })
+        .values({
+          entryId: r.id,
+          signedEntryId: p.signedEntryId,
+          signerId: r.authorId,
+          meaning: p.meaning,
+          signedHash: p.signedHash,
+          signedAt: r.recordedAt.toISOString(),
+        })
         .onConflictDoNothing();
     }
   },
@@ -72,7 +92,12 @@ export function checkedAgainstLog(e: EntryInput): boolean {
   return checks.some((c) => c.when(e));
 }
 
-export async function validateAgainstLog(db: Db, e: EntryInput, batch: Map<string, EntryInput>, user: SessionUser): Promise<Problem | null> {
+export async function validateAgainstLog(
+  db: Db,
+  e: EntryInput,
+  batch: Map<string, EntryInput>,
+  user: SessionUser,
+): Promise<Problem | null> {
   for (const { when, check } of checks) {
     if (!when(e)) continue;
     const problem = await check(db, e, batch, user);

@@ -9,7 +9,7 @@ import { attachments, facilityRules, users } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { AppError } from "@/lib/errors";
 import { diffRules } from "@/lib/safety/rules-diff";
-import { facilityRulesValuesSchema, type FacilityRulesValues } from "@/lib/schemas/rules";
+import { type FacilityRulesValues, facilityRulesValuesSchema } from "@/lib/schemas/rules";
 import { appendEntries } from "./entries";
 
 export type RulesDocument = { id: string; fileName: string; bytes: number; sha256: string; uploadedAt: string };
@@ -33,7 +33,14 @@ export async function getRules(db: Db): Promise<RulesInForce | null> {
   let document: RulesDocument | null = null;
   if (row.r.documentAttachmentId) {
     const [a] = await db.select().from(attachments).where(eq(attachments.id, row.r.documentAttachmentId));
-    if (a) document = { id: a.id, fileName: a.fileName, bytes: a.bytes, sha256: a.sha256, uploadedAt: a.createdAt.toISOString() };
+    if (a)
+      document = {
+        id: a.id,
+        fileName: a.fileName,
+        bytes: a.bytes,
+        sha256: a.sha256,
+        uploadedAt: a.createdAt.toISOString(),
+      };
   }
   return {
     version: row.r.version,
@@ -54,7 +61,12 @@ export async function requireRules(db: Db): Promise<RulesInForce> {
 
 export async function rulesHistory(db: Db) {
   return db
-    .select({ version: facilityRules.version, changedBy: users.name, changedAt: facilityRules.changedAt, documentAttachmentId: facilityRules.documentAttachmentId })
+    .select({
+      version: facilityRules.version,
+      changedBy: users.name,
+      changedAt: facilityRules.changedAt,
+      documentAttachmentId: facilityRules.documentAttachmentId,
+    })
     .from(facilityRules)
     .leftJoin(users, eq(users.id, facilityRules.changedBy))
     .orderBy(desc(facilityRules.version));
@@ -67,24 +79,39 @@ export async function rulesHistory(db: Db) {
 export async function changeRules(
   db: Db,
   user: SessionUser,
-  input: { values: FacilityRulesValues; reason: string; expectedVersion: number | null; documentAttachmentId?: string | null; deviceId?: string },
+  input: {
+    values: FacilityRulesValues;
+    reason: string;
+    expectedVersion: number | null;
+    documentAttachmentId?: string | null;
+    deviceId?: string;
+  },
 ): Promise<RulesInForce> {
   const values = facilityRulesValuesSchema.parse(input.values);
   await db.transaction(async (tx) => {
     const t = tx as unknown as Db;
     const current = await getRules(t);
     if ((current?.version ?? null) !== input.expectedVersion) {
-      throw new AppError("conflict", "rules", "Someone else changed the rules meanwhile. Reload to see their version, then make your change again.");
+      throw new AppError(
+        "conflict",
+        "rules",
+        "Someone else changed the rules meanwhile. Reload to see their version, then make your change again.",
+      );
     }
-    const documentAttachmentId = input.documentAttachmentId === undefined ? (current?.document?.id ?? null) : input.documentAttachmentId;
+    const documentAttachmentId =
+      input.documentAttachmentId === undefined ? (current?.document?.id ?? null) : input.documentAttachmentId;
     if (documentAttachmentId) {
-      const [a] = await t.select({ mime: attachments.mime }).from(attachments).where(eq(attachments.id, documentAttachmentId));
+      const [a] = await t
+        .select({ mime: attachments.mime })
+        .from(attachments)
+        .where(eq(attachments.id, documentAttachmentId));
       if (!a) throw new AppError("bad_request", "rules", "The rules document was not found; upload it again.");
       if (a.mime !== "application/pdf") throw new AppError("unsupported", "rules", "The rules document must be a PDF.");
     }
     const changes = diffRules(current?.values ?? null, values);
     const documentChanged = documentAttachmentId !== (current?.document?.id ?? null);
-    if (!changes.length && !documentChanged) throw new AppError("bad_request", "rules", "Nothing changed: the values are the same as the ones in force.");
+    if (!changes.length && !documentChanged)
+      throw new AppError("bad_request", "rules", "Nothing changed: the values are the same as the ones in force.");
     const version = (current?.version ?? 0) + 1;
     const res = await appendEntries(t, user, [
       {
@@ -92,7 +119,14 @@ export async function changeRules(
         cryostatId: null,
         runId: null,
         kind: "rules.change",
-        payload: { version, reason: input.reason, changes, values, documentAttachmentId, previousDocumentAttachmentId: current?.document?.id ?? null },
+        payload: {
+          version,
+          reason: input.reason,
+          changes,
+          values,
+          documentAttachmentId,
+          previousDocumentAttachmentId: current?.document?.id ?? null,
+        },
         authorId: user.id,
         deviceId: input.deviceId ?? "server-admin",
         recordedAt: new Date().toISOString(),

@@ -3,14 +3,14 @@
 // against the log, and reading a run with its entries for the run record.
 import { and, desc, eq, inArray, or } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { cryostats, entries, procedureTemplates, runs, users, type Run } from "@/db/schema";
+import { cryostats, entries, procedureTemplates, type Run, runs, users } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
+import { readingOutOfRange } from "@/lib/procedures/state";
 import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
 import type { RunStartPayload, RunStepPayload } from "@/lib/schemas/run";
 import type { TemplateStep } from "@/lib/schemas/template";
-import { readingOutOfRange } from "@/lib/procedures/state";
 import { verifyConfirmation } from "@/lib/signing/proof";
-import { ofKind, type LogCheck, type Problem } from "./log-check";
+import { type LogCheck, ofKind, type Problem } from "./log-check";
 import { toStoredRow } from "./stored";
 
 type Check = LogCheck["check"];
@@ -32,7 +32,8 @@ const runStartCheck: Check = async (db, e) => {
   if (e.runId !== null && e.runId !== e.id) return bad("A run's start entry carries no runId, or its own id.");
   if (!e.cryostatId) return bad("A run belongs to a cryostat.");
   const [t] = await db.select().from(procedureTemplates).where(eq(procedureTemplates.id, p.templateId));
-  if (!t || t.key !== p.templateKey || t.version !== p.templateVersion) return bad("The procedure template version named by this run is not on the server.");
+  if (!t || t.key !== p.templateKey || t.version !== p.templateVersion)
+    return bad("The procedure template version named by this run is not on the server.");
   const [c] = await db.select({ kind: cryostats.kind }).from(cryostats).where(eq(cryostats.id, e.cryostatId));
   if (c && !t.cryostatKinds.includes(c.kind)) return bad(`"${t.title}" is not written for this kind of cryostat.`);
   return null;
@@ -42,11 +43,15 @@ const runStartCheck: Check = async (db, e) => {
 const runEntryCheck: Check = async (db, e, batch) => {
   if (!e.runId) return bad("A procedure entry must name its run.");
   const start = await findEntry(db, e.runId, batch);
-  if (!start || start.kind !== "run.start") return bad("The run this entry belongs to has not reached the server; send its start first.");
+  if (!start || start.kind !== "run.start")
+    return bad("The run this entry belongs to has not reached the server; send its start first.");
   if (start.cryostatId !== e.cryostatId) return bad("A procedure entry must belong to the run's cryostat.");
   if (e.kind !== "run.step") return null;
   const sp = start.payload as RunStartPayload;
-  const [t] = await db.select({ steps: procedureTemplates.steps }).from(procedureTemplates).where(eq(procedureTemplates.id, sp.templateId));
+  const [t] = await db
+    .select({ steps: procedureTemplates.steps })
+    .from(procedureTemplates)
+    .where(eq(procedureTemplates.id, sp.templateId));
   const p = e.payload as RunStepPayload;
   const step = t?.steps.find((s: TemplateStep) => s.id === p.stepId);
   if (!step) return bad(`Step "${p.stepId}" is not in version ${sp.templateVersion} of this procedure.`);
@@ -55,13 +60,19 @@ const runEntryCheck: Check = async (db, e, batch) => {
     if (p.unit !== step.unit) return bad(`This reading is taken in ${step.unit}.`);
     const out = readingOutOfRange(step, p.value) !== null;
     // Re-checked here so that the flag on a record can be trusted without the template at hand.
-    if (out !== p.outOfRange) return bad(out ? "This reading is outside the step's range but is not flagged." : "This reading is flagged out of range but is within the step's range.");
+    if (out !== p.outOfRange)
+      return bad(
+        out
+          ? "This reading is outside the step's range but is not flagged."
+          : "This reading is flagged out of range but is within the step's range.",
+      );
     if (out && !p.comment?.trim()) return bad("An out-of-range reading needs a comment saying what was done.");
   }
   if (e.supersedes) {
     const original = await findEntry(db, e.supersedes, batch);
     const op = original?.payload as { stepId?: string } | undefined;
-    if (original && (original.kind !== "run.step" || op?.stepId !== p.stepId)) return bad("A correction of a step must replace an entry of the same step.");
+    if (original && (original.kind !== "run.step" || op?.stepId !== p.stepId))
+      return bad("A correction of a step must replace an entry of the same step.");
   }
   return null;
 };
@@ -72,13 +83,27 @@ const runEntryCheck: Check = async (db, e, batch) => {
  * are shown as "identity not confirmed".
  */
 const signatureConfirmation: Check = async (db, e, batch) => {
-  const p = e.payload as { signedEntryId: string; signedHash: string; meaning: "performed"; confirmedBy?: "pin" | "password"; confirmProof?: string };
+  const p = e.payload as {
+    signedEntryId: string;
+    signedHash: string;
+    meaning: "performed";
+    confirmedBy?: "pin" | "password";
+    confirmProof?: string;
+  };
   const target = await findEntry(db, p.signedEntryId, batch);
   const needsProof = Boolean(target && target.kind.startsWith("run."));
   if (!p.confirmedBy || !p.confirmProof) {
-    return needsProof ? { code: "forbidden:signature", message: "A signature on a procedure record must be confirmed with the signer's PIN or password." } : null;
+    return needsProof
+      ? {
+          code: "forbidden:signature",
+          message: "A signature on a procedure record must be confirmed with the signer's PIN or password.",
+        }
+      : null;
   }
-  const [signer] = await db.select({ pinHash: users.pinHash, passwordHash: users.passwordHash }).from(users).where(eq(users.id, e.authorId));
+  const [signer] = await db
+    .select({ pinHash: users.pinHash, passwordHash: users.passwordHash })
+    .from(users)
+    .where(eq(users.id, e.authorId));
   if (!signer) return { code: "forbidden:signature", message: "Unknown signer." };
   const ok = verifyConfirmation(
     { signedEntryId: p.signedEntryId, signedHash: p.signedHash, meaning: p.meaning, signerId: e.authorId },
@@ -86,7 +111,12 @@ const signatureConfirmation: Check = async (db, e, batch) => {
     p.confirmProof,
     { pinRecord: signer.pinHash, passwordHash: signer.passwordHash },
   );
-  return ok ? null : { code: "forbidden:signature", message: `The ${p.confirmedBy === "pin" ? "PIN" : "password"} confirmation of this signature does not check out (changed since, or not the signer's).` };
+  return ok
+    ? null
+    : {
+        code: "forbidden:signature",
+        message: `The ${p.confirmedBy === "pin" ? "PIN" : "password"} confirmation of this signature does not check out (changed since, or not the signer's).`,
+      };
 };
 
 export const runChecks: LogCheck[] = [
@@ -102,7 +132,15 @@ export async function projectRuns(db: Db, rows: Row[]): Promise<void> {
       const p = r.payload as RunStartPayload;
       await db
         .insert(runs)
-        .values({ id: r.id, cryostatId: r.cryostatId, templateId: p.templateId, title: p.title, status: "open", startedBy: r.authorId, startedAt: r.recordedAt.toISOString() })
+        .values({
+          id: r.id,
+          cryostatId: r.cryostatId,
+          templateId: p.templateId,
+          title: p.title,
+          status: "open",
+          startedBy: r.authorId,
+          startedAt: r.recordedAt.toISOString(),
+        })
         .onConflictDoNothing();
     } else if ((r.kind === "run.abort" || r.kind === "run.complete") && r.runId) {
       await db
@@ -115,7 +153,10 @@ export async function projectRuns(db: Db, rows: Row[]): Promise<void> {
 
 export type RunListItem = Run & { templateKey: string; templateVersion: number; startedByName: string };
 
-export async function listRuns(db: Db, { cryostatId, status }: { cryostatId?: string; status?: Run["status"] } = {}): Promise<RunListItem[]> {
+export async function listRuns(
+  db: Db,
+  { cryostatId, status }: { cryostatId?: string; status?: Run["status"] } = {},
+): Promise<RunListItem[]> {
   const rows = await db
     .select({ run: runs, key: procedureTemplates.key, version: procedureTemplates.version, name: users.name })
     .from(runs)
@@ -124,7 +165,12 @@ export async function listRuns(db: Db, { cryostatId, status }: { cryostatId?: st
     .where(and(cryostatId ? eq(runs.cryostatId, cryostatId) : undefined, status ? eq(runs.status, status) : undefined))
     .orderBy(desc(runs.startedAt))
     .limit(200);
-  return rows.map((r) => ({ ...r.run, templateKey: r.key, templateVersion: r.version, startedByName: r.name ?? r.run.startedBy }));
+  return rows.map((r) => ({
+    ...r.run,
+    templateKey: r.key,
+    templateVersion: r.version,
+    startedByName: r.name ?? r.run.startedBy,
+  }));
 }
 
 /** A run with every entry that belongs to it (steps, signatures, corrections) and its pinned template. */
@@ -139,13 +185,18 @@ export async function getRunRecord(db: Db, { runId }: { runId: string }) {
     .orderBy(entries.seq);
   const list: StoredEntry[] = rows.map(toStoredRow);
   const ids = [...new Set(list.map((e) => e.authorId))];
-  const names = ids.length ? await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids)) : [];
+  const names = ids.length
+    ? await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids))
+    : [];
   return { run, template: template!, entries: list, names: Object.fromEntries(names.map((n) => [n.id, n.name])) };
 }
 
 /** Signing secrets of one user (server only): the stored PIN record and password hash. */
 export async function signingSecrets(db: Db, { userId }: { userId: string }) {
-  const [u] = await db.select({ email: users.email, pinHash: users.pinHash, passwordHash: users.passwordHash, active: users.active }).from(users).where(eq(users.id, userId));
+  const [u] = await db
+    .select({ email: users.email, pinHash: users.pinHash, passwordHash: users.passwordHash, active: users.active })
+    .from(users)
+    .where(eq(users.id, userId));
   return u;
 }
 

@@ -4,7 +4,7 @@
 // pure so the tablet could build the same series from its local store.
 import { and, asc, eq, inArray } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { entries, type Cryostat } from "@/db/schema";
+import { type Cryostat, entries } from "@/db/schema";
 import { litresFromLevel } from "@/lib/cryo";
 
 export interface SeriesEntry {
@@ -43,7 +43,11 @@ function kelvin(value: unknown, unit: unknown): number | undefined {
   return undefined;
 }
 
-export function buildSeries(cryostat: Pick<Cryostat, "id" | "config">, rows: readonly SeriesEntry[], now = Date.now()): CryostatSeries {
+export function buildSeries(
+  cryostat: Pick<Cryostat, "id" | "config">,
+  rows: readonly SeriesEntry[],
+  now = Date.now(),
+): CryostatSeries {
   const superseded = new Set(rows.map((r) => r.supersedes).filter((s): s is string => Boolean(s)));
   const live = rows
     .filter((r) => !superseded.has(r.id))
@@ -51,7 +55,9 @@ export function buildSeries(cryostat: Pick<Cryostat, "id" | "config">, rows: rea
     .sort((a, b) => a.t - b.t);
 
   const { config } = cryostat;
-  const stageMap = new Map(config.stages.map((s) => [s.key, { key: s.key, label: s.label, points: [] as { t: number; k: number }[] }]));
+  const stageMap = new Map(
+    config.stages.map((s) => [s.key, { key: s.key, label: s.label, points: [] as { t: number; k: number }[] }]),
+  );
   const reservoir = config.reservoir;
   const litres = (percent: number): number | null => {
     if (!reservoir) return null;
@@ -85,9 +91,11 @@ export function buildSeries(cryostat: Pick<Cryostat, "id" | "config">, rows: rea
       // "before" is left out: the level logged that day may already be after it.
       const before = num(p.levelBeforePercent);
       const after = num(p.levelAfterPercent);
-      if (before !== undefined && r.kind === "transfer") levels.push({ t: r.t - 1000, percent: before, litres: litres(before) });
+      if (before !== undefined && r.kind === "transfer")
+        levels.push({ t: r.t - 1000, percent: before, litres: litres(before) });
       if (after !== undefined) levels.push({ t: r.t, percent: after, litres: litres(after) });
-      if (r.kind === "transfer" && before !== undefined && after !== undefined) transfers.push({ t: r.t, beforePercent: before, afterPercent: after });
+      if (r.kind === "transfer" && before !== undefined && after !== undefined)
+        transfers.push({ t: r.t, beforePercent: before, afterPercent: after });
     } else if (r.kind === "field.setting") {
       const fieldT = num(p.fieldT);
       if (fieldT !== undefined) fields.push({ t: r.t, fieldT, persistent: p.persistent === true });
@@ -109,9 +117,18 @@ export function buildSeries(cryostat: Pick<Cryostat, "id" | "config">, rows: rea
 }
 
 /** The chart series of a cryostat from the server's log. */
-export async function cryostatSeries(db: Db, { cryostat }: { cryostat: Pick<Cryostat, "id" | "config"> }): Promise<CryostatSeries> {
+export async function cryostatSeries(
+  db: Db,
+  { cryostat }: { cryostat: Pick<Cryostat, "id" | "config"> },
+): Promise<CryostatSeries> {
   const rows = await db
-    .select({ id: entries.id, kind: entries.kind, payload: entries.payload, recordedAt: entries.recordedAt, supersedes: entries.supersedes })
+    .select({
+      id: entries.id,
+      kind: entries.kind,
+      payload: entries.payload,
+      recordedAt: entries.recordedAt,
+      supersedes: entries.supersedes,
+    })
     .from(entries)
     .where(and(eq(entries.cryostatId, cryostat.id), inArray(entries.kind, [...SERIES_KINDS])))
     .orderBy(asc(entries.recordedAt));

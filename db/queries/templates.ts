@@ -3,7 +3,7 @@
 import { randomUUID } from "node:crypto";
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { procedureTemplates, type ProcedureTemplate } from "@/db/schema";
+import { type ProcedureTemplate, procedureTemplates } from "@/db/schema";
 import type { TemplateInput } from "@/lib/schemas/run";
 
 /** Every version of every template (the tablet caches them all: old runs need their version). */
@@ -24,7 +24,10 @@ export async function getTemplate(db: Db, { id }: { id: string }): Promise<Proce
   return t;
 }
 
-export async function getTemplateVersion(db: Db, { key, version }: { key: string; version: number }): Promise<ProcedureTemplate | undefined> {
+export async function getTemplateVersion(
+  db: Db,
+  { key, version }: { key: string; version: number },
+): Promise<ProcedureTemplate | undefined> {
   const [t] = await db
     .select()
     .from(procedureTemplates)
@@ -51,7 +54,16 @@ export async function saveTemplateVersion(
     if ((basedOnVersion ?? 0) !== latest) return { ok: false as const, reason: "stale" as const, latest };
     const [saved] = await t
       .insert(procedureTemplates)
-      .values({ id: randomUUID(), key: input.key, version: latest + 1, title: input.title, purpose: input.purpose, cryostatKinds: input.cryostatKinds, steps: input.steps, createdBy })
+      .values({
+        id: randomUUID(),
+        key: input.key,
+        version: latest + 1,
+        title: input.title,
+        purpose: input.purpose,
+        cryostatKinds: input.cryostatKinds,
+        steps: input.steps,
+        createdBy,
+      })
       .returning();
     return { ok: true as const, template: saved! };
   });

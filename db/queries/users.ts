@@ -3,7 +3,7 @@
 import { randomUUID } from "node:crypto";
 import { and, asc, count, eq, gt } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { signInAttempts, users, type Role, type User } from "@/db/schema";
+import { type Role, signInAttempts, type User, users } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { appendEntries } from "./entries";
 
@@ -22,19 +22,35 @@ export async function getUser(db: Db, { id }: { id: string }): Promise<User | un
 
 /** Everyone's name and role (what any signed-in user may see). */
 export async function listPublicUsers(db: Db): Promise<PublicUser[]> {
-  return db.select({ id: users.id, name: users.name, role: users.role, active: users.active }).from(users).orderBy(asc(users.name));
+  return db
+    .select({ id: users.id, name: users.name, role: users.role, active: users.active })
+    .from(users)
+    .orderBy(asc(users.name));
 }
 
 export async function listUsersForAdmin(db: Db): Promise<AdminUser[]> {
   return db
-    .select({ id: users.id, name: users.name, role: users.role, active: users.active, email: users.email, createdAt: users.createdAt })
+    .select({
+      id: users.id,
+      name: users.name,
+      role: users.role,
+      active: users.active,
+      email: users.email,
+      createdAt: users.createdAt,
+    })
     .from(users)
     .orderBy(asc(users.name));
 }
 
 export async function createUser(
   db: Db,
-  { id, email, name, role, passwordHash }: { id: string; email: string; name: string; role: Role; passwordHash: string },
+  {
+    id,
+    email,
+    name,
+    role,
+    passwordHash,
+  }: { id: string; email: string; name: string; role: Role; passwordHash: string },
 ): Promise<{ ok: true; user: AdminUser } | { ok: false; reason: "email_taken" }> {
   const [row] = await db
     .insert(users)
@@ -42,7 +58,17 @@ export async function createUser(
     .onConflictDoNothing({ target: users.email })
     .returning();
   if (!row) return { ok: false, reason: "email_taken" };
-  return { ok: true, user: { id: row.id, name: row.name, role: row.role, active: row.active, email: row.email, createdAt: row.createdAt } };
+  return {
+    ok: true,
+    user: {
+      id: row.id,
+      name: row.name,
+      role: row.role,
+      active: row.active,
+      email: row.email,
+      createdAt: row.createdAt,
+    },
+  };
 }
 
 export async function recordSignInAttempt(db: Db, { email, ok }: { email: string; ok: boolean }): Promise<void> {
@@ -53,7 +79,13 @@ export async function recentFailures(db: Db, { email, sinceMs }: { email: string
   const [r] = await db
     .select({ n: count() })
     .from(signInAttempts)
-    .where(and(eq(signInAttempts.email, email.trim().toLowerCase()), eq(signInAttempts.ok, false), gt(signInAttempts.at, new Date(Date.now() - sinceMs))));
+    .where(
+      and(
+        eq(signInAttempts.email, email.trim().toLowerCase()),
+        eq(signInAttempts.ok, false),
+        gt(signInAttempts.at, new Date(Date.now() - sinceMs)),
+      ),
+    );
   return r?.n ?? 0;
 }
 
@@ -75,12 +107,18 @@ export async function changeUserAccess(
     const [before] = await t.select().from(users).where(eq(users.id, id));
     if (!before) return { ok: false as const, reason: "not_found" as const };
     const changes: { field: "role" | "active"; from: string | boolean; to: string | boolean }[] = [];
-    if (change.role !== undefined && change.role !== before.role) changes.push({ field: "role", from: before.role, to: change.role });
-    if (change.active !== undefined && change.active !== before.active) changes.push({ field: "active", from: before.active, to: change.active });
+    if (change.role !== undefined && change.role !== before.role)
+      changes.push({ field: "role", from: before.role, to: change.role });
+    if (change.active !== undefined && change.active !== before.active)
+      changes.push({ field: "active", from: before.active, to: change.active });
     if (!changes.length) return { ok: false as const, reason: "no_change" as const };
     const [row] = await t
       .update(users)
-      .set({ role: change.role ?? before.role, active: change.active ?? before.active, sessionVersion: before.sessionVersion + 1 })
+      .set({
+        role: change.role ?? before.role,
+        active: change.active ?? before.active,
+        sessionVersion: before.sessionVersion + 1,
+      })
       .where(eq(users.id, id))
       .returning();
     const res = await appendEntries(t, admin, [
@@ -98,6 +136,16 @@ export async function changeUserAccess(
       },
     ]);
     if (res.rejected.length) throw new Error(`audit entry refused: ${res.rejected[0]!.message}`);
-    return { ok: true as const, user: { id: row!.id, name: row!.name, role: row!.role, active: row!.active, email: row!.email, createdAt: row!.createdAt } };
+    return {
+      ok: true as const,
+      user: {
+        id: row!.id,
+        name: row!.name,
+        role: row!.role,
+        active: row!.active,
+        email: row!.email,
+        createdAt: row!.createdAt,
+      },
+    };
   });
 }

@@ -68,14 +68,29 @@ export function verifyChain(
     const lastGood = prev ? prev.seq : null;
     const linkedTo = positionOfHash.get(row.prevHash);
     if (linkedTo !== undefined && linkedTo > i) {
-      return fail("reordered", row, lastGood, `Entry seq ${row.seq} is out of order: it links to an entry that now comes after it. Rows were reordered in the database.`);
+      return fail(
+        "reordered",
+        row,
+        lastGood,
+        `Entry seq ${row.seq} is out of order: it links to an entry that now comes after it. Rows were reordered in the database.`,
+      );
     }
     const next = rows[i + 1];
     if (!linkOk && ((next && next.prevHash === expectedPrev) || (!next && head && head.hash === expectedPrev))) {
-      return fail("inserted", row, lastGood, `Entry seq ${row.seq} was inserted into the chain: the entries around it link to each other, not to it.`);
+      return fail(
+        "inserted",
+        row,
+        lastGood,
+        `Entry seq ${row.seq} was inserted into the chain: the entries around it link to each other, not to it.`,
+      );
     }
     if (!ownOk) {
-      return fail("changed", row, lastGood, `Entry seq ${row.seq} was changed after it was stored: its content no longer matches its hash.`);
+      return fail(
+        "changed",
+        row,
+        lastGood,
+        `Entry seq ${row.seq} was changed after it was stored: its content no longer matches its hash.`,
+      );
     }
     if (linkedTo === undefined) {
       return fail(
@@ -85,18 +100,33 @@ export function verifyChain(
         `The entry before seq ${row.seq}${prev ? ` (after seq ${prev.seq})` : ""} is missing: it was deleted, or the entry before it was changed and its hash recomputed.`,
       );
     }
-    return fail("reordered", row, lastGood, `Entry seq ${row.seq} links to an earlier entry than the one before it: rows were reordered or removed.`);
+    return fail(
+      "reordered",
+      row,
+      lastGood,
+      `Entry seq ${row.seq} links to an earlier entry than the one before it: rows were reordered or removed.`,
+    );
   }
 
   const last = rows.at(-1);
   // 2. The stored head: the chain must end exactly there.
   if (head) {
     if (!last || head.seq > last.seq || !positionOfHash.has(head.hash)) {
-      return fail("truncated", null, last?.seq ?? null, `The chain ends at ${last ? `seq ${last.seq}` : "its start"} but its head says seq ${head.seq}: entries at the end were removed.`);
+      return fail(
+        "truncated",
+        null,
+        last?.seq ?? null,
+        `The chain ends at ${last ? `seq ${last.seq}` : "its start"} but its head says seq ${head.seq}: entries at the end were removed.`,
+      );
     }
     if (last.seq > head.seq) {
       const extra = rows.find((r) => r.seq > head.seq)!;
-      return fail("inserted", extra, head.seq, `Entry seq ${extra.seq} lies beyond the chain head (seq ${head.seq}): it was added to the database directly.`);
+      return fail(
+        "inserted",
+        extra,
+        head.seq,
+        `Entry seq ${extra.seq} lies beyond the chain head (seq ${head.seq}): it was added to the database directly.`,
+      );
     }
   }
 
@@ -106,10 +136,20 @@ export function verifyChain(
     const at = rows.find((r) => r.seq === cp.seq);
     if (!at) {
       if (!last || cp.seq > last.seq) {
-        return fail("truncated", null, last?.seq ?? null, `A checkpoint signed ${cp.signedAt} vouches for seq ${cp.seq}, beyond the chain's last entry${last ? ` (seq ${last.seq})` : ""}: entries at the end were removed.`);
+        return fail(
+          "truncated",
+          null,
+          last?.seq ?? null,
+          `A checkpoint signed ${cp.signedAt} vouches for seq ${cp.seq}, beyond the chain's last entry${last ? ` (seq ${last.seq})` : ""}: entries at the end were removed.`,
+        );
       }
       const after = rows.find((r) => r.seq > cp.seq) ?? null;
-      return fail("deleted", after, lastMatching?.seq ?? null, `The entry at seq ${cp.seq}, vouched for by a checkpoint signed ${cp.signedAt}, is missing from the chain.`);
+      return fail(
+        "deleted",
+        after,
+        lastMatching?.seq ?? null,
+        `The entry at seq ${cp.seq}, vouched for by a checkpoint signed ${cp.signedAt}, is missing from the chain.`,
+      );
     }
     if (at.hash !== cp.hash) {
       const firstSuspect = rows.find((r) => r.seq > (lastMatching?.seq ?? -Infinity)) ?? at;
@@ -122,5 +162,11 @@ export function verifyChain(
     }
     lastMatching = cp;
   }
-  return { ok: true, chain, count, head: last ? { seq: last.seq, hash: last.hash } : null, checkpointsChecked: cps.length };
+  return {
+    ok: true,
+    chain,
+    count,
+    head: last ? { seq: last.seq, hash: last.hash } : null,
+    checkpointsChecked: cps.length,
+  };
 }

@@ -12,7 +12,14 @@ export const KEY_FILE = "chain-signing.key";
 export const CHECKPOINT_LOG = "checkpoints.jsonl";
 
 export type SigningKey = { secretKey: Uint8Array; publicKeyHex: string };
-export type Checkpoint = { chain: string; seq: number; hash: string; signedAt: string; signature: string; publicKey: string };
+export type Checkpoint = {
+  chain: string;
+  seq: number;
+  hash: string;
+  signedAt: string;
+  signature: string;
+  publicKey: string;
+};
 
 /** Load the server's signing key, creating it (mode 0600) on first use. */
 export function loadOrCreateKey(dir: string): SigningKey {
@@ -29,16 +36,29 @@ export function loadOrCreateKey(dir: string): SigningKey {
     chmodSync(file, 0o600);
   }
   const hex = readFileSync(file, "utf8").trim();
-  if (!/^[0-9a-f]{64}$/.test(hex)) throw new Error(`The chain signing key ${file} is not a 32-byte hex key; restore it from backup.`);
+  if (!/^[0-9a-f]{64}$/.test(hex))
+    throw new Error(`The chain signing key ${file} is not a 32-byte hex key; restore it from backup.`);
   const secretKey = hexToBytes(hex);
   return { secretKey, publicKeyHex: bytesToHex(ed25519.getPublicKey(secretKey)) };
 }
 
 export function checkpointMessage(c: { chain: string; seq: number; hash: string; signedAt: string }): Uint8Array {
-  return new TextEncoder().encode(canonicalJson({ purpose: "rimelog-chain-checkpoint", chain: c.chain, seq: c.seq, hash: c.hash, signedAt: c.signedAt }));
+  return new TextEncoder().encode(
+    canonicalJson({
+      purpose: "rimelog-chain-checkpoint",
+      chain: c.chain,
+      seq: c.seq,
+      hash: c.hash,
+      signedAt: c.signedAt,
+    }),
+  );
 }
 
-export function signCheckpoint(key: SigningKey, head: { chain: string; seq: number; hash: string }, signedAt = new Date().toISOString()): Checkpoint {
+export function signCheckpoint(
+  key: SigningKey,
+  head: { chain: string; seq: number; hash: string },
+  signedAt = new Date().toISOString(),
+): Checkpoint {
   const body = { ...head, signedAt };
   const signature = bytesToHex(ed25519.sign(checkpointMessage(body), key.secretKey));
   return { ...body, signature, publicKey: key.publicKeyHex };

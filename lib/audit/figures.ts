@@ -3,13 +3,13 @@
 // the room's oxygen estimate. Every figure carries its basis; oxygen figures are estimates.
 import {
   gasLitresFromLiquid,
+  type LevelCalibration,
   litresFromLevel,
   oxygenAfterMixedRelease,
   quenchBoilOffLitresMax,
   quenchGasVolume,
   storedEnergyJ,
   transferEfficiency,
-  type LevelCalibration,
 } from "@/lib/cryo";
 
 /** Reference condition for gas volumes shown in the audit (room temperature, 1 atm). */
@@ -49,7 +49,11 @@ function safeLitres(percent: number | undefined, calibration: LevelCalibration |
  */
 export function transferFigures(
   t: TransferLike,
-  opts: { calibration?: LevelCalibration; previous?: { levelAfterPercent: number; at: string } | null; at?: string } = {},
+  opts: {
+    calibration?: LevelCalibration;
+    previous?: { levelAfterPercent: number; at: string } | null;
+    at?: string;
+  } = {},
 ): TransferFigures {
   const eff = t.suppliedLitres > 0 ? transferEfficiency(t.gainedLitres, t.suppliedLitres) : null;
   const loss = Math.max(0, t.suppliedLitres - t.gainedLitres);
@@ -76,7 +80,13 @@ export function transferFigures(
   };
 }
 
-type QuenchLike = { fieldT: number; currentA?: number; levelBeforePercent?: number; levelAfterPercent?: number; heliumLostLitres?: number };
+type QuenchLike = {
+  fieldT: number;
+  currentA?: number;
+  levelBeforePercent?: number;
+  levelAfterPercent?: number;
+  heliumLostLitres?: number;
+};
 
 export type QuenchFigures = {
   heliumLostLitres: number | null;
@@ -94,7 +104,8 @@ export function quenchFigures(
 ): QuenchFigures {
   const before = safeLitres(q.levelBeforePercent, opts.calibration);
   const after = safeLitres(q.levelAfterPercent, opts.calibration);
-  const energy = opts.inductanceH !== undefined && q.currentA !== undefined ? storedEnergyJ(opts.inductanceH, q.currentA) : null;
+  const energy =
+    opts.inductanceH !== undefined && q.currentA !== undefined ? storedEnergyJ(opts.inductanceH, q.currentA) : null;
   let lost: number | null = null;
   let basis: QuenchFigures["heliumLostBasis"] = null;
   if (before !== null && after !== null) {
@@ -108,6 +119,16 @@ export function quenchFigures(
     basis = "stored_energy_upper_bound";
   }
   const gasM3 = lost !== null ? quenchGasVolume(lost, GAS_REFERENCE).gasM3 : null;
-  const oxygen = gasM3 !== null && opts.roomFreeVolumeM3 ? oxygenAfterMixedRelease({ roomVolumeM3: opts.roomFreeVolumeM3, gasVolumeM3: gasM3 }) : null;
-  return { heliumLostLitres: lost, heliumLostBasis: basis, storedEnergyJ: energy, gasM3, gasReference: GAS_REFERENCE, oxygenEstimateFraction: oxygen };
+  const oxygen =
+    gasM3 !== null && opts.roomFreeVolumeM3
+      ? oxygenAfterMixedRelease({ roomVolumeM3: opts.roomFreeVolumeM3, gasVolumeM3: gasM3 })
+      : null;
+  return {
+    heliumLostLitres: lost,
+    heliumLostBasis: basis,
+    storedEnergyJ: energy,
+    gasM3,
+    gasReference: GAS_REFERENCE,
+    oxygenEstimateFraction: oxygen,
+  };
 }

@@ -10,7 +10,10 @@ export const auditFilterSchema = z.object({
   from: z.iso.datetime().optional().or(z.iso.date().optional()),
   to: z.iso.datetime().optional().or(z.iso.date().optional()),
   flag: z.enum(FLAG_CODES).optional(),
-  kinds: z.string().regex(/^(transfer|quench|incident)(,(transfer|quench|incident))*$/).optional(),
+  kinds: z
+    .string()
+    .regex(/^(transfer|quench|incident)(,(transfer|quench|incident))*$/)
+    .optional(),
   sort: z.enum(["date", "cryostat", "efficiency", "flags"]).optional(),
   dir: z.enum(["asc", "desc"]).optional(),
 });

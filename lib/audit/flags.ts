@@ -67,12 +67,17 @@ export function singlePersonFlag(r: AuditRecord, { rules }: AuditContext): Flag 
   if (r.kind !== "transfer" || !rules.twoPersonTransfer) return null;
   const people = new Set(((r.payload as P).peoplePresent as string[] | undefined) ?? []);
   if (people.size >= 2) return null;
-  return flag("single_person", `${people.size} person recorded as present; the facility's rules require two for a transfer.`);
+  return flag(
+    "single_person",
+    `${people.size} person recorded as present; the facility's rules require two for a transfer.`,
+  );
 }
 
 export function ppeFlag(r: AuditRecord): Flag | null {
   if (r.kind !== "transfer") return null;
-  return (r.payload as P).ppeConfirmed === true ? null : flag("ppe_not_confirmed", "Protective equipment was not confirmed.");
+  return (r.payload as P).ppeConfirmed === true
+    ? null
+    : flag("ppe_not_confirmed", "Protective equipment was not confirmed.");
 }
 
 /** The oxygen monitor was not checked, or no lowest reading was written down. */
@@ -82,7 +87,8 @@ export function oxygenCheckFlag(r: AuditRecord): Flag | null {
   const checked = p.oxygenMonitorChecked === true;
   const reading = num(p.oxygenLowestPercent);
   if (checked && reading !== undefined) return null;
-  if (!checked && reading === undefined) return flag("oxygen_check_missing", "The oxygen monitor was not checked and no reading was recorded.");
+  if (!checked && reading === undefined)
+    return flag("oxygen_check_missing", "The oxygen monitor was not checked and no reading was recorded.");
   if (!checked) return flag("oxygen_check_missing", "A reading was recorded but the monitor check was not confirmed.");
   return flag("oxygen_check_missing", "The monitor was checked but its lowest reading was not recorded.");
 }
@@ -92,7 +98,10 @@ export function oxygenAlarmFlag(r: AuditRecord, { rules }: AuditContext): Flag |
   if (r.kind !== "transfer" && r.kind !== "quench") return null;
   const reading = num((r.payload as P).oxygenLowestPercent);
   if (reading === undefined || reading >= rules.oxygenAlarmPercent) return null;
-  return flag("oxygen_below_alarm", `Lowest oxygen reading ${reading} % is below the alarm level of ${rules.oxygenAlarmPercent} %.`);
+  return flag(
+    "oxygen_below_alarm",
+    `Lowest oxygen reading ${reading} % is below the alarm level of ${rules.oxygenAlarmPercent} %.`,
+  );
 }
 
 export function gainedMoreThanTakenFlag(r: AuditRecord): Flag | null {
@@ -116,7 +125,10 @@ export function efficiencyFlag(r: AuditRecord, { rules }: AuditContext): Flag | 
   if (taken === 0) return flag("efficiency_implausible", "No litres taken from the supply were recorded.");
   const percent = transferEfficiency(gained, taken).efficiency * 100;
   if (percent >= min && percent <= max) return null;
-  return flag("efficiency_implausible", `Efficiency ${round(percent)} % is outside the plausible band ${min}–${max} %.`);
+  return flag(
+    "efficiency_implausible",
+    `Efficiency ${round(percent)} % is outside the plausible band ${min}–${max} %.`,
+  );
 }
 
 /** A level recorded below the facility's minimum for that cryostat (before or after). */
@@ -140,7 +152,10 @@ export function missingSignatureFlag(r: AuditRecord): Flag | null {
 /** The record's chain fails verification at or before this record. */
 export function chainBrokenFlag(r: AuditRecord, { chainBreakSeq }: AuditContext): Flag | null {
   if (chainBreakSeq === null || chainBreakSeq === undefined || chainBreakSeq > r.seq) return null;
-  return flag("chain_broken", `The hash chain of this cryostat is broken at or before this record (first bad entry at seq ${chainBreakSeq}).`);
+  return flag(
+    "chain_broken",
+    `The hash chain of this cryostat is broken at or before this record (first bad entry at seq ${chainBreakSeq}).`,
+  );
 }
 
 export const FLAG_RULES: readonly ((r: AuditRecord, ctx: AuditContext) => Flag | null)[] = [

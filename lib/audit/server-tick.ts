@@ -13,7 +13,11 @@ export function keyDir(): string {
   return resolve(env().RIMELOG_KEY_DIR);
 }
 
-type TickState = { timer?: ReturnType<typeof setInterval>; running?: Promise<void>; soon?: ReturnType<typeof setTimeout> };
+type TickState = {
+  timer?: ReturnType<typeof setInterval>;
+  running?: Promise<void>;
+  soon?: ReturnType<typeof setTimeout>;
+};
 const g = globalThis as unknown as { __rimelogTick?: TickState };
 const state: TickState = (g.__rimelogTick ??= {});
 

@@ -26,10 +26,16 @@ export async function verifySignIn(
   if (delay) await sleep(delay);
   const user = await findUserByEmail(db, { email });
   // Compare against a dummy hash when the user is unknown, so timing does not reveal accounts.
-  const ok = await bcrypt.compare(password, user?.passwordHash ?? "$2b$10$CwTycUXWue0Thq9StjUM0uJ8.p8Gvb9Zq5F6qV3X3vYj6FHj6P1yS");
+  const ok = await bcrypt.compare(
+    password,
+    user?.passwordHash ?? "$2b$10$CwTycUXWue0Thq9StjUM0uJ8.p8Gvb9Zq5F6qV3X3vYj6FHj6P1yS",
+  );
   await recordSignInAttempt(db, { email, ok: Boolean(user && ok && user.active) });
   if (!user || !ok) {
-    const slowed = failures + 1 >= FREE_FAILURES ? " Several attempts have failed: further attempts for this account are slowed down." : "";
+    const slowed =
+      failures + 1 >= FREE_FAILURES
+        ? " Several attempts have failed: further attempts for this account are slowed down."
+        : "";
     throw new SignInError(`Email or password did not match.${slowed}`);
   }
   if (!user.active) throw new SignInError("This account is disabled. Ask the facility admin.");

@@ -143,9 +143,7 @@ export function parseCalibration(text: string, options: ParseOptions): Calibrati
     );
   }
   checkMonotone(points);
-  const sorted = points
-    .map(({ value, temperatureK }) => ({ value, temperatureK }))
-    .sort((p, q) => p.value - q.value);
+  const sorted = points.map(({ value, temperatureK }) => ({ value, temperatureK })).sort((p, q) => p.value - q.value);
   const temperatures = sorted.map((p) => p.temperatureK);
   const range: CalibrationRange = {
     valueMin: sorted[0]?.value ?? NaN,
@@ -153,7 +151,13 @@ export function parseCalibration(text: string, options: ParseOptions): Calibrati
     temperatureMinK: Math.min(...temperatures),
     temperatureMaxK: Math.max(...temperatures),
   };
-  return { sensorKind: options.sensorKind, quantity: isDiode ? "voltage" : "resistance", valueUnit, points: sorted, range };
+  return {
+    sensorKind: options.sensorKind,
+    quantity: isDiode ? "voltage" : "resistance",
+    valueUnit,
+    points: sorted,
+    range,
+  };
 }
 
 // The table stays plain data (it is stored and synced); its interpolant is built on first use.

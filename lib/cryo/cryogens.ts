@@ -60,7 +60,9 @@ export function gasLitresFromLiquid(
   requireNonNegative("Liquid volume (L)", liquidLitres);
   const expansionRatio = CRYOGENS[cryogen]?.expansionRatio[reference];
   if (expansionRatio === undefined) {
-    throw new RangeError(`Unknown cryogen or reference condition "${cryogen}", "${reference}" (known: ${GAS_REFERENCES.join(", ")})`);
+    throw new RangeError(
+      `Unknown cryogen or reference condition "${cryogen}", "${reference}" (known: ${GAS_REFERENCES.join(", ")})`,
+    );
   }
   return { gasLitres: liquidLitres * expansionRatio, reference, expansionRatio, cryogen };
 }

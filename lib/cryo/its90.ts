@@ -4,8 +4,8 @@
 // Chem. Ref. Data 27, 1217 (1998). T90/K = A0 + Σ Ai·[(ln(p/Pa) − B)/C]^i.
 // The scale is defined only on its published ranges; outside them every function refuses.
 
-import { bisect } from "./solve";
 import { fmt, requireInRange } from "./errors";
+import { bisect } from "./solve";
 
 interface Branch {
   readonly a: readonly number[];

@@ -2,8 +2,8 @@
 // the tolerance classes. Source: IEC 60751:2008, A = 3.9083e−3, B = −5.775e−7, C = −4.183e−12,
 // defined for −200…850 °C only; outside that the standard says nothing, so we refuse.
 
-import { bisect } from "./solve";
 import { type RangeSpec, requireInRange, requirePositive } from "./errors";
+import { bisect } from "./solve";
 
 const A = 3.9083e-3;
 const B = -5.775e-7;

@@ -17,7 +17,16 @@ export type CsvRecord = ExportRecordBase & {
 
 export function csvField(v: unknown): string {
   if (v === null || v === undefined) return "";
-  let s = typeof v === "number" ? (Number.isFinite(v) ? String(v) : "") : typeof v === "boolean" ? (v ? "yes" : "no") : String(v);
+  let s =
+    typeof v === "number"
+      ? Number.isFinite(v)
+        ? String(v)
+        : ""
+      : typeof v === "boolean"
+        ? v
+          ? "yes"
+          : "no"
+        : String(v);
   // A cell starting with = + - @ would run as a formula in a spreadsheet: prefix it.
   if (/^[=+\-@\t\r]/.test(s) && typeof v !== "number") s = `'${s}`;
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;

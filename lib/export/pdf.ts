@@ -1,7 +1,7 @@
 // The audit report as PDF (pdf-lib, pure JS): a period's transfers, quenches and incidents, each
 // with its figures, flags, findings and every signature's manifestation (printed name, role, date
 // and time, meaning — R3), plus the chain check of each cryostat. Standard fonts only (no files).
-import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from "pdf-lib";
+import { PDFDocument, type PDFFont, type PDFPage, rgb, StandardFonts } from "pdf-lib";
 import type { ExportRecordBase, ExportSignature } from "./types";
 
 export type ReportSignature = ExportSignature & { confirmedBy?: string | null };
@@ -29,7 +29,19 @@ const MARGIN = 50;
 
 /** Standard PDF fonts encode WinAnsi only: map the few symbols we use, drop anything else. */
 export function winAnsi(text: string): string {
-  const map: Record<string, string> = { "≈": "~", "≥": ">=", "≤": "<=", "→": "->", "−": "-", "·": "·", "½": "1/2", "³": "³", "…": "...", "\u2009": " ", "\u00a0": " " };
+  const map: Record<string, string> = {
+    "≈": "~",
+    "≥": ">=",
+    "≤": "<=",
+    "→": "->",
+    "−": "-",
+    "·": "·",
+    "½": "1/2",
+    "³": "³",
+    "…": "...",
+    "\u2009": " ",
+    "\u00a0": " ",
+  };
   return [...text.normalize("NFC")]
     .map((c) => map[c] ?? c)
     .join("")
@@ -61,7 +73,12 @@ function wrap(text: string, font: PDFFont, size: number, width: number): string[
 
 const when = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
 export function manifestation(s: ReportSignature): string {
-  const how = s.confirmedBy === "pin" ? "identity confirmed with PIN" : s.confirmedBy === "password" ? "identity confirmed with password" : "identity not confirmed";
+  const how =
+    s.confirmedBy === "pin"
+      ? "identity confirmed with PIN"
+      : s.confirmedBy === "password"
+        ? "identity confirmed with password"
+        : "identity not confirmed";
   return `${s.meaning.replace("_", " ").toUpperCase()} — ${s.signerName} (${s.signerRole.replace("_", " ")}), ${when(s.signedAt)}; ${how}`;
 }
 
@@ -94,7 +111,12 @@ export async function auditReportPdf(input: ReportInput): Promise<Uint8Array> {
   };
   const rule = () => {
     if (y < MARGIN + 40) newPage();
-    page.drawLine({ start: { x: MARGIN, y }, end: { x: A4[0] - MARGIN, y }, thickness: 0.5, color: rgb(0.6, 0.6, 0.65) });
+    page.drawLine({
+      start: { x: MARGIN, y },
+      end: { x: A4[0] - MARGIN, y },
+      thickness: 0.5,
+      color: rgb(0.6, 0.6, 0.65),
+    });
     y -= 8;
   };
 
@@ -104,11 +126,20 @@ export async function auditReportPdf(input: ReportInput): Promise<Uint8Array> {
   text(`Generated ${when(input.generatedAt)} by ${input.generatedBy}`, { size: 11 });
   space(6);
   const flagged = input.records.filter((r) => r.flags.length).length;
-  const audited = input.records.filter((r) => r.findings.some((f) => f.signatures.some((s) => s.meaning === "audited"))).length;
-  text(`${input.records.length} records: ${flagged} with flags, ${audited} audited and signed, ${input.records.length - audited} not yet audited.`, { size: 11 });
+  const audited = input.records.filter((r) =>
+    r.findings.some((f) => f.signatures.some((s) => s.meaning === "audited")),
+  ).length;
+  text(
+    `${input.records.length} records: ${flagged} with flags, ${audited} audited and signed, ${input.records.length - audited} not yet audited.`,
+    { size: 11 },
+  );
   space(6);
   text("Chain check", { size: 13, font: bold, gap: 4 });
-  for (const c of input.chains) text(`${c.chain}: ${c.ok ? "verified" : "BROKEN"} (${c.count} entries). ${c.message}`, { indent: 10, color: c.ok ? rgb(0.1, 0.1, 0.12) : rgb(0.7, 0.1, 0.1) });
+  for (const c of input.chains)
+    text(`${c.chain}: ${c.ok ? "verified" : "BROKEN"} (${c.count} entries). ${c.message}`, {
+      indent: 10,
+      color: c.ok ? rgb(0.1, 0.1, 0.12) : rgb(0.7, 0.1, 0.1),
+    });
   space(6);
   text(input.deferral, { size: 9, color: rgb(0.35, 0.35, 0.4) });
   space(8);
@@ -122,13 +153,20 @@ export async function auditReportPdf(input: ReportInput): Promise<Uint8Array> {
       text("Computed (estimates where stated):", { font: bold, indent: 10 });
       for (const l of r.figures) text(l, { indent: 20 });
     }
-    text(r.flags.length ? `Flags: ${r.flags.join("; ")}` : "Flags: none", { font: bold, indent: 10, color: r.flags.length ? rgb(0.7, 0.35, 0) : rgb(0.1, 0.45, 0.2) });
+    text(r.flags.length ? `Flags: ${r.flags.join("; ")}` : "Flags: none", {
+      font: bold,
+      indent: 10,
+      color: r.flags.length ? rgb(0.7, 0.35, 0) : rgb(0.1, 0.45, 0.2),
+    });
     text("Signatures on the record:", { font: bold, indent: 10 });
     if (!r.signatures.length) text("none", { indent: 20 });
     for (const s of r.signatures) text(manifestation(s), { indent: 20 });
     if (!r.findings.length) text("Audit: not yet audited.", { font: bold, indent: 10 });
     for (const f of r.findings) {
-      text(`Audit finding (${f.verdict === "needs_action" ? "NEEDS ACTION" : "acceptable"}) by ${f.by}, ${when(f.at)}: ${f.text || "(no text)"}`, { indent: 10, font: bold });
+      text(
+        `Audit finding (${f.verdict === "needs_action" ? "NEEDS ACTION" : "acceptable"}) by ${f.by}, ${when(f.at)}: ${f.text || "(no text)"}`,
+        { indent: 10, font: bold },
+      );
       if (!f.signatures.length) text("Finding not signed.", { indent: 20 });
       for (const s of f.signatures) text(manifestation(s), { indent: 20 });
     }
@@ -138,13 +176,18 @@ export async function auditReportPdf(input: ReportInput): Promise<Uint8Array> {
 
   const pages = doc.getPages();
   pages.forEach((p, i) => {
-    p.drawText(winAnsi(`Rimelog audit report · ${input.from.slice(0, 10)} to ${input.to.slice(0, 10)} · page ${i + 1} of ${pages.length}`), {
-      x: MARGIN,
-      y: MARGIN - 20,
-      size: 8,
-      font: regular,
-      color: rgb(0.4, 0.4, 0.45),
-    });
+    p.drawText(
+      winAnsi(
+        `Rimelog audit report · ${input.from.slice(0, 10)} to ${input.to.slice(0, 10)} · page ${i + 1} of ${pages.length}`,
+      ),
+      {
+        x: MARGIN,
+        y: MARGIN - 20,
+        size: 8,
+        font: regular,
+        color: rgb(0.4, 0.4, 0.45),
+      },
+    );
   });
   return doc.save();
 }

@@ -6,8 +6,15 @@ import { kindLabel } from "@/lib/format";
 import type { CsvRecord } from "./csv";
 import type { ReportRecord, ReportSignature } from "./pdf";
 
-const sig = (s: SignatureView & { confirmedBy?: string | null }): ReportSignature => ({ meaning: s.meaning, signerName: s.signerName, signerRole: s.signerRole, signedAt: s.signedAt, confirmedBy: s.confirmedBy ?? null });
-const num = (x: unknown, unit: string) => (typeof x === "number" ? `${Number(x.toPrecision(4))} ${unit}` : "not recorded");
+const sig = (s: SignatureView & { confirmedBy?: string | null }): ReportSignature => ({
+  meaning: s.meaning,
+  signerName: s.signerName,
+  signerRole: s.signerRole,
+  signedAt: s.signedAt,
+  confirmedBy: s.confirmedBy ?? null,
+});
+const num = (x: unknown, unit: string) =>
+  typeof x === "number" ? `${Number(x.toPrecision(4))} ${unit}` : "not recorded";
 const isTransfer = (f: AuditItem["figures"]): f is TransferFigures => Boolean(f && "lossLitres" in f);
 const isQuench = (f: AuditItem["figures"]): f is QuenchFigures => Boolean(f && "heliumLostBasis" in f);
 
@@ -46,15 +53,28 @@ export function toReportRecord(i: AuditItem): ReportRecord {
     if (p.anomalies) lines.push(`Anomalies: ${String(p.anomalies)}`);
     const t = isTransfer(i.figures) ? i.figures : null;
     if (t) {
-      figures.push(`Efficiency ${t.efficiencyPercent === null ? "-" : `${t.efficiencyPercent.toFixed(1)} %`}; lost on the way ${t.lossLitres.toFixed(1)} L liquid = ${(t.gasToRecoveryLitres / 1000).toFixed(2)} m³ gas to recovery (20 °C, 1 atm).`);
-      if (t.boilOff) figures.push(`Boil-off since the previous transfer: ${t.boilOff.litresPerDay.toFixed(2)} L/day over ${t.boilOff.days.toFixed(1)} days.`);
+      figures.push(
+        `Efficiency ${t.efficiencyPercent === null ? "-" : `${t.efficiencyPercent.toFixed(1)} %`}; lost on the way ${t.lossLitres.toFixed(1)} L liquid = ${(t.gasToRecoveryLitres / 1000).toFixed(2)} m³ gas to recovery (20 °C, 1 atm).`,
+      );
+      if (t.boilOff)
+        figures.push(
+          `Boil-off since the previous transfer: ${t.boilOff.litresPerDay.toFixed(2)} L/day over ${t.boilOff.days.toFixed(1)} days.`,
+        );
     }
   } else if (i.entry.kind === "quench") {
-    lines.push(`Quench at ${String(p.at)} at ${num(p.fieldT, "T")}${typeof p.currentA === "number" ? `, ${p.currentA} A` : ""}; level ${num(p.levelBeforePercent, "%")} -> ${num(p.levelAfterPercent, "%")}; lowest oxygen ${num(p.oxygenLowestPercent, "%")}.`);
+    lines.push(
+      `Quench at ${String(p.at)} at ${num(p.fieldT, "T")}${typeof p.currentA === "number" ? `, ${p.currentA} A` : ""}; level ${num(p.levelBeforePercent, "%")} -> ${num(p.levelAfterPercent, "%")}; lowest oxygen ${num(p.oxygenLowestPercent, "%")}.`,
+    );
     lines.push(`Actions: ${String(p.actions || "none recorded")}`);
     const q = isQuench(i.figures) ? i.figures : null;
-    if (q?.heliumLostLitres != null) figures.push(`Estimate: helium lost ${q.heliumLostLitres.toFixed(1)} L (${q.heliumLostBasis?.replaceAll("_", " ")}), ${q.gasM3?.toFixed(1)} m³ of gas (20 °C, 1 atm).`);
-    if (q?.oxygenEstimateFraction != null) figures.push(`Estimate: room oxygen about ${(q.oxygenEstimateFraction * 100).toFixed(1)} % if the gas mixed into the room.`);
+    if (q?.heliumLostLitres != null)
+      figures.push(
+        `Estimate: helium lost ${q.heliumLostLitres.toFixed(1)} L (${q.heliumLostBasis?.replaceAll("_", " ")}), ${q.gasM3?.toFixed(1)} m³ of gas (20 °C, 1 atm).`,
+      );
+    if (q?.oxygenEstimateFraction != null)
+      figures.push(
+        `Estimate: room oxygen about ${(q.oxygenEstimateFraction * 100).toFixed(1)} % if the gas mixed into the room.`,
+      );
   } else {
     lines.push(`${String(p.title)}: ${String(p.description)}`, `Actions: ${String(p.actions || "none recorded")}`);
   }
@@ -68,7 +88,13 @@ export function toReportRecord(i: AuditItem): ReportRecord {
     lines,
     figures,
     flags: i.flags.map((f) => `${f.label} (${f.detail})`),
-    findings: i.findings.map((f) => ({ verdict: f.verdict, text: f.findings, by: f.authorName, at: f.recordedAt, signatures: f.signatures.map(sig) })),
+    findings: i.findings.map((f) => ({
+      verdict: f.verdict,
+      text: f.findings,
+      by: f.authorName,
+      at: f.recordedAt,
+      signatures: f.signatures.map(sig),
+    })),
     signatures: i.signatures.map(sig),
     hash: i.entry.hash,
   };

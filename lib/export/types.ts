@@ -3,4 +3,12 @@
 /** A signature's manifestation: printed name, role, date-time (UTC) and meaning. */
 export type ExportSignature = { meaning: string; signerName: string; signerRole: string; signedAt: string };
 
-export type ExportRecordBase = { id: string; kind: string; recordedAt: string; cryostatName: string; authorName: string; flags: string[]; hash: string };
+export type ExportRecordBase = {
+  id: string;
+  kind: string;
+  recordedAt: string;
+  cryostatName: string;
+  authorName: string;
+  flags: string[];
+  hash: string;
+};

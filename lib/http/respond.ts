@@ -13,7 +13,10 @@ export function errorResponse(e: unknown): Response {
     return json({ error: { code: e.code, message: e.message, details: e.details ?? [] } }, e.status);
   }
   console.error("[rimelog] unexpected error", e);
-  return json({ error: { code: "internal", message: "Something went wrong on the server. Nothing was changed; try again." } }, 500);
+  return json(
+    { error: { code: "internal", message: "Something went wrong on the server. Nothing was changed; try again." } },
+    500,
+  );
 }
 
 /** Run a handler body and turn any thrown AppError into its response. */
@@ -50,9 +53,15 @@ export async function readJson(req: Request, maxBytes = 1_000_000): Promise<unkn
     throw new AppError("forbidden", "origin", "Cross-origin requests may not change data.");
   }
   const declared = Number(req.headers.get("content-length") ?? "0");
-  if (declared > maxBytes) throw new AppError("too_large", "request", `The request is ${declared} bytes; the limit is ${maxBytes} bytes. Send fewer entries at a time.`);
+  if (declared > maxBytes)
+    throw new AppError(
+      "too_large",
+      "request",
+      `The request is ${declared} bytes; the limit is ${maxBytes} bytes. Send fewer entries at a time.`,
+    );
   const text = await req.text();
-  if (text.length > maxBytes) throw new AppError("too_large", "request", `The request is over ${maxBytes} bytes. Send fewer entries at a time.`);
+  if (text.length > maxBytes)
+    throw new AppError("too_large", "request", `The request is over ${maxBytes} bytes. Send fewer entries at a time.`);
   try {
     return JSON.parse(text);
   } catch {

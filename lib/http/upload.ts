@@ -7,7 +7,8 @@ import { isSameOrigin } from "./respond";
 
 /** Refuse a request whose Origin is missing or not this server's own host. */
 export function requireSameOrigin(req: Request): void {
-  if (!isSameOrigin(req)) throw new AppError("forbidden", "origin", "Uploads are accepted only from Rimelog's own pages.");
+  if (!isSameOrigin(req))
+    throw new AppError("forbidden", "origin", "Uploads are accepted only from Rimelog's own pages.");
 }
 
 /** Same origin, and the body sent as application/octet-stream. */
@@ -31,7 +32,10 @@ export function uploadHeader(req: Request, name: string): string {
  * The body's bytes, refused early when the declared length is over `maxBytes` (with the caller's
  * message). The header can lie: the caller checks the length of what arrived again.
  */
-export async function readUploadBytes(req: Request, opts: { surface: string; maxBytes: number; tooLarge: (declaredBytes: number) => string }): Promise<Uint8Array> {
+export async function readUploadBytes(
+  req: Request,
+  opts: { surface: string; maxBytes: number; tooLarge: (declaredBytes: number) => string },
+): Promise<Uint8Array> {
   const declared = Number(req.headers.get("content-length") ?? "0");
   if (declared > opts.maxBytes) throw new AppError("too_large", opts.surface, opts.tooLarge(declared));
   return new Uint8Array(await req.arrayBuffer());

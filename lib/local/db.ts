@@ -99,11 +99,23 @@ export const SCHEMA_VERSIONS: readonly (readonly [number, Record<string, string>
   // v3: an author's outbox rows in order of writing, so each push batch seeks straight to where
   // the previous one ended (no walk over rows just deleted); entries lose the seq and authorId
   // indexes nothing reads (each index costs on every write).
-  [3, { entries: "id, cryostatId, runId, sync, [cryostatId+seq], [cryostatId+sync+recordedAt]", outbox: "++n, &entryId, authorId, [authorId+n]" }],
+  [
+    3,
+    {
+      entries: "id, cryostatId, runId, sync, [cryostatId+seq], [cryostatId+sync+recordedAt]",
+      outbox: "++n, &entryId, authorId, [authorId+n]",
+    },
+  ],
   // v4: push answers waiting to be written into their entries (see ReceiptRow); entries by kind
   // (and by cryostat and kind), so "the open runs" or "the last transfer" read only those
   // entries, and a note saved on the same cryostat does not make them read again.
-  [4, { entries: "id, cryostatId, runId, sync, kind, [cryostatId+seq], [cryostatId+sync+recordedAt], [cryostatId+kind]", receipts: "++n" }],
+  [
+    4,
+    {
+      entries: "id, cryostatId, runId, sync, kind, [cryostatId+seq], [cryostatId+sync+recordedAt], [cryostatId+kind]",
+      receipts: "++n",
+    },
+  ],
 ];
 
 export class RimelogDexie extends Dexie {
@@ -129,7 +141,9 @@ export class RimelogDexie extends Dexie {
   }
 
   /** Several meta values in one read (one request, however many keys). */
-  async getMetas<const K extends readonly MetaKey[]>(...keys: K): Promise<{ [I in keyof K]: MetaValue<K[I]> | undefined }> {
+  async getMetas<const K extends readonly MetaKey[]>(
+    ...keys: K
+  ): Promise<{ [I in keyof K]: MetaValue<K[I]> | undefined }> {
     const rows = await this.meta.bulkGet([...keys]);
     return rows.map((r) => r?.value) as { [I in keyof K]: MetaValue<K[I]> | undefined };
   }
@@ -143,7 +157,8 @@ let singleton: RimelogDexie | undefined;
 let syncConnection: RimelogDexie | undefined;
 
 function assertBrowser(): void {
-  if (typeof indexedDB === "undefined") throw new Error("The tablet store needs a browser (IndexedDB is not available here).");
+  if (typeof indexedDB === "undefined")
+    throw new Error("The tablet store needs a browser (IndexedDB is not available here).");
 }
 
 /** The tablet's store (browser only). Tests make their own with `new RimelogDexie(name, opts)`. */

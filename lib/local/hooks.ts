@@ -6,9 +6,16 @@ import { useEffect, useMemo, useState } from "react";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 import type { TemplateStep } from "@/lib/schemas/template";
 import { localDb, type StoredLocalEntry } from "./db";
-import { queryEntries, queryEntry, syncSummary, type EntryFilter, type SyncSummary } from "./queries";
+import { type EntryFilter, queryEntries, queryEntry, type SyncSummary, syncSummary } from "./queries";
 
-export type LocalCryostat = { id: string; name: string; kind: string; location: string; config: CryostatConfig; updatedAt: string };
+export type LocalCryostat = {
+  id: string;
+  name: string;
+  kind: string;
+  location: string;
+  config: CryostatConfig;
+  updatedAt: string;
+};
 export type LocalTemplate = {
   id: string;
   key: string;
@@ -31,11 +38,20 @@ export function useEntry(id: string | undefined): StoredLocalEntry | null | unde
 }
 
 export function useCryostats(): LocalCryostat[] | undefined {
-  return useLiveQuery(async () => ((await localDb().cryostats.toArray()) as unknown as LocalCryostat[]).sort((a, b) => a.name.localeCompare(b.name)), []);
+  return useLiveQuery(
+    async () =>
+      ((await localDb().cryostats.toArray()) as unknown as LocalCryostat[]).sort((a, b) =>
+        a.name.localeCompare(b.name),
+      ),
+    [],
+  );
 }
 
 export function useCryostat(id: string): LocalCryostat | null | undefined {
-  return useLiveQuery(async () => ((await localDb().cryostats.get(id)) as unknown as LocalCryostat | undefined) ?? null, [id]);
+  return useLiveQuery(
+    async () => ((await localDb().cryostats.get(id)) as unknown as LocalCryostat | undefined) ?? null,
+    [id],
+  );
 }
 
 export function useTemplates(): LocalTemplate[] | undefined {

@@ -14,11 +14,23 @@ export type LocalOverview = {
   pending: number;
 };
 
-const LAST_KINDS = new Set(["note", "reading", "helium.level", "field.setting", "state", "handover", "transfer", "quench", "incident"]);
+const LAST_KINDS = new Set([
+  "note",
+  "reading",
+  "helium.level",
+  "field.setting",
+  "state",
+  "handover",
+  "transfer",
+  "quench",
+  "incident",
+]);
 
 export function overviewOf(list: StoredLocalEntry[], stageOrder: string[]): LocalOverview {
   const superseded = new Set(list.flatMap((e) => (e.supersedes ? [e.supersedes] : [])));
-  const live = list.filter((e) => e.sync !== "rejected" && !superseded.has(e.id)).sort((a, b) => b.recordedAt.localeCompare(a.recordedAt));
+  const live = list
+    .filter((e) => e.sync !== "rejected" && !superseded.has(e.id))
+    .sort((a, b) => b.recordedAt.localeCompare(a.recordedAt));
   const latest = (kinds: string[]) => live.find((e) => kinds.includes(e.kind));
   const s = latest(["state"]);
   const h = latest(["helium.level", "transfer"]);
@@ -29,7 +41,8 @@ export function overviewOf(list: StoredLocalEntry[], stageOrder: string[]): Loca
   for (const e of live) {
     if (e.kind !== "reading") continue;
     const p = e.payload as { stage?: string; value: number; unit: string };
-    if (p.stage && !stages.has(p.stage)) stages.set(p.stage, { stage: p.stage, value: p.value, unit: p.unit, at: e.recordedAt });
+    if (p.stage && !stages.has(p.stage))
+      stages.set(p.stage, { stage: p.stage, value: p.value, unit: p.unit, at: e.recordedAt });
   }
   const hp = h?.payload as { percent?: number; levelAfterPercent?: number } | undefined;
   const fp = f?.payload as { fieldT: number; currentA: number; persistent: boolean } | undefined;
@@ -39,7 +52,9 @@ export function overviewOf(list: StoredLocalEntry[], stageOrder: string[]): Loca
     helium: h && hp ? { percent: hp.percent ?? hp.levelAfterPercent ?? 0, at: h.recordedAt } : null,
     field: f && fp ? { fieldT: fp.fieldT, currentA: fp.currentA, persistent: fp.persistent, at: f.recordedAt } : null,
     lastEntry: l ? { kind: l.kind, at: l.recordedAt, authorId: l.authorId, sync: l.sync } : null,
-    onShift: ho ? { userId: (ho.payload as { toUserId?: string }).toUserId ?? ho.authorId, since: ho.recordedAt } : null,
+    onShift: ho
+      ? { userId: (ho.payload as { toUserId?: string }).toUserId ?? ho.authorId, since: ho.recordedAt }
+      : null,
     pending: list.filter((e) => e.sync === "pending").length,
   };
 }

@@ -24,7 +24,9 @@ async function withSendState(db: RimelogDexie, list: StoredLocalEntry[]): Promis
   if (pending.length === 0) return list;
   // One count per entry, all sent at once: `anyOf` would walk a cursor, one round trip to the
   // browser's storage after another (≈ 0.5 ms each), and a live list asks again on every answer.
-  const counts = await db.transaction("r", db.outbox, () => Promise.all(pending.map((e) => db.outbox.where("entryId").equals(e.id).count())));
+  const counts = await db.transaction("r", db.outbox, () =>
+    Promise.all(pending.map((e) => db.outbox.where("entryId").equals(e.id).count())),
+  );
   const queued = new Set(pending.filter((_, i) => counts[i]! > 0).map((e) => e.id));
   if (queued.size === pending.length) return list;
   return list.map((e) => (e.sync === "pending" && !queued.has(e.id) ? { ...e, sync: "synced" } : e));
@@ -37,12 +39,16 @@ export async function queryEntry(db: RimelogDexie, id: string): Promise<StoredLo
 }
 
 export async function queryEntries(db: RimelogDexie, f: EntryFilter = {}): Promise<StoredLocalEntry[]> {
-  if (typeof f.cryostatId === "string" && f.limit && !f.runId && !f.kinds) return newestOfCryostat(db, f.cryostatId, f.limit);
+  if (typeof f.cryostatId === "string" && f.limit && !f.runId && !f.kinds)
+    return newestOfCryostat(db, f.cryostatId, f.limit);
   let list: StoredLocalEntry[];
   if (f.runId) list = await db.entries.where("runId").equals(f.runId).toArray();
   else if (f.kinds && typeof f.cryostatId === "string") {
     const c = f.cryostatId;
-    list = await db.entries.where("[cryostatId+kind]").anyOf(f.kinds.map((k) => [c, k])).toArray();
+    list = await db.entries
+      .where("[cryostatId+kind]")
+      .anyOf(f.kinds.map((k) => [c, k]))
+      .toArray();
   } else if (f.kinds) list = await db.entries.where("kind").anyOf(f.kinds).toArray();
   else if (typeof f.cryostatId === "string") list = await db.entries.where("cryostatId").equals(f.cryostatId).toArray();
   else list = await db.entries.toArray();
@@ -61,7 +67,9 @@ export async function queryEntries(db: RimelogDexie, f: EntryFilter = {}): Promi
  * then the synced ones from the [cryostatId+seq] index, newest first, up to `limit`.
  */
 async function newestOfCryostat(db: RimelogDexie, cryostatId: string, limit: number): Promise<StoredLocalEntry[]> {
-  return db.transaction("r", [db.entries, db.outbox], async () => withSendState(db, await newestOfCryostatIn(db, cryostatId, limit)));
+  return db.transaction("r", [db.entries, db.outbox], async () =>
+    withSendState(db, await newestOfCryostatIn(db, cryostatId, limit)),
+  );
 }
 
 async function newestOfCryostatIn(db: RimelogDexie, cryostatId: string, limit: number): Promise<StoredLocalEntry[]> {
@@ -97,10 +105,8 @@ export type SyncSummary = {
 
 export async function syncSummary(db: RimelogDexie): Promise<SyncSummary> {
   // One read transaction, not nine: a tap's write waits for every read already running.
-  const [pending, rejected, pendingAttachments, rejectedAtt, [lastSuccess, lastAttempt, lastError, session, deviceId]] = await db.transaction(
-    "r",
-    [db.outbox, db.entries, db.attachments, db.meta],
-    () =>
+  const [pending, rejected, pendingAttachments, rejectedAtt, [lastSuccess, lastAttempt, lastError, session, deviceId]] =
+    await db.transaction("r", [db.outbox, db.entries, db.attachments, db.meta], () =>
       Promise.all([
         db.outbox.count(),
         db.entries.where("sync").equals("rejected").toArray(),
@@ -108,12 +114,16 @@ export async function syncSummary(db: RimelogDexie): Promise<SyncSummary> {
         db.attachments.where("state").equals("rejected").toArray(),
         db.getMetas("lastSuccess", "lastAttempt", "lastError", "session", "deviceId"),
       ]),
-  );
+    );
   return {
     pending,
     rejected: rejected.sort(newestFirst),
     pendingAttachments,
-    rejectedAttachments: rejectedAtt.map((a) => ({ id: a.id, fileName: a.fileName, message: a.rejection?.message ?? "refused" })),
+    rejectedAttachments: rejectedAtt.map((a) => ({
+      id: a.id,
+      fileName: a.fileName,
+      message: a.rejection?.message ?? "refused",
+    })),
     lastSuccess: lastSuccess ?? null,
     lastAttempt: lastAttempt ?? null,
     lastError: lastError ?? null,

@@ -2,11 +2,11 @@
 // quick entries). Each call writes to the tablet store first and resolves only after the local
 // transaction has committed; the sync loop sends it later. See /work/notes/local-api.md.
 import { localDb, type StoredLocalEntry } from "./db";
-import { putAttachmentIn, recordEntriesIn, type EntryDraft } from "./store";
+import { type EntryDraft, putAttachmentIn, recordEntriesIn } from "./store";
 
+export type { Rejection, StoredLocalEntry, SyncState } from "./db";
 export type { EntryDraft, LocalWriteCode } from "./store";
-export { LocalWriteError, OFFLINE_SESSION_MS, MAX_ATTACHMENT_BYTES } from "./store";
-export type { StoredLocalEntry, SyncState, Rejection } from "./db";
+export { LocalWriteError, MAX_ATTACHMENT_BYTES, OFFLINE_SESSION_MS } from "./store";
 
 /**
  * Record one entry: fills id, author (the signed-in user), device and recordedAt, validates it

@@ -2,9 +2,9 @@
 // with the offline session and device id the entry is stamped with. Every function takes the
 // Dexie instance first so tests can run several simulated tablets side by side.
 import type { z } from "zod";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { mayWrite } from "@/lib/auth/permissions";
-import { parseEntry, type EntryInput, type EntryKind, type payloadSchemas } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/auth/session-user";
+import { type EntryInput, type EntryKind, parseEntry, type payloadSchemas } from "@/lib/schemas/entry";
 import { canonicalJson } from "@/lib/sync/hash";
 import type { LocalSession, OutboxRow, RimelogDexie, StoredLocalEntry } from "./db";
 import { emitLocalWrite } from "./events";
@@ -31,7 +31,13 @@ type DraftOf<K extends EntryKind> = {
 /** What a form hands over: the fields the user chose. Id, author, device and time are filled in. */
 export type EntryDraft = { [K in EntryKind]: DraftOf<K> }[EntryKind];
 
-export type LocalWriteCode = "invalid" | "forbidden" | "no_session" | "session_expired" | "storage_full" | "storage_failed";
+export type LocalWriteCode =
+  | "invalid"
+  | "forbidden"
+  | "no_session"
+  | "session_expired"
+  | "storage_full"
+  | "storage_failed";
 
 /** A local write that did not happen. The message is meant for the screen as it is. */
 export class LocalWriteError extends Error {
@@ -66,7 +72,8 @@ export async function confirmSession(db: RimelogDexie, user: SessionUser, at = n
 }
 
 export function sessionProblem(session: LocalSession | undefined, now = Date.now()): LocalWriteError | null {
-  if (!session) return new LocalWriteError("no_session", "Nobody is signed in on this tablet. Connect to the network and sign in.");
+  if (!session)
+    return new LocalWriteError("no_session", "Nobody is signed in on this tablet. Connect to the network and sign in.");
   if (now - Date.parse(session.confirmedAt) > OFFLINE_SESSION_MS) {
     return new LocalWriteError(
       "session_expired",
@@ -106,7 +113,12 @@ export function buildEntry(draft: EntryDraft, authorId: string, deviceId: string
     supersedes: draft.supersedes ?? null,
     reason: draft.reason ?? null,
   });
-  if (!parsed.ok) throw new LocalWriteError("invalid", `This ${draft.kind} entry is not complete: ${parsed.problems.join("; ")}`, parsed.problems);
+  if (!parsed.ok)
+    throw new LocalWriteError(
+      "invalid",
+      `This ${draft.kind} entry is not complete: ${parsed.problems.join("; ")}`,
+      parsed.problems,
+    );
   return parsed.entry;
 }
 
@@ -122,12 +134,21 @@ const lastSigner = new WeakMap<RimelogDexie, Signer>();
 function prepare(drafts: EntryDraft[], signer: Signer, now: Date): { stored: StoredLocalEntry[]; rows: OutboxRow[] } {
   for (const d of drafts) {
     if (!mayWrite(signer.user.role, d.kind)) {
-      throw new LocalWriteError("forbidden", `A ${signer.user.role.replace("_", " ")} may not record entries of kind "${d.kind}".`);
+      throw new LocalWriteError(
+        "forbidden",
+        `A ${signer.user.role.replace("_", " ")} may not record entries of kind "${d.kind}".`,
+      );
     }
   }
   // Built (and so validated) before anything is written: an invalid draft writes nothing.
   const built = drafts.map((d) => buildEntry(d, signer.user.id, signer.deviceId, now));
-  const rows = built.map((e) => ({ entryId: e.id, authorId: e.authorId, queuedAt: now.toISOString(), bytes: canonicalJson(e).length, entry: e }));
+  const rows = built.map((e) => ({
+    entryId: e.id,
+    authorId: e.authorId,
+    queuedAt: now.toISOString(),
+    bytes: canonicalJson(e).length,
+    entry: e,
+  }));
   return { stored: built.map(pendingEntry), rows };
 }
 
@@ -139,13 +160,24 @@ class StaleSigner extends Error {}
  * signed in now. False (and nothing written: the transaction is aborted) when the store names
  * another person or device, or the session has run out.
  */
-async function writePrepared(db: RimelogDexie, signer: Signer, ready: ReturnType<typeof prepare>, now: Date): Promise<boolean> {
+async function writePrepared(
+  db: RimelogDexie,
+  signer: Signer,
+  ready: ReturnType<typeof prepare>,
+  now: Date,
+): Promise<boolean> {
   try {
     await db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
       const writes: Promise<unknown>[] = [db.entries.bulkAdd(ready.stored), db.outbox.bulkAdd(ready.rows)];
       for (const w of writes) w.catch(() => undefined); // awaited below, or undone by the abort
       const [session, deviceId] = await db.getMetas("session", "deviceId");
-      if (!session || sessionProblem(session, now.getTime()) || deviceId !== signer.deviceId || session.user.id !== signer.user.id || session.user.role !== signer.user.role) {
+      if (
+        !session ||
+        sessionProblem(session, now.getTime()) ||
+        deviceId !== signer.deviceId ||
+        session.user.id !== signer.user.id ||
+        session.user.role !== signer.user.role
+      ) {
         throw new StaleSigner(); // aborts the transaction: the writes above are undone
       }
       await Promise.all(writes);
@@ -183,7 +215,11 @@ async function writeAfterReading(db: RimelogDexie, drafts: EntryDraft[], now: Da
  * (or another device id, or an expired session), nothing is written and the write is made again
  * for the person the store names. The first write on a store reads first, then writes.
  */
-export async function recordEntriesIn(db: RimelogDexie, drafts: EntryDraft[], now = new Date()): Promise<StoredLocalEntry[]> {
+export async function recordEntriesIn(
+  db: RimelogDexie,
+  drafts: EntryDraft[],
+  now = new Date(),
+): Promise<StoredLocalEntry[]> {
   if (drafts.length === 0) return [];
   let stored: StoredLocalEntry[];
   try {
@@ -207,9 +243,16 @@ export async function recordEntriesIn(db: RimelogDexie, drafts: EntryDraft[], no
 }
 
 /** Keep a photo or file on the tablet for upload; entries refer to it by the returned id. */
-export async function putAttachmentIn(db: RimelogDexie, blob: Blob, { fileName, mime }: { fileName: string; mime: string }): Promise<string> {
+export async function putAttachmentIn(
+  db: RimelogDexie,
+  blob: Blob,
+  { fileName, mime }: { fileName: string; mime: string },
+): Promise<string> {
   if (blob.size > MAX_ATTACHMENT_BYTES) {
-    throw new LocalWriteError("invalid", `This file is ${(blob.size / 1048576).toFixed(1)} MB; the limit is ${MAX_ATTACHMENT_BYTES / 1048576} MB.`);
+    throw new LocalWriteError(
+      "invalid",
+      `This file is ${(blob.size / 1048576).toFixed(1)} MB; the limit is ${MAX_ATTACHMENT_BYTES / 1048576} MB.`,
+    );
   }
   if (blob.size === 0) throw new LocalWriteError("invalid", "This file is empty.");
   const id = crypto.randomUUID();

@@ -21,12 +21,21 @@ export function quenchMail(q: {
 }): MailMessage {
   const lines = [
     `${q.reportedBy} recorded a quench of the ${q.cryostatName} magnet at ${when(q.at)}, at ${q.fieldT} T.`,
-    q.heliumLostLitres != null ? `Helium lost: about ${Number(q.heliumLostLitres.toFixed(1))} L (estimate).` : "Helium lost: not recorded.",
-    q.oxygenLowestPercent !== undefined ? `Lowest oxygen reading: ${q.oxygenLowestPercent} %.` : "No oxygen reading was recorded.",
+    q.heliumLostLitres != null
+      ? `Helium lost: about ${Number(q.heliumLostLitres.toFixed(1))} L (estimate).`
+      : "Helium lost: not recorded.",
+    q.oxygenLowestPercent !== undefined
+      ? `Lowest oxygen reading: ${q.oxygenLowestPercent} %.`
+      : "No oxygen reading was recorded.",
     `Actions taken: ${q.actions || "none recorded"}`,
     "The quench is in the safety officer's audit queue.",
   ];
-  return { eventKey: `quench:${q.entryId}`, to: q.to, subject: `Quench on ${q.cryostatName} — ${when(q.at)}`, body: lines.join("\n") + FOOTER };
+  return {
+    eventKey: `quench:${q.entryId}`,
+    to: q.to,
+    subject: `Quench on ${q.cryostatName} — ${when(q.at)}`,
+    body: lines.join("\n") + FOOTER,
+  };
 }
 
 export function findingNeedsActionMail(f: {
@@ -44,15 +53,29 @@ export function findingNeedsActionMail(f: {
     `Findings: ${f.findings || "(none written)"}`,
     f.flags.length ? `Flags: ${f.flags.join(", ")}.` : "No automatic flags.",
   ];
-  return { eventKey: `finding-needs-action:${f.findingId}`, to: f.to, subject: `Audit: action needed on ${f.cryostatName} ${f.targetKind}`, body: lines.join("\n") + FOOTER };
+  return {
+    eventKey: `finding-needs-action:${f.findingId}`,
+    to: f.to,
+    subject: `Audit: action needed on ${f.cryostatName} ${f.targetKind}`,
+    body: lines.join("\n") + FOOTER,
+  };
 }
 
-export function handoverWaitingMail(h: { handoverId: string; cryostatName: string; from: string; at: string; note: string; to: string[] }): MailMessage {
+export function handoverWaitingMail(h: {
+  handoverId: string;
+  cryostatName: string;
+  from: string;
+  at: string;
+  note: string;
+  to: string[];
+}): MailMessage {
   return {
     eventKey: `handover-waiting:${h.handoverId}`,
     to: h.to,
     subject: `Handover of ${h.cryostatName} waiting for you`,
-    body: `${h.from} handed ${h.cryostatName} over to you at ${when(h.at)}; it is waiting for your acceptance.\nNote: ${h.note || "(none)"}` + FOOTER,
+    body:
+      `${h.from} handed ${h.cryostatName} over to you at ${when(h.at)}; it is waiting for your acceptance.\nNote: ${h.note || "(none)"}` +
+      FOOTER,
   };
 }
 

@@ -18,4 +18,3 @@ export function describeEntry(p: RunStepPayload): string {
       return p.statement;
   }
 }
-

@@ -42,8 +42,16 @@ export function handoverSummary(entries: E[], config: CryostatConfig, now = Date
 
   // Level history: helium.level readings and the level after each transfer; boil-off since the last fill.
   const levels = list.flatMap((e) => {
-    if (e.kind === "helium.level") return [{ t: Date.parse(e.recordedAt), percent: (e.payload as { percent: number }).percent, fill: false }];
-    if (e.kind === "transfer") return [{ t: Date.parse(e.recordedAt), percent: (e.payload as { levelAfterPercent: number }).levelAfterPercent, fill: true }];
+    if (e.kind === "helium.level")
+      return [{ t: Date.parse(e.recordedAt), percent: (e.payload as { percent: number }).percent, fill: false }];
+    if (e.kind === "transfer")
+      return [
+        {
+          t: Date.parse(e.recordedAt),
+          percent: (e.payload as { levelAfterPercent: number }).levelAfterPercent,
+          fill: true,
+        },
+      ];
     return [];
   });
   const lastLevel = levels.at(-1);
@@ -53,8 +61,14 @@ export function handoverSummary(entries: E[], config: CryostatConfig, now = Date
       out.heliumLitres = litresFromLevel(lastLevel.percent, config.reservoir.calibration);
       const fillIdx = levels.map((l) => l.fill).lastIndexOf(true);
       const since = levels.slice(Math.max(0, fillIdx)).filter((l) => l.t > now - 30 * DAY);
-      const rate = boilOffRate(since.map((l) => ({ timeMs: l.t, litres: litresFromLevel(l.percent, config.reservoir!.calibration) })));
-      const f = forecastMinimumLevel(rate, litresFromLevel(config.reservoir.minimumPercent, config.reservoir.calibration), now);
+      const rate = boilOffRate(
+        since.map((l) => ({ timeMs: l.t, litres: litresFromLevel(l.percent, config.reservoir!.calibration) })),
+      );
+      const f = forecastMinimumLevel(
+        rate,
+        litresFromLevel(config.reservoir.minimumPercent, config.reservoir.calibration),
+        now,
+      );
       if (f.forecast) out.forecastDays = Math.round(f.daysLeft * 10) / 10;
     } catch {
       /* too few readings or a rise: no forecast rather than a wrong one */
@@ -68,7 +82,9 @@ export function handoverSummary(entries: E[], config: CryostatConfig, now = Date
   }
 
   const ended = new Set(list.filter((e) => e.kind === "run.abort" || e.kind === "run.complete").map((e) => e.runId));
-  out.openRuns = list.filter((e) => e.kind === "run.start" && !ended.has(e.id)).map((e) => (e.payload as RunStartPayload).title);
+  out.openRuns = list
+    .filter((e) => e.kind === "run.start" && !ended.has(e.id))
+    .map((e) => (e.payload as RunStartPayload).title);
   out.openIssues = list
     .filter((e) => e.kind === "incident" && Date.parse(e.recordedAt) > now - 14 * DAY)
     .map((e) => (e.payload as { title: string }).title);

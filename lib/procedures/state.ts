@@ -8,7 +8,10 @@ import type { TemplateStep } from "@/lib/schemas/template";
 import { recordHash } from "@/lib/sync/hash";
 
 /** What the derivation needs of an entry (stored or still in the tablet's outbox). */
-export type RunEntry = Pick<EntryInput, "id" | "cryostatId" | "runId" | "kind" | "payload" | "authorId" | "deviceId" | "recordedAt" | "supersedes" | "reason">;
+export type RunEntry = Pick<
+  EntryInput,
+  "id" | "cryostatId" | "runId" | "kind" | "payload" | "authorId" | "deviceId" | "recordedAt" | "supersedes" | "reason"
+>;
 
 export type PinnedTemplate = { id: string; key: string; version: number; title: string; steps: TemplateStep[] };
 
@@ -65,10 +68,14 @@ export type RunState = {
   timeline: RunEntry[];
 };
 
-const byTime = (a: RunEntry, b: RunEntry) => (a.recordedAt < b.recordedAt ? -1 : a.recordedAt > b.recordedAt ? 1 : a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
+const byTime = (a: RunEntry, b: RunEntry) =>
+  a.recordedAt < b.recordedAt ? -1 : a.recordedAt > b.recordedAt ? 1 : a.id < b.id ? -1 : a.id > b.id ? 1 : 0;
 
 /** A reading against its step's limits. Limits are inclusive: a value on the limit is in range. */
-export function readingOutOfRange(step: Pick<Extract<TemplateStep, { kind: "reading" }>, "min" | "max">, value: number): "low" | "high" | null {
+export function readingOutOfRange(
+  step: Pick<Extract<TemplateStep, { kind: "reading" }>, "min" | "max">,
+  value: number,
+): "low" | "high" | null {
   if (!Number.isFinite(value)) return null;
   if (step.min !== undefined && value < step.min) return "low";
   if (step.max !== undefined && value > step.max) return "high";
@@ -89,7 +96,15 @@ export function signaturesOf(entries: RunEntry[]): SignatureView[] {
   return entries
     .filter((e) => e.kind === "signature")
     .map((e) => {
-      const p = e.payload as { signedEntryId: string; meaning: SignatureMeaning; signerName: string; signerRole: string; signedHash: string; image?: string; confirmedBy?: "pin" | "password" };
+      const p = e.payload as {
+        signedEntryId: string;
+        meaning: SignatureMeaning;
+        signerName: string;
+        signerRole: string;
+        signedHash: string;
+        image?: string;
+        confirmedBy?: "pin" | "password";
+      };
       const target = byId.get(p.signedEntryId);
       return {
         entryId: e.id,
@@ -155,7 +170,11 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
     let releasedAt: string | null = null;
     switch (step.kind) {
       case "check":
-        if (step.secondPerson && current.length && !current.some((e) => (stepOf(e) as { secondPersonId?: string }).secondPersonId)) {
+        if (
+          step.secondPerson &&
+          current.length &&
+          !current.some((e) => (stepOf(e) as { secondPersonId?: string }).secondPersonId)
+        ) {
           problems.push("Needs a second person, and none was named.");
           status = "flagged";
         }
@@ -199,18 +218,26 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
     }
     if (!s.releasedAt && blockingHold === null) blockingHold = s.index;
   }
-  if (blockingHold !== null) for (const s of steps.slice(blockingHold + 1)) if (s.status === "todo") s.status = "blocked";
+  if (blockingHold !== null)
+    for (const s of steps.slice(blockingHold + 1)) if (s.status === "todo") s.status = "blocked";
   for (const s of steps) if (s.problems.length && s.status === "done") s.status = "flagged";
 
   const required = steps.filter((s) => s.required);
   const done = required.filter((s) => s.status === "done" || s.status === "flagged").length;
-  const currentStep = steps.find((s) => s.status === "todo" || s.status === "awaiting_signature" || s.status === "blocked");
+  const currentStep = steps.find(
+    (s) => s.status === "todo" || s.status === "awaiting_signature" || s.status === "blocked",
+  );
   const status = abortEntry ? "aborted" : completeEntry ? "completed" : "open";
   const allDone = done === required.length && blockingHold === null;
-  if (status === "completed" && !allDone) flags.push(`Marked complete with ${required.length - done} required step(s) open.`);
-  if (completeEntry && !sigsOn(completeEntry.id).some((s) => s.meaning === "performed")) flags.push("Completion not yet signed.");
-  for (const sig of signatures) if (!sig.valid) flags.push(`A signature by ${sig.signerName} does not match the record it names.`);
-  for (const c of corrections) if (!c.inForce) flags.push(`A correction of a signed record waits for its own signature: ${c.correction.reason ?? ""}`.trim());
+  if (status === "completed" && !allDone)
+    flags.push(`Marked complete with ${required.length - done} required step(s) open.`);
+  if (completeEntry && !sigsOn(completeEntry.id).some((s) => s.meaning === "performed"))
+    flags.push("Completion not yet signed.");
+  for (const sig of signatures)
+    if (!sig.valid) flags.push(`A signature by ${sig.signerName} does not match the record it names.`);
+  for (const c of corrections)
+    if (!c.inForce)
+      flags.push(`A correction of a signed record waits for its own signature: ${c.correction.reason ?? ""}`.trim());
   if (!start) flags.push("The start of this run is not on this device yet.");
 
   return {
@@ -219,11 +246,17 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
     startPayload: start ? (start.payload as RunStartPayload) : null,
     status,
     steps,
-    progress: { done, required: required.length, percent: required.length ? Math.round((100 * done) / required.length) : 100 },
+    progress: {
+      done,
+      required: required.length,
+      percent: required.length ? Math.round((100 * done) / required.length) : 100,
+    },
     currentIndex: currentStep ? currentStep.index : null,
     blockingHold,
     canComplete: status === "open" && allDone,
-    aborted: abortEntry ? { entry: abortEntry, reason: String((abortEntry.payload as { reason: string }).reason) } : null,
+    aborted: abortEntry
+      ? { entry: abortEntry, reason: String((abortEntry.payload as { reason: string }).reason) }
+      : null,
     completed: completeEntry ? { entry: completeEntry } : null,
     signatures,
     corrections,

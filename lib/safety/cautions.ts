@@ -65,10 +65,16 @@ export function deferral(rules: FacilityRulesValues): string {
 }
 
 function ppeText(rules: FacilityRulesValues): string {
-  return rules.ppe.length ? rules.ppe.join(", ") : "the protective equipment your facility requires (none is listed in Rimelog yet)";
+  return rules.ppe.length
+    ? rules.ppe.join(", ")
+    : "the protective equipment your facility requires (none is listed in Rimelog yet)";
 }
 
-function sectionPoints(id: CautionSectionId, rules: FacilityRulesValues, ctx: CautionContext): { title: string; points: string[] } {
+function sectionPoints(
+  id: CautionSectionId,
+  rules: FacilityRulesValues,
+  ctx: CautionContext,
+): { title: string; points: string[] } {
   const alarm = pct(rules.oxygenAlarmPercent);
   const evacuate = pct(rules.oxygenEvacuatePercent);
   const field = `${Number(rules.controlledAreaMilliTesla.toFixed(3))} mT`;
@@ -127,7 +133,8 @@ function sectionPoints(id: CautionSectionId, rules: FacilityRulesValues, ctx: Ca
       const where = ctx.cryostatName ? ` for ${ctx.cryostatName}` : "";
       const limits: string[] = [];
       if (local !== undefined) limits.push(`the facility's limit${where} is ${local} T/min`);
-      if (ctx.makerRampLimitTPerMin !== undefined) limits.push(`the maker's limit is ${ctx.makerRampLimitTPerMin} T/min`);
+      if (ctx.makerRampLimitTPerMin !== undefined)
+        limits.push(`the maker's limit is ${ctx.makerRampLimitTPerMin} T/min`);
       return {
         title: "Ramp limits",
         points: [
@@ -161,7 +168,11 @@ function sectionPoints(id: CautionSectionId, rules: FacilityRulesValues, ctx: Ca
 }
 
 /** The cautions for one screen, in the order they are shown. */
-export function cautionsFor(topic: CautionTopic, rules: FacilityRulesValues, ctx: CautionContext = {}): CautionSection[] {
+export function cautionsFor(
+  topic: CautionTopic,
+  rules: FacilityRulesValues,
+  ctx: CautionContext = {},
+): CautionSection[] {
   const close = deferral(rules);
   return CAUTION_TOPICS[topic].map((id) => ({ id, ...sectionPoints(id, rules, ctx), deferral: close }));
 }
@@ -170,7 +181,9 @@ export function cautionsFor(topic: CautionTopic, rules: FacilityRulesValues, ctx
 export function facilityFacts(rules: FacilityRulesValues, ctx: CautionContext = {}) {
   return {
     oxygen: `Oxygen alarm at ${pct(rules.oxygenAlarmPercent)}, leave the room at ${pct(rules.oxygenEvacuatePercent)}`,
-    twoPerson: rules.twoPersonTransfer ? "Two people must be present for cryogen transfers" : "No two-person rule for transfers",
+    twoPerson: rules.twoPersonTransfer
+      ? "Two people must be present for cryogen transfers"
+      : "No two-person rule for transfers",
     ppe: rules.ppe,
     controlledArea: `Controlled area beyond the ${Number(rules.controlledAreaMilliTesla.toFixed(3))} mT line`,
     minLevel: ctx.cryostatId !== undefined ? rules.minHeliumPercent[ctx.cryostatId] : undefined,

@@ -19,13 +19,26 @@ function mb(bytes: number): string {
   return `${Number((bytes / 1024 / 1024).toFixed(1))} MB`;
 }
 
-export function checkRulesDocument(bytes: Uint8Array, fileName: string, maxBytes = RULES_DOCUMENT_MAX_BYTES): DocumentCheck {
-  if (bytes.length === 0) return { ok: false, status: 400, message: `"${fileName}" is empty. Choose the facility's rules document (a PDF).` };
+export function checkRulesDocument(
+  bytes: Uint8Array,
+  fileName: string,
+  maxBytes = RULES_DOCUMENT_MAX_BYTES,
+): DocumentCheck {
+  if (bytes.length === 0)
+    return { ok: false, status: 400, message: `"${fileName}" is empty. Choose the facility's rules document (a PDF).` };
   if (bytes.length > maxBytes) {
-    return { ok: false, status: 413, message: `"${fileName}" is ${mb(bytes.length)}; the limit is ${mb(maxBytes)}. Upload a smaller PDF (for example, without scanned images at full resolution).` };
+    return {
+      ok: false,
+      status: 413,
+      message: `"${fileName}" is ${mb(bytes.length)}; the limit is ${mb(maxBytes)}. Upload a smaller PDF (for example, without scanned images at full resolution).`,
+    };
   }
   if (!isPdf(bytes)) {
-    return { ok: false, status: 415, message: `"${fileName}" is not a PDF (its content does not start like one). Save or export the rules document as PDF and upload that.` };
+    return {
+      ok: false,
+      status: 415,
+      message: `"${fileName}" is not a PDF (its content does not start like one). Save or export the rules document as PDF and upload that.`,
+    };
   }
   return { ok: true };
 }

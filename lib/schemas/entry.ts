@@ -2,8 +2,8 @@
 // The same schemas validate on the tablet (before the outbox), on the server (push) and in Dexie.
 import { z } from "zod";
 import { CRYOSTAT_STATES } from "./cryostat";
-import { runAbortPayload, runCompletePayload, runStartPayload, runStepPayload } from "./run";
 import { facilityRulesValuesSchema } from "./rules";
+import { runAbortPayload, runCompletePayload, runStartPayload, runStepPayload } from "./run";
 import { UNITS } from "./units";
 
 const text = (max: number) => z.string().trim().min(1).max(max);
@@ -83,7 +83,11 @@ export const quenchPayload = z.object({
   actions: z.string().max(4000),
 });
 
-export const incidentPayload = z.object({ title: text(200), description: z.string().max(4000), actions: z.string().max(4000) });
+export const incidentPayload = z.object({
+  title: text(200),
+  description: z.string().max(4000),
+  actions: z.string().max(4000),
+});
 
 export const SIGNATURE_MEANINGS = ["performed", "verified", "handed_over", "accepted", "audited"] as const;
 export type SignatureMeaning = (typeof SIGNATURE_MEANINGS)[number];
@@ -100,7 +104,10 @@ export const signaturePayload = z.object({
   /** How the signer proved who they are just before signing (lib/signing): never the image alone. */
   confirmedBy: z.enum(["pin", "password"]).optional(),
   /** HMAC proof of that confirmation, re-verified by the server (lib/signing/proof.ts). */
-  confirmProof: z.string().regex(/^[0-9a-f]{64}$/).optional(),
+  confirmProof: z
+    .string()
+    .regex(/^[0-9a-f]{64}$/)
+    .optional(),
 });
 
 export const auditFindingPayload = z.object({
@@ -124,7 +131,15 @@ export const rulesChangePayload = z.object({
 export const userChangePayload = z.object({
   userId: z.string().min(1),
   userName: z.string().min(1),
-  changes: z.array(z.object({ field: z.enum(["role", "active"]), from: z.union([z.string(), z.boolean()]), to: z.union([z.string(), z.boolean()]) })).min(1),
+  changes: z
+    .array(
+      z.object({
+        field: z.enum(["role", "active"]),
+        from: z.union([z.string(), z.boolean()]),
+        to: z.union([z.string(), z.boolean()]),
+      }),
+    )
+    .min(1),
 });
 
 /** Payload schema per entry kind. Feature modules add their kinds here. */
@@ -161,14 +176,23 @@ export const entryInputSchema = z.object({
   deviceId: z.string().min(1).max(80),
   recordedAt: z.iso
     .datetime()
-    .refine((s) => Number.isFinite(Date.parse(s)) && new Date(s).toISOString() === s, "must be a UTC time as toISOString() writes it"),
+    .refine(
+      (s) => Number.isFinite(Date.parse(s)) && new Date(s).toISOString() === s,
+      "must be a UTC time as toISOString() writes it",
+    ),
   supersedes: z.uuid().nullable().default(null),
   reason: z.string().max(1000).nullable().default(null),
 });
 export type EntryInput = z.infer<typeof entryInputSchema>;
 
 /** An entry as stored by the server. */
-export type StoredEntry = EntryInput & { seq: number; receivedAt: string; prevHash: string; hash: string; chain: string };
+export type StoredEntry = EntryInput & {
+  seq: number;
+  receivedAt: string;
+  prevHash: string;
+  hash: string;
+  chain: string;
+};
 
 /**
  * Validate the envelope and the kind's payload together. Returns the parsed entry or a list of

@@ -78,10 +78,15 @@ export const templateInputSchema = z
   .superRefine((t, ctx) => {
     const seen = new Set<string>();
     t.steps.forEach((s, i) => {
-      if (seen.has(s.id)) ctx.addIssue({ code: "custom", path: ["steps", i, "id"], message: "step ids must be unique" });
+      if (seen.has(s.id))
+        ctx.addIssue({ code: "custom", path: ["steps", i, "id"], message: "step ids must be unique" });
       seen.add(s.id);
       if (s.kind === "reading" && s.min !== undefined && s.max !== undefined && s.min > s.max) {
-        ctx.addIssue({ code: "custom", path: ["steps", i, "max"], message: "the upper limit is below the lower limit" });
+        ctx.addIssue({
+          code: "custom",
+          path: ["steps", i, "max"],
+          message: "the upper limit is below the lower limit",
+        });
       }
     });
   });

@@ -45,7 +45,9 @@ export function verifierOf(keyHex: string): string {
 /** PBKDF2-SHA256 through WebCrypto (browser and Node 20 alike). */
 export async function derivePinKey(pin: string, saltB64: string, iterations: number): Promise<string> {
   const subtle = globalThis.crypto.subtle;
-  const base = await subtle.importKey("raw", utf8ToBytes(pin.normalize("NFC")) as BufferSource, "PBKDF2", false, ["deriveBits"]);
+  const base = await subtle.importKey("raw", utf8ToBytes(pin.normalize("NFC")) as BufferSource, "PBKDF2", false, [
+    "deriveBits",
+  ]);
   const salt = Uint8Array.from(atob(saltB64), (c) => c.charCodeAt(0));
   const bits = await subtle.deriveBits({ name: "PBKDF2", hash: "SHA-256", salt, iterations }, base, 256);
   return bytesToHex(new Uint8Array(bits));
@@ -69,7 +71,9 @@ export function formatPinRecord(iterations: number, saltB64: string, keyHex: str
   return `pbkdf2-sha256$${iterations}$${saltB64}$${keyHex}`;
 }
 
-export function parsePinRecord(record: string | null | undefined): { iterations: number; saltB64: string; keyHex: string } | null {
+export function parsePinRecord(
+  record: string | null | undefined,
+): { iterations: number; saltB64: string; keyHex: string } | null {
   if (!record) return null;
   const [scheme, it, saltB64, keyHex] = record.split("$");
   if (scheme !== "pbkdf2-sha256" || !it || !saltB64 || !keyHex || !/^[0-9a-f]{64}$/.test(keyHex)) return null;

@@ -1,8 +1,9 @@
 // Building a signature entry for a record: the hash it binds to (recordHash of the exact record,
 // RFC 8785 canonical JSON) and the identity proof made just before. The signature travels as an
 // ordinary log entry through the outbox and is re-checked by the server.
-import type { EntryInput, SignatureMeaning } from "@/lib/schemas/entry";
+
 import type { Role } from "@/lib/auth/permissions";
+import type { EntryInput, SignatureMeaning } from "@/lib/schemas/entry";
 import { recordHash } from "@/lib/sync/hash";
 import type { ConfirmedBy, SigningSubject } from "./proof";
 
@@ -14,7 +15,13 @@ export function signingSubject(target: EntryInput, signer: Signer, meaning: Sign
 }
 
 /** The signature's payload, as the tablet store's recordEntry takes it. */
-export function signaturePayload(subject: SigningSubject, signer: Signer, confirmedBy: ConfirmedBy, proof: string, image?: string) {
+export function signaturePayload(
+  subject: SigningSubject,
+  signer: Signer,
+  confirmedBy: ConfirmedBy,
+  proof: string,
+  image?: string,
+) {
   return {
     signedEntryId: subject.signedEntryId,
     meaning: subject.meaning,

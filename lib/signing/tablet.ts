@@ -3,9 +3,24 @@
 // signature. The verifier alone cannot make a proof: the key is re-derived from the typed PIN.
 // Limits: anyone who copies the tablet's storage can try PINs against the verifier offline;
 // the expiry and the PIN length bound that, they do not remove it (see docs in lib/signing/README.md).
-import { derivePinKey, hmacHex, PIN_MAX_FAILURES, sameHex, signingMessage, verifierOf, type SigningSubject } from "./proof";
+import {
+  derivePinKey,
+  hmacHex,
+  PIN_MAX_FAILURES,
+  type SigningSubject,
+  sameHex,
+  signingMessage,
+  verifierOf,
+} from "./proof";
 
-export type CachedPin = { userId: string; saltB64: string; iterations: number; verifier: string; expiresAt: string; failures: number };
+export type CachedPin = {
+  userId: string;
+  saltB64: string;
+  iterations: number;
+  verifier: string;
+  expiresAt: string;
+  failures: number;
+};
 
 const KEY = (userId: string) => `rimelog-pin:${userId}`;
 
@@ -29,7 +44,9 @@ export function forgetPin(userId: string): void {
   localStorage.removeItem(KEY(userId));
 }
 
-export type PinUnlock = { ok: true; key: string } | { ok: false; reason: "no_pin" | "expired" | "wrong" | "locked"; left?: number };
+export type PinUnlock =
+  | { ok: true; key: string }
+  | { ok: false; reason: "no_pin" | "expired" | "wrong" | "locked"; left?: number };
 
 /**
  * Check a typed PIN against the cached verifier. On success the derived key is returned to make

@@ -57,7 +57,8 @@ const startsWith = (b: Uint8Array, sig: number[], at = 0) => sig.every((v, i) =>
 export function sniffType(b: Uint8Array): Sniffed | null {
   if (startsWith(b, [0xff, 0xd8, 0xff])) return { mime: "image/jpeg", ext: "jpg" };
   if (startsWith(b, [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])) return { mime: "image/png", ext: "png" };
-  if (startsWith(b, [0x52, 0x49, 0x46, 0x46]) && startsWith(b, [0x57, 0x45, 0x42, 0x50], 8)) return { mime: "image/webp", ext: "webp" };
+  if (startsWith(b, [0x52, 0x49, 0x46, 0x46]) && startsWith(b, [0x57, 0x45, 0x42, 0x50], 8))
+    return { mime: "image/webp", ext: "webp" };
   if (startsWith(b, [0x25, 0x50, 0x44, 0x46, 0x2d])) return { mime: "application/pdf", ext: "pdf" };
   if (b.length > 0 && !b.includes(0)) {
     try {
@@ -73,6 +74,9 @@ export function sniffType(b: Uint8Array): Sniffed | null {
 /** A file name fit to show and to offer in a download: no paths, no control characters. */
 export function cleanFileName(raw: string, ext: string): string {
   const base = raw.split(/[\\/]/).pop() ?? "";
-  const cleaned = base.replace(/[\u0000-\u001f\u007f"<>|:*?]/g, "").trim().slice(0, 120);
+  const cleaned = base
+    .replace(/[\u0000-\u001f\u007f"<>|:*?]/g, "")
+    .trim()
+    .slice(0, 120);
   return cleaned || `file.${ext}`;
 }

@@ -3,9 +3,9 @@
 // code runs in the browser (fetch) and in the reliability tests (a lossy in-process server).
 // The outbox is the truth: a row leaves it only when the server has answered for its entry (S3).
 import type { SessionUser } from "@/lib/auth/session-user";
-import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
 import type { OutboxRow, RimelogDexie, StoredLocalEntry } from "@/lib/local/db";
 import { pendingEntry } from "@/lib/local/store";
+import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
 import { recordHash } from "./hash";
 import type { PullReply, PushReply, UploadReply } from "./protocol";
 import { PUSH_LIMITS } from "./protocol";
@@ -38,7 +38,18 @@ export interface Transport {
 export type SyncOptions = { maxBatch?: number; maxBytes?: number; now?: () => Date };
 export type SyncResult = { uploaded: number; accepted: number; rejected: number; pulled: number };
 
-const RECORD_FIELDS = ["id", "cryostatId", "runId", "kind", "payload", "authorId", "deviceId", "recordedAt", "supersedes", "reason"] as const;
+const RECORD_FIELDS = [
+  "id",
+  "cryostatId",
+  "runId",
+  "kind",
+  "payload",
+  "authorId",
+  "deviceId",
+  "recordedAt",
+  "supersedes",
+  "reason",
+] as const;
 
 /** The entry as its author wrote it (what is pushed), without the tablet's sync bookkeeping. */
 export function toInput(e: StoredLocalEntry): EntryInput {
@@ -81,9 +92,16 @@ export async function syncOnce(db: RimelogDexie, transport: Transport, opts: Syn
   return result;
 }
 
-async function uploadAttachments(db: RimelogDexie, transport: Transport, userId: string, now: () => Date): Promise<number> {
+async function uploadAttachments(
+  db: RimelogDexie,
+  transport: Transport,
+  userId: string,
+  now: () => Date,
+): Promise<number> {
   if (!transport.upload) return 0;
-  const waiting = (await db.attachments.where("state").equals("pending").toArray()).filter((a) => a.authorId === userId);
+  const waiting = (await db.attachments.where("state").equals("pending").toArray()).filter(
+    (a) => a.authorId === userId,
+  );
   let n = 0;
   for (const a of waiting) {
     try {
@@ -92,8 +110,14 @@ async function uploadAttachments(db: RimelogDexie, transport: Transport, userId:
       n += 1;
     } catch (e) {
       // A file the server refuses (type, size) is marked and kept; anything else stops this round.
-      if (e instanceof TransportError && (e.kind === "bad_request" || e.kind === "too_large" || e.kind === "forbidden")) {
-        await db.attachments.update(a.id, { state: "rejected", rejection: { code: e.code ?? e.kind, message: e.message, at: now().toISOString() } });
+      if (
+        e instanceof TransportError &&
+        (e.kind === "bad_request" || e.kind === "too_large" || e.kind === "forbidden")
+      ) {
+        await db.attachments.update(a.id, {
+          state: "rejected",
+          rejection: { code: e.code ?? e.kind, message: e.message, at: now().toISOString() },
+        });
       } else throw e;
     }
   }
@@ -107,10 +131,20 @@ type Batch = { after: number; rows: OutboxRow[]; list: EntryInput[]; encoded?: u
  * within the count and byte bounds, with the entries they carry. Rows whose entry is gone are
  * bookkeeping only and are dropped here. Null when nothing is left.
  */
-async function nextBatch(db: RimelogDexie, userId: string, after: number, maxBatch: number, maxBytes: number): Promise<Batch | null> {
+async function nextBatch(
+  db: RimelogDexie,
+  userId: string,
+  after: number,
+  maxBatch: number,
+  maxBytes: number,
+): Promise<Batch | null> {
   for (;;) {
     const read = await db.transaction("r", [db.outbox, db.entries], async () => {
-      const rows = await db.outbox.where("[authorId+n]").between([userId, after + 1], [userId, Infinity], true, true).limit(maxBatch).toArray();
+      const rows = await db.outbox
+        .where("[authorId+n]")
+        .between([userId, after + 1], [userId, Infinity], true, true)
+        .limit(maxBatch)
+        .toArray();
       let bytes = 0;
       const batchRows = rows.filter((r, i) => {
         bytes += r.bytes + 2;
@@ -145,7 +179,13 @@ const quiet = <T>(p: Promise<T>): Promise<T> => {
  * written into the store. A reload at any point loses nothing: unanswered rows are still in the
  * outbox and are pushed again, and the server answers a repeat the same way (S1, S3).
  */
-async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string, opts: SyncOptions, now: () => Date): Promise<Tally> {
+async function pushOutbox(
+  db: RimelogDexie,
+  transport: Transport,
+  userId: string,
+  opts: SyncOptions,
+  now: () => Date,
+): Promise<Tally> {
   let maxBatch = Math.min(opts.maxBatch ?? 200, PUSH_LIMITS.maxEntries);
   const maxBytes = Math.min(opts.maxBytes ?? 1_000_000, PUSH_LIMITS.maxBytes);
   const total: Tally = { accepted: 0, rejected: 0 };
@@ -163,7 +203,11 @@ async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string
   };
   // The batch after `after`, with its request body made ahead (while the previous push travels).
   const readAfter = (after: number, limit = maxBatch) =>
-    quiet(nextBatch(db, userId, after, limit, maxBytes).then((b) => (b && transport.encodePush ? { ...b, encoded: transport.encodePush(b.list) } : b)));
+    quiet(
+      nextBatch(db, userId, after, limit, maxBytes).then((b) =>
+        b && transport.encodePush ? { ...b, encoded: transport.encodePush(b.list) } : b,
+      ),
+    );
   // A small first batch gets the server working sooner; the ones read while it travels are full.
   let next = readAfter(0, Math.min(maxBatch, FIRST_BATCH));
   let batch: Batch | null = null;
@@ -213,10 +257,17 @@ async function pushOutbox(db: RimelogDexie, transport: Transport, userId: string
   return total;
 }
 
-async function markRejected(db: RimelogDexie, rejected: { id: string; code: string; message: string }[], now: () => Date) {
+async function markRejected(
+  db: RimelogDexie,
+  rejected: { id: string; code: string; message: string }[],
+  now: () => Date,
+) {
   await db.transaction("rw", [db.entries, db.outbox], async () => {
     for (const r of rejected) {
-      await db.entries.update(r.id, { sync: "rejected", rejection: { code: r.code, message: r.message, at: now().toISOString() } });
+      await db.entries.update(r.id, {
+        sync: "rejected",
+        rejection: { code: r.code, message: r.message, at: now().toISOString() },
+      });
       await db.outbox.where("entryId").equals(r.id).delete();
     }
   });
@@ -229,17 +280,29 @@ async function markRejected(db: RimelogDexie, rejected: { id: string; code: stri
  * the entries by `foldReceipts`; a refused entry is marked at once, from the copy sent, with the
  * server's reason. Both commit together with the outbox removal, so no answer is ever half kept.
  */
-export async function applyPushReply(db: RimelogDexie, reply: PushReply, sent: { rows: OutboxRow[]; list: EntryInput[] }, now: () => Date): Promise<Tally> {
+export async function applyPushReply(
+  db: RimelogDexie,
+  reply: PushReply,
+  sent: { rows: OutboxRow[]; list: EntryInput[] },
+  now: () => Date,
+): Promise<Tally> {
   const byId = new Map(sent.list.map((e, i) => [e.id, { entry: e, row: sent.rows[i]! }]));
   const acc = reply.accepted.filter((a) => byId.has(a.id));
   const accIds = new Set(acc.map((a) => a.id));
   const rej = reply.rejected.filter((r) => byId.has(r.id) && !accIds.has(r.id));
   if (acc.length + rej.length === 0) return { accepted: 0, rejected: 0 };
   const at = now().toISOString();
-  const refused: StoredLocalEntry[] = rej.map((r) => ({ ...pendingEntry(byId.get(r.id)!.entry), sync: "rejected", rejection: { code: r.code, message: r.message, at } }));
+  const refused: StoredLocalEntry[] = rej.map((r) => ({
+    ...pendingEntry(byId.get(r.id)!.entry),
+    sync: "rejected",
+    rejection: { code: r.code, message: r.message, at },
+  }));
   await db.transaction("rw", [db.entries, db.outbox, db.receipts], async () => {
     if (acc.length) {
-      await db.receipts.add({ at, accepted: acc.map(({ id, seq, hash, prevHash, receivedAt }) => ({ id, seq, hash, prevHash, receivedAt })) });
+      await db.receipts.add({
+        at,
+        accepted: acc.map(({ id, seq, hash, prevHash, receivedAt }) => ({ id, seq, hash, prevHash, receivedAt })),
+      });
     }
     if (refused.length) await db.entries.bulkPut(refused);
     // By primary key, only this batch's rows: one range when they are consecutive (the usual
@@ -269,7 +332,16 @@ export async function foldReceipts(db: RimelogDexie): Promise<number> {
       const put: StoredLocalEntry[] = [];
       receipt.accepted.forEach((a, i) => {
         const local = locals[i];
-        if (local && local.seq === null) put.push({ ...local, sync: "synced", seq: a.seq, hash: a.hash, prevHash: a.prevHash, receivedAt: a.receivedAt, rejection: null });
+        if (local && local.seq === null)
+          put.push({
+            ...local,
+            sync: "synced",
+            seq: a.seq,
+            hash: a.hash,
+            prevHash: a.prevHash,
+            receivedAt: a.receivedAt,
+            rejection: null,
+          });
       });
       if (put.length) await db.entries.bulkPut(put);
       await db.receipts.delete(receipt.n!);
@@ -305,7 +377,11 @@ async function pullAll(db: RimelogDexie, transport: Transport, now: () => Date):
  * same person is signed in (S5). A page for a different person than the tablet knew is not
  * applied: the previous view is forgotten and the pull restarts from zero.
  */
-export async function applyPull(db: RimelogDexie, reply: PullReply, now: () => Date): Promise<{ cursor: number; restart: boolean }> {
+export async function applyPull(
+  db: RimelogDexie,
+  reply: PullReply,
+  now: () => Date,
+): Promise<{ cursor: number; restart: boolean }> {
   return db.transaction("rw", [db.entries, db.outbox, db.meta, db.cryostats, db.templates, db.users], async () => {
     const session = await db.getMeta("session");
     const at = now();
@@ -331,7 +407,14 @@ export async function applyPull(db: RimelogDexie, reply: PullReply, now: () => D
         // Same id with other content would be a conflict: keep ours; its push gets the answer.
         if (recordHash(local) !== recordHash(e)) return;
         acknowledged.push(e.id);
-      } else if (local && local.sync === "synced" && local.seq === e.seq && local.hash === e.hash && local.prevHash === e.prevHash && local.receivedAt === e.receivedAt) {
+      } else if (
+        local &&
+        local.sync === "synced" &&
+        local.seq === e.seq &&
+        local.hash === e.hash &&
+        local.prevHash === e.prevHash &&
+        local.receivedAt === e.receivedAt
+      ) {
         return; // already held exactly so (its push answer carried the same link): nothing to write
       }
       put.push(synced(e));

@@ -1,8 +1,9 @@
 // Canonical JSON (RFC 8785, via the `canonicalize` package) and SHA-256 hashes for the log:
 // the per-cryostat hash chain and the hash a signature binds to. Runs on the tablet and the server.
-import canonicalize from "canonicalize";
+
 import { sha256 } from "@noble/hashes/sha2.js";
 import { bytesToHex, utf8ToBytes } from "@noble/hashes/utils.js";
+import canonicalize from "canonicalize";
 import type { EntryInput } from "@/lib/schemas/entry";
 
 /** Strings normalised to NFC so that the same text typed on two tablets hashes the same. */

@@ -1,7 +1,7 @@
 // The browser transport: the sync protocol over fetch (same origin, JSON, never cached), with
 // HTTP failures mapped to the few kinds the sync loop acts on.
 import type { EntryInput } from "@/lib/schemas/entry";
-import { TransportError, type Transport } from "./client";
+import { type Transport, TransportError } from "./client";
 import type { PullReply, PushReply, UploadReply } from "./protocol";
 
 const TIMEOUT_MS = 30_000;
@@ -9,9 +9,17 @@ const TIMEOUT_MS = 30_000;
 async function call<T>(url: string, init: RequestInit): Promise<T> {
   let res: Response;
   try {
-    res = await fetch(url, { ...init, cache: "no-store", credentials: "same-origin", signal: AbortSignal.timeout(TIMEOUT_MS) });
+    res = await fetch(url, {
+      ...init,
+      cache: "no-store",
+      credentials: "same-origin",
+      signal: AbortSignal.timeout(TIMEOUT_MS),
+    });
   } catch {
-    throw new TransportError("offline", "No connection to the server. Entries stay on this tablet and are sent when the network returns.");
+    throw new TransportError(
+      "offline",
+      "No connection to the server. Entries stay on this tablet and are sent when the network returns.",
+    );
   }
   let body: unknown = null;
   try {
@@ -22,11 +30,22 @@ async function call<T>(url: string, init: RequestInit): Promise<T> {
   if (res.ok && body) return body as T;
   const err = (body as { error?: { code?: string; message?: string } } | null)?.error;
   const message = err?.message ?? `The server answered ${res.status}.`;
-  if (res.status === 401) throw new TransportError("unauthorized", "Your session has ended. Sign in again to send what is on this tablet; nothing is lost.", 401, err?.code);
+  if (res.status === 401)
+    throw new TransportError(
+      "unauthorized",
+      "Your session has ended. Sign in again to send what is on this tablet; nothing is lost.",
+      401,
+      err?.code,
+    );
   if (res.status === 413) throw new TransportError("too_large", message, 413, err?.code);
   if (res.status === 403) throw new TransportError("forbidden", message, 403, err?.code);
   if (res.status >= 400 && res.status < 500) throw new TransportError("bad_request", message, res.status, err?.code);
-  throw new TransportError("server", res.ok ? "The server's answer could not be read." : message, res.status, err?.code);
+  throw new TransportError(
+    "server",
+    res.ok ? "The server's answer could not be read." : message,
+    res.status,
+    err?.code,
+  );
 }
 
 /**

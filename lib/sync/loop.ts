@@ -5,7 +5,7 @@
 // reload in the middle of a push simply pushes again (the server answers the same).
 import type { RimelogDexie } from "@/lib/local/db";
 import { onLocalWrite } from "@/lib/local/events";
-import { syncOnce, TransportError, type SyncResult, type Transport } from "./client";
+import { type SyncResult, syncOnce, type Transport, TransportError } from "./client";
 import { PUSH_LIMITS } from "./protocol";
 
 export type LoopState = { running: boolean; online: boolean; nextRetryAt: number | null };
@@ -63,7 +63,11 @@ export class SyncLoop {
   }
 
   state(): LoopState {
-    return { running: this.running, online: typeof navigator === "undefined" ? true : navigator.onLine, nextRetryAt: this.nextRetryAt };
+    return {
+      running: this.running,
+      online: typeof navigator === "undefined" ? true : navigator.onLine,
+      nextRetryAt: this.nextRetryAt,
+    };
   }
 
   /** Ask for a round in `delayMs` (sooner requests win). */
@@ -97,7 +101,9 @@ export class SyncLoop {
     this.emit();
     let outcome: SyncResult | TransportError | Error;
     try {
-      outcome = await withLock(() => syncOnce(this.db, this.transport, { maxBatch: PUSH_LIMITS.maxEntries, maxBytes: PUSH_LIMITS.maxBytes }));
+      outcome = await withLock(() =>
+        syncOnce(this.db, this.transport, { maxBatch: PUSH_LIMITS.maxEntries, maxBytes: PUSH_LIMITS.maxBytes }),
+      );
       this.failures = 0;
     } catch (e) {
       outcome = e instanceof Error ? e : new Error(String(e));
@@ -130,7 +136,10 @@ export class SyncLoop {
     if (outcome instanceof Error) {
       // No point retrying a dead session on a timer: the sign-in brings us back.
       if (outcome instanceof TransportError && outcome.kind === "unauthorized") delay = this.o.maxBackoffMs;
-      else delay = Math.min(this.o.maxBackoffMs, this.o.minBackoffMs * 2 ** Math.min(this.failures - 1, 12)) * (0.75 + Math.random() * 0.5);
+      else
+        delay =
+          Math.min(this.o.maxBackoffMs, this.o.minBackoffMs * 2 ** Math.min(this.failures - 1, 12)) *
+          (0.75 + Math.random() * 0.5);
       this.nextRetryAt = Date.now() + delay;
     }
     this.timer = setTimeout(() => {

@@ -1,9 +1,9 @@
 // The sync protocol's shapes and bounds, shared by the tablet and the server: what a push sends
 // and gets back, what a pull returns, and how a push body is checked entry by entry.
 import type { Accepted, Rejected } from "@/db/queries/entries";
-import { AppError } from "@/lib/errors";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { parseEntry, type EntryInput, type StoredEntry } from "@/lib/schemas/entry";
+import { AppError } from "@/lib/errors";
+import { type EntryInput, parseEntry, type StoredEntry } from "@/lib/schemas/entry";
 
 /** A push carries at most this many entries and bytes; over it the server answers 413. */
 export const PUSH_LIMITS = { maxEntries: 2000, maxBytes: 4_000_000 } as const;
@@ -48,7 +48,11 @@ export function parsePushBody(body: unknown): { entries: EntryInput[]; rejected:
     throw new AppError("bad_request", "sync", 'A push is a JSON object { "entries": [ … ] }.');
   }
   if (list.length > PUSH_LIMITS.maxEntries) {
-    throw new AppError("too_large", "sync", `This push holds ${list.length} entries; at most ${PUSH_LIMITS.maxEntries} are accepted at a time. Send them in smaller batches.`);
+    throw new AppError(
+      "too_large",
+      "sync",
+      `This push holds ${list.length} entries; at most ${PUSH_LIMITS.maxEntries} are accepted at a time. Send them in smaller batches.`,
+    );
   }
   const entries: EntryInput[] = [];
   const rejected: Rejected[] = [];
@@ -61,7 +65,12 @@ export function parsePushBody(body: unknown): { entries: EntryInput[]; rejected:
       parsed = { ok: false, problems: ["the entry could not be read"] };
     }
     if (parsed.ok) entries.push(parsed.entry);
-    else rejected.push({ id: idOf(raw, i), code: "bad_request:entry", message: `The entry is not valid: ${parsed.problems.join("; ")}` });
+    else
+      rejected.push({
+        id: idOf(raw, i),
+        code: "bad_request:entry",
+        message: `The entry is not valid: ${parsed.problems.join("; ")}`,
+      });
   });
   return { entries, rejected };
 }

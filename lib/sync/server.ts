@@ -3,7 +3,7 @@
 import type { Db } from "@/db/client";
 import { appendEntries, pullEntries } from "@/db/queries/entries";
 import type { SessionUser } from "@/lib/auth/session-user";
-import { parsePushBody, PULL_PAGE, type PushReply } from "./protocol";
+import { PULL_PAGE, type PushReply, parsePushBody } from "./protocol";
 
 export async function applyPush(db: Db, user: SessionUser, body: unknown): Promise<PushReply> {
   const { entries, rejected } = parsePushBody(body);
@@ -11,6 +11,10 @@ export async function applyPush(db: Db, user: SessionUser, body: unknown): Promi
   return { accepted: res.accepted, rejected: [...rejected, ...res.rejected] };
 }
 
-export async function pullPage(db: Db, user: SessionUser, { since, limit = PULL_PAGE }: { since: number; limit?: number }) {
+export async function pullPage(
+  db: Db,
+  user: SessionUser,
+  { since, limit = PULL_PAGE }: { since: number; limit?: number },
+) {
   return pullEntries(db, { since, role: user.role, limit });
 }

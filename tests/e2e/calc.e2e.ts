@@ -83,7 +83,9 @@ describe("calculators", () => {
     await page.getByRole("heading", { level: 2, name: "Oxygen deficiency", exact: true }).waitFor();
     // 30 m³ into the 220 m³ room, mixed: 0.21·220/250 = 18.48 % O2 (hand arithmetic, FESHM 4240 form).
     await page.getByLabel("Gas released").fill("30");
-    await expect.poll(() => page.locator('dl[aria-label="Sudden release: results"]').innerText()).toContain("18.5 % O₂");
+    await expect
+      .poll(() => page.locator('dl[aria-label="Sudden release: results"]').innerText())
+      .toContain("18.5 % O₂");
 
     for (const [section, theme] of [
       ["its90", "light"],
@@ -112,11 +114,22 @@ describe("cryostat charts", () => {
     await charts.locator("canvas").first().waitFor({ state: "attached" });
     await charts.scrollIntoViewIfNeeded();
     if (id === "heron") {
-      await charts.getByRole("figure", { name: /Stage temperatures/ }).locator("canvas").waitFor({ state: "attached" });
-      await charts.getByRole("figure", { name: /Magnet field/ }).locator("canvas").waitFor({ state: "attached" });
+      await charts
+        .getByRole("figure", { name: /Stage temperatures/ })
+        .locator("canvas")
+        .waitFor({ state: "attached" });
+      await charts
+        .getByRole("figure", { name: /Magnet field/ })
+        .locator("canvas")
+        .waitFor({ state: "attached" });
     } else {
-      await charts.getByRole("figure", { name: /Helium level/ }).locator("canvas").waitFor({ state: "attached" });
-      expect(await charts.getByTestId("helium-forecast").innerText()).toMatch(/Boil-off since the last fill: [\d.]+ ± [\d.]+ L\/day/);
+      await charts
+        .getByRole("figure", { name: /Helium level/ })
+        .locator("canvas")
+        .waitFor({ state: "attached" });
+      expect(await charts.getByTestId("helium-forecast").innerText()).toMatch(
+        /Boil-off since the last fill: [\d.]+ ± [\d.]+ L\/day/,
+      );
     }
     for (const theme of ["light", "dim"] as const) {
       await setTheme(page, theme);

@@ -8,11 +8,11 @@ import {
   assertBuildExists,
   buildApp,
   logTail,
+  type RunningServer,
   removeDataDir,
   startServer,
   stopServer,
   waitForHealth,
-  type RunningServer,
 } from "./support/server";
 
 declare module "vitest" {

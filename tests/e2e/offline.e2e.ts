@@ -42,7 +42,9 @@ describe("a shift without network", () => {
     // Both tablets lose the network.
     await a.context.setOffline(true);
     await b.context.setOffline(true);
-    await a.page.waitForFunction(() => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-online") === "no");
+    await a.page.waitForFunction(
+      () => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-online") === "no",
+    );
 
     // Open a cryostat page never visited online: the service worker serves the page template.
     await a.page.getByRole("link", { name: "Open Wren" }).click();
@@ -53,7 +55,10 @@ describe("a shift without network", () => {
     // Live derived value with no network: a level in % shows its litres (Wren: 0.6 L per %).
     await a.page.getByRole("tab", { name: "Helium level" }).click();
     await a.page.getByRole("textbox", { name: "Level (%)" }).fill("50");
-    await a.page.locator("#helium-derived").filter({ hasText: /30(\.0+)? L/ }).waitFor();
+    await a.page
+      .locator("#helium-derived")
+      .filter({ hasText: /30(\.0+)? L/ })
+      .waitFor();
     await a.page.getByRole("tab", { name: "Note" }).click();
     expect(await logbook(a.page).getByText(noteA).isVisible()).toBe(true);
     expect(await logbook(a.page).locator('li[data-sync="pending"]').count()).toBe(2);
@@ -95,7 +100,9 @@ describe("a shift without network", () => {
     const res = await b.page.request.get("/api/cryostats/wren/entries?limit=20");
     expect(res.status()).toBe(200);
     expect(res.headers()["cache-control"]).toBe("no-store");
-    const body = (await res.json()) as { entries: { kind: string; authorId: string; payload: Record<string, unknown> }[] };
+    const body = (await res.json()) as {
+      entries: { kind: string; authorId: string; payload: Record<string, unknown> }[];
+    };
     const fromA = body.entries.filter((e) => e.authorId === "u-tomasz");
     expect(fromA.some((e) => e.kind === "note" && e.payload.text === noteA)).toBe(true);
     expect(fromA.some((e) => e.kind === "reading" && e.payload.value === 4.21 && e.payload.unit === "K")).toBe(true);
@@ -121,7 +128,10 @@ describe("a shift without network", () => {
           r.onerror = () => reject(r.error);
         });
         db.close();
-        return all.filter((e) => e.cryostatId === "wren").map((e) => `${e.id}:${e.sync}`).sort();
+        return all
+          .filter((e) => e.cryostatId === "wren")
+          .map((e) => `${e.id}:${e.sync}`)
+          .sort();
       });
     const [idsA, idsB] = [await idsOf(a.page), await idsOf(b.page)];
     expect(idsA).toEqual(idsB);
@@ -152,7 +162,11 @@ describe("a shift without network", () => {
           const r = db.transaction(store).objectStore(store).count();
           r.onsuccess = () => resolve(r.result);
         });
-      const out = { entries: await count("entries"), cryostats: await count("cryostats"), outbox: await count("outbox") };
+      const out = {
+        entries: await count("entries"),
+        cryostats: await count("cryostats"),
+        outbox: await count("outbox"),
+      };
       db.close();
       return out;
     });

@@ -15,7 +15,10 @@ const tablet = useTablets(baseURL);
 
 const PIN = "482916";
 // A 2×2 PNG, as a camera would hand over a JPEG: the bytes matter only for the upload's type check.
-const PHOTO = Buffer.from("iVBORw0KGgoAAAANSUhEUgAAAAIAAAACCAIAAAD91JpzAAAAFklEQVR4nGP8z8DAwMDAxMDAwMDAAAANHQEDasKb6QAAAABJRU5ErkJggg==", "base64");
+const PHOTO = Buffer.from(
+  "iVBORw0KGgoAAAANSUhEUgAAAAIAAAACCAIAAAD91JpzAAAAFklEQVR4nGP8z8DAwMDAxMDAwMDAAAANHQEDasKb6QAAAABJRU5ErkJggg==",
+  "base64",
+);
 const waitPending = (page: Page, n: number, timeout = 60_000) => waitPendingFor(page, n, timeout);
 
 const step = (page: Page, id: string) => page.locator(`[data-step="${id}"]`);
@@ -41,7 +44,11 @@ async function acknowledge(page: Page, id: string) {
 async function reading(page: Page, id: string, value: string, { keypad = false } = {}) {
   const s = step(page, id);
   if (keypad) {
-    for (const k of value) await s.getByRole("group", { name: /Keypad/ }).getByRole("button", { name: k === "." ? "Decimal point" : k, exact: true }).click();
+    for (const k of value)
+      await s
+        .getByRole("group", { name: /Keypad/ })
+        .getByRole("button", { name: k === "." ? "Decimal point" : k, exact: true })
+        .click();
   } else {
     await s.getByLabel(/^Value in/).fill(value);
   }
@@ -59,7 +66,8 @@ async function signWithPin(page: Page, buttonName: string, signLabel: string) {
   const box = (await pad.boundingBox())!;
   await page.mouse.move(box.x + 30, box.y + 120);
   await page.mouse.down();
-  for (let i = 1; i <= 20; i++) await page.mouse.move(box.x + 30 + i * 14, box.y + 120 - 40 * Math.sin(i / 3), { steps: 2 });
+  for (let i = 1; i <= 20; i++)
+    await page.mouse.move(box.x + 30 + i * 14, box.y + 120 - 40 * Math.sin(i / 3), { steps: 2 });
   await page.mouse.up();
   await dialog.getByLabel("Signing PIN").fill(PIN);
   await dialog.getByRole("button", { name: signLabel }).click();
@@ -101,7 +109,9 @@ describe("procedures on a tablet with no network", () => {
     await t.context.setOffline(true);
     await page.getByRole("button", { name: "Start Cooldown — dry dilution refrigerator on Heron" }).click();
     // Offline, Chromium reports the service worker's answer to a navigation as "aborted": wait for the page instead.
-    await page.getByRole("heading", { level: 1, name: /Cooldown — dry dilution refrigerator — Heron/ }).waitFor({ timeout: 30_000 });
+    await page
+      .getByRole("heading", { level: 1, name: /Cooldown — dry dilution refrigerator — Heron/ })
+      .waitFor({ timeout: 30_000 });
     const runId = new URL(page.url()).searchParams.get("id")!;
     expect(runId).toMatch(/^[0-9a-f-]{36}$/);
 
@@ -113,11 +123,17 @@ describe("procedures on a tablet with no network", () => {
 
     // Out of range: flagged at once, the step's own advice shown, and a comment is required.
     const tank = step(page, "tank-before");
-    for (const k of "640") await tank.getByRole("group", { name: /Keypad/ }).getByRole("button", { name: k, exact: true }).click();
+    for (const k of "640")
+      await tank
+        .getByRole("group", { name: /Keypad/ })
+        .getByRole("button", { name: k, exact: true })
+        .click();
     await tank.getByRole("status").filter({ hasText: "Out of range: below 700 – 900 mbar." }).waitFor();
     await tank.getByText("Do not condense.").waitFor();
     expect(await tank.getByRole("button", { name: "Record flagged reading" }).isDisabled()).toBe(true);
-    await tank.getByLabel(/^Comment/).fill("Tank low after the last warmup: facility admin told, mixture topped up from the reserve.");
+    await tank
+      .getByLabel(/^Comment/)
+      .fill("Tank low after the last warmup: facility admin told, mixture topped up from the reserve.");
     await shots(page, "run-reading-out-of-range");
     await tank.getByRole("button", { name: "Record flagged reading" }).click();
     await page.locator('[data-step="tank-before"][data-status="flagged"]').waitFor();
@@ -152,7 +168,9 @@ describe("procedures on a tablet with no network", () => {
 
     mark("after reload, readings done");
     // A photo from the camera, kept on the tablet until the sync uploads it.
-    await step(page, "panel-photo").getByLabel("Take a photo").setInputFiles({ name: "gas-panel.png", mimeType: "image/png", buffer: PHOTO });
+    await step(page, "panel-photo")
+      .getByLabel("Take a photo")
+      .setInputFiles({ name: "gas-panel.png", mimeType: "image/png", buffer: PHOTO });
     await page.locator('[data-step="panel-photo"][data-status="done"]').waitFor();
     await step(page, "panel-photo").getByRole("img", { name: "Photo for this step" }).waitFor();
     await next(page);
@@ -182,18 +200,30 @@ describe("procedures on a tablet with no network", () => {
     await waitPending(page, 0, 90_000);
     const res = await page.request.get(`/api/runs?id=${runId}`);
     expect(res.status()).toBe(200);
-    const record = (await res.json()) as { run: { status: string; templateId: string }; template: { version: number }; entries: { kind: string; payload: Record<string, unknown> }[] };
+    const record = (await res.json()) as {
+      run: { status: string; templateId: string };
+      template: { version: number };
+      entries: { kind: string; payload: Record<string, unknown> }[];
+    };
     expect(record.run.status).toBe("completed");
     expect(record.template.version).toBe(1);
     const sigs = record.entries.filter((e) => e.kind === "signature");
     expect(sigs.map((s) => s.payload.meaning).sort()).toEqual(["performed", "verified", "verified"]);
-    expect(sigs.every((s) => s.payload.confirmedBy === "pin" && String(s.payload.image).startsWith("data:image/png;base64,"))).toBe(true);
+    expect(
+      sigs.every(
+        (s) => s.payload.confirmedBy === "pin" && String(s.payload.image).startsWith("data:image/png;base64,"),
+      ),
+    ).toBe(true);
     const flagged = record.entries.find((e) => e.kind === "run.step" && e.payload.stepId === "tank-before");
     expect(flagged?.payload).toMatchObject({ value: 640, outOfRange: true });
     const photo = record.entries.find((e) => e.kind === "run.step" && e.payload.kind === "photo");
     const file = await page.request.get(`/api/attachments/${String(photo?.payload.attachmentId)}`);
     expect(file.status()).toBe(200);
-    expect(Buffer.from(await file.body()).subarray(0, 8).equals(PHOTO.subarray(0, 8))).toBe(true);
+    expect(
+      Buffer.from(await file.body())
+        .subarray(0, 8)
+        .equals(PHOTO.subarray(0, 8)),
+    ).toBe(true);
 
     mark("synced to the server");
     // The safety officer, on her own tablet, opens the run record with the manifestations.
@@ -201,7 +231,10 @@ describe("procedures on a tablet with no network", () => {
     await g.page.goto(`/runs?id=${runId}&view=record`);
     const rec = g.page.getByRole("article", { name: "Run record" });
     await rec.waitFor({ timeout: 60_000 });
-    await rec.locator('[data-record-step="hold-precool"] [data-signature]').getByText("Verified — Tomasz Okafor").waitFor();
+    await rec
+      .locator('[data-record-step="hold-precool"] [data-signature]')
+      .getByText("Verified — Tomasz Okafor")
+      .waitFor();
     const manifest = await rec.locator("[data-signature]").allInnerTexts();
     expect(manifest.length).toBe(3);
     for (const m of manifest) {
@@ -277,7 +310,9 @@ describe("procedures on a tablet with no network", () => {
     await admin.page.getByRole("button", { name: "Edit Liquid helium transfer" }).click();
     await admin.page.getByLabel("Title", { exact: true }).fill("Liquid helium transfer (rev. B)");
     await admin.page.getByRole("button", { name: "Save as version 2" }).click();
-    const panel = admin.page.locator("section").filter({ has: admin.page.getByRole("heading", { name: "Liquid helium transfer (rev. B)" }) });
+    const panel = admin.page
+      .locator("section")
+      .filter({ has: admin.page.getByRole("heading", { name: "Liquid helium transfer (rev. B)" }) });
     await panel.getByText("version 2").waitFor();
     await panel.getByText(/v2 .* · v1 /).waitFor();
     await admin.page.evaluate(() => window.scrollTo(0, 0));

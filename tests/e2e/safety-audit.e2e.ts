@@ -33,7 +33,11 @@ describe("facility rules document", () => {
     await upload.waitFor();
 
     // A PNG named like a PDF: refused by its content.
-    await upload.setInputFiles({ name: "rules.pdf", mimeType: "application/pdf", buffer: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 1, 2, 3, 4]) });
+    await upload.setInputFiles({
+      name: "rules.pdf",
+      mimeType: "application/pdf",
+      buffer: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 1, 2, 3, 4]),
+    });
     await page.getByRole("alert").filter({ hasText: '"rules.pdf" is not a PDF' }).waitFor();
     await screenshot(page, "safety-rules-upload-not-pdf");
 
@@ -45,11 +49,20 @@ describe("facility rules document", () => {
       data: big,
     });
     expect(res.status()).toBe(413);
-    expect(((await res.json()) as { error: { message: string } }).error.message).toMatch(/"huge.pdf" is 10.0 MB; the limit is 10 MB/);
+    expect(((await res.json()) as { error: { message: string } }).error.message).toMatch(
+      /"huge.pdf" is 10.0 MB; the limit is 10 MB/,
+    );
 
     // A real PDF: in force, as an audited rules change.
-    await upload.setInputFiles({ name: "b014-cryogen-rules.pdf", mimeType: "application/pdf", buffer: Buffer.from(await rulesPdf()) });
-    await page.getByRole("status").filter({ hasText: '"b014-cryogen-rules.pdf" is now the facility\'s rules document' }).waitFor();
+    await upload.setInputFiles({
+      name: "b014-cryogen-rules.pdf",
+      mimeType: "application/pdf",
+      buffer: Buffer.from(await rulesPdf()),
+    });
+    await page
+      .getByRole("status")
+      .filter({ hasText: '"b014-cryogen-rules.pdf" is now the facility\'s rules document' })
+      .waitFor();
     await screenshot(page, "safety-rules-admin");
     const facility = await page.request.get("/api/rules");
     const body = (await facility.json()) as { rules: { version: number; document: { fileName: string } | null } };
@@ -73,7 +86,10 @@ describe("a flagged transfer from offline to a signed audit", () => {
     await tech.page.goto("/transfers/new");
     const caution = tech.page.locator('aside[data-caution="transfer"]');
     await caution.locator('[data-fact="oxygen"]').filter({ hasText: "19.5 %" }).waitFor();
-    await tech.page.getByLabel("Cryostat", { exact: true }).locator("option", { hasText: "Plover" }).waitFor({ state: "attached" });
+    await tech.page
+      .getByLabel("Cryostat", { exact: true })
+      .locator("option", { hasText: "Plover" })
+      .waitFor({ state: "attached" });
 
     // The network goes; the form is reloaded from the service worker and still works.
     await tech.context.setOffline(true);
@@ -83,7 +99,9 @@ describe("a flagged transfer from offline to a signed audit", () => {
     await caution.locator('[data-fact="oxygen"]').filter({ hasText: "Oxygen alarm at 19.5 %" }).waitFor();
     expect(await caution.locator('[data-fact="ppe"]').innerText()).toContain("Face shield");
     expect(await caution.locator('[data-fact="two-person"]').innerText()).toMatch(/Two people must be present/);
-    expect(await caution.locator("[data-deferral]").innerText()).toMatch(/training, the safety officer .* equipment maker's instructions/);
+    expect(await caution.locator("[data-deferral]").innerText()).toMatch(
+      /training, the safety officer .* equipment maker's instructions/,
+    );
     await tech.page.getByLabel("Supply dewar").fill("D-250-B");
     await tech.page.getByLabel(/^PPE worn/).check();
     // Oxygen monitor not checked, no reading; only the technician present (pre-ticked).
@@ -93,7 +111,11 @@ describe("a flagged transfer from offline to a signed audit", () => {
     await tech.page.getByLabel("Duration (min)").fill("35");
     await tech.page.getByLabel("Anomalies").fill(`Second person called away (${tag})`);
     await tech.page.locator('[data-figure="efficiency"]').waitFor();
-    expect(await tech.page.getByText("The facility's rules require two people present for a transfer.", { exact: true }).isVisible()).toBe(true);
+    expect(
+      await tech.page
+        .getByText("The facility's rules require two people present for a transfer.", { exact: true })
+        .isVisible(),
+    ).toBe(true);
     await screenshot(tech.page, "safety-transfer-offline");
     await tech.page.getByRole("button", { name: "Save transfer" }).click();
     await tech.page.getByRole("status").filter({ hasText: "Transfer saved on this tablet" }).waitFor();
@@ -107,7 +129,9 @@ describe("a flagged transfer from offline to a signed audit", () => {
     const officer = await tablet(DEMO_USERS.grace.email);
     const q = await officer.page.request.get("/api/audit/queue");
     expect(q.status()).toBe(200);
-    const queue = (await q.json()) as { items: { entry: { id: string; payload: { anomalies?: string } }; flags: { code: string }[] }[] };
+    const queue = (await q.json()) as {
+      items: { entry: { id: string; payload: { anomalies?: string } }; flags: { code: string }[] }[];
+    };
     const item = queue.items.find((i) => i.entry.payload.anomalies?.includes(tag));
     expect(item).toBeDefined();
     const id = item!.entry.id;
@@ -125,7 +149,9 @@ describe("a flagged transfer from offline to a signed audit", () => {
     await officer.page.getByRole("heading", { level: 2, name: "Helium transfer on Plover" }).waitFor();
     await officer.page.locator('[data-flag="single_person"]').first().waitFor();
     await officer.page.getByRole("radio", { name: "Needs action" }).click();
-    await officer.page.getByLabel("Findings").fill("Transfer done alone and without the oxygen monitor. Brief the team on the two-person rule.");
+    await officer.page
+      .getByLabel("Findings")
+      .fill("Transfer done alone and without the oxygen monitor. Brief the team on the two-person rule.");
     await officer.page.getByRole("button", { name: "Sign the finding" }).click();
     const dialog = officer.page.getByRole("dialog", { name: "Sign the audit finding" });
     await dialog.waitFor();
@@ -133,18 +159,23 @@ describe("a flagged transfer from offline to a signed audit", () => {
     const box = (await pad.boundingBox())!;
     await officer.page.mouse.move(box.x + 40, box.y + 120);
     await officer.page.mouse.down();
-    for (let k = 1; k <= 12; k++) await officer.page.mouse.move(box.x + 40 + k * 25, box.y + 120 - Math.sin(k / 2) * 50, { steps: 3 });
+    for (let k = 1; k <= 12; k++)
+      await officer.page.mouse.move(box.x + 40 + k * 25, box.y + 120 - Math.sin(k / 2) * 50, { steps: 3 });
     await officer.page.mouse.up();
     await dialog.getByRole("radio", { name: "Password (online)" }).click();
     await dialog.getByLabel("Password").fill(DEMO_PASSWORD);
     await dialog.getByRole("button", { name: "Sign: Audited" }).click();
     await officer.page.getByRole("status").filter({ hasText: "Finding signed: needs action." }).waitFor();
     await officer.page.locator("[data-finding] [data-signature]").first().waitFor();
-    expect(await officer.page.locator("[data-finding]").first().innerText()).toMatch(/Audited — Dr\. Grace Oyelaran[\s\S]*identity confirmed with password/);
+    expect(await officer.page.locator("[data-finding]").first().innerText()).toMatch(
+      /Audited — Dr\. Grace Oyelaran[\s\S]*identity confirmed with password/,
+    );
     await screenshot(officer.page, "safety-audit-signed");
 
     // Out of the queue now.
-    const after = (await (await officer.page.request.get("/api/audit/queue")).json()) as { items: { entry: { id: string } }[] };
+    const after = (await (await officer.page.request.get("/api/audit/queue")).json()) as {
+      items: { entry: { id: string } }[];
+    };
     expect(after.items.some((i) => i.entry.id === id)).toBe(false);
 
     // CSV: the record with its flags and the officer's signature manifestation.
@@ -161,7 +192,9 @@ describe("a flagged transfer from offline to a signed audit", () => {
 
     // PDF report of the period: opens with pdf-lib; first page rendered to PNG to look at.
     const today = new Date().toISOString().slice(0, 10);
-    const pdfRes = await officer.page.request.get(`/api/exports/report?from=${new Date(Date.now() - 35 * 86_400_000).toISOString().slice(0, 10)}&to=${today}`);
+    const pdfRes = await officer.page.request.get(
+      `/api/exports/report?from=${new Date(Date.now() - 35 * 86_400_000).toISOString().slice(0, 10)}&to=${today}`,
+    );
     expect(pdfRes.status()).toBe(200);
     expect(pdfRes.headers()["content-type"]).toBe("application/pdf");
     const pdf = await pdfRes.body();
@@ -173,7 +206,18 @@ describe("a flagged transfer from offline to a signed audit", () => {
     const pdfPath = join(SCREENSHOT_DIR, "safety-audit-report.pdf");
     writeFileSync(pdfPath, pdf);
     if (existsSync("/usr/bin/pdftoppm")) {
-      execFileSync("/usr/bin/pdftoppm", ["-png", "-r", "80", "-f", "1", "-l", "1", "-singlefile", pdfPath, join(SCREENSHOT_DIR, "safety-audit-report-page1")]);
+      execFileSync("/usr/bin/pdftoppm", [
+        "-png",
+        "-r",
+        "80",
+        "-f",
+        "1",
+        "-l",
+        "1",
+        "-singlefile",
+        pdfPath,
+        join(SCREENSHOT_DIR, "safety-audit-report-page1"),
+      ]);
       expect(existsSync(join(SCREENSHOT_DIR, "safety-audit-report-page1.png"))).toBe(true);
     }
     expect(tech.errors).toEqual([]);

@@ -8,7 +8,9 @@ import type { Db } from "@/db/client";
 import { DEMO_USERS } from "@/db/seed";
 import { freshDb } from "./fixture";
 
-const session = vi.hoisted(() => ({ current: null as null | { user: { id: string; name: string; email: string; role: string }; sv: number } }));
+const session = vi.hoisted(() => ({
+  current: null as null | { user: { id: string; name: string; email: string; role: string }; sv: number },
+}));
 const database = vi.hoisted(() => ({ db: null as unknown }));
 vi.mock("next-auth", async (orig) => ({ ...(await orig<object>()), getServerSession: async () => session.current }));
 vi.mock("@/db", () => ({ getDb: async () => database.db }));
@@ -24,8 +26,15 @@ function routeFiles(dir = "app/api"): string[] {
   });
 }
 
-function call(handler: (req: Request, ctx: unknown) => Promise<Response>, method: string, url = "http://localhost:3000/api/x") {
-  const init: RequestInit = { method, headers: { host: "localhost:3000", "content-type": "application/json", origin: "http://localhost:3000" } };
+function call(
+  handler: (req: Request, ctx: unknown) => Promise<Response>,
+  method: string,
+  url = "http://localhost:3000/api/x",
+) {
+  const init: RequestInit = {
+    method,
+    headers: { host: "localhost:3000", "content-type": "application/json", origin: "http://localhost:3000" },
+  };
   if (method !== "GET") init.body = "{}";
   // Dynamic segments all get the same harmless value.
   const params = new Proxy({}, { get: (_t, k) => (k === "then" ? undefined : "heron") });
@@ -82,7 +91,12 @@ describe("role-restricted routes", () => {
       new Request("http://localhost:3000/api/users", {
         method: "POST",
         headers: { host: "localhost:3000", "content-type": "application/json" },
-        body: JSON.stringify({ name: "Mallory Test", email: "m@x.example", role: "facility_admin", password: "0123456789" }),
+        body: JSON.stringify({
+          name: "Mallory Test",
+          email: "m@x.example",
+          role: "facility_admin",
+          password: "0123456789",
+        }),
       }),
     );
     expect(res.status).toBe(403);

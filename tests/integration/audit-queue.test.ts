@@ -2,10 +2,11 @@
 // reading are queued with their flags; a finding with a password-confirmed "audited" signature
 // takes a record out of the queue; an unconfirmed audit signature, or one on the record itself,
 // is refused; the transfer table filters by flag and person.
+
+import { randomUUID } from "node:crypto";
 import { mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { auditQueue, auditTable } from "@/db/queries/audit";
@@ -16,22 +17,54 @@ import { hmacHex, passwordProofKey, signingMessage } from "@/lib/signing/proof";
 import { recordHash } from "@/lib/sync/hash";
 import { freshDb } from "./fixture";
 
-const grace = { id: "u-grace", email: "grace@larchmere.example", name: "Dr. Grace Oyelaran", role: "safety_officer" as const };
+const grace = {
+  id: "u-grace",
+  email: "grace@larchmere.example",
+  name: "Dr. Grace Oyelaran",
+  role: "safety_officer" as const,
+};
 const keyDir = mkdtempSync(join(tmpdir(), "rimelog-audit-keys-"));
 
-function finding(target: { id: string; cryostatId: string | null }, verdict: "acceptable" | "needs_action"): EntryInput {
-  return { id: randomUUID(), cryostatId: target.cryostatId, runId: null, kind: "audit.finding", payload: { targetEntryId: target.id, verdict, findings: "Checked.", flags: [] }, authorId: grace.id, deviceId: "audit-desk", recordedAt: new Date().toISOString(), supersedes: null, reason: null };
+function finding(
+  target: { id: string; cryostatId: string | null },
+  verdict: "acceptable" | "needs_action",
+): EntryInput {
+  return {
+    id: randomUUID(),
+    cryostatId: target.cryostatId,
+    runId: null,
+    kind: "audit.finding",
+    payload: { targetEntryId: target.id, verdict, findings: "Checked.", flags: [] },
+    authorId: grace.id,
+    deviceId: "audit-desk",
+    recordedAt: new Date().toISOString(),
+    supersedes: null,
+    reason: null,
+  };
 }
 
 function signature(target: EntryInput, passwordHash: string | null, over: Record<string, unknown> = {}): EntryInput {
   const signedHash = recordHash(target);
-  const proof = passwordHash ? hmacHex(passwordProofKey(passwordHash), signingMessage({ signedEntryId: target.id, signedHash, meaning: "audited", signerId: grace.id })) : undefined;
+  const proof = passwordHash
+    ? hmacHex(
+        passwordProofKey(passwordHash),
+        signingMessage({ signedEntryId: target.id, signedHash, meaning: "audited", signerId: grace.id }),
+      )
+    : undefined;
   return {
     id: randomUUID(),
     cryostatId: target.cryostatId,
     runId: null,
     kind: "signature",
-    payload: { signedEntryId: target.id, meaning: "audited", signerName: grace.name, signerRole: "safety_officer", signedHash, ...(proof ? { confirmedBy: "password", confirmProof: proof } : {}), ...over },
+    payload: {
+      signedEntryId: target.id,
+      meaning: "audited",
+      signerName: grace.name,
+      signerRole: "safety_officer",
+      signedHash,
+      ...(proof ? { confirmedBy: "password", confirmProof: proof } : {}),
+      ...over,
+    },
     authorId: grace.id,
     deviceId: "audit-desk",
     recordedAt: new Date().toISOString(),
@@ -44,10 +77,36 @@ describe("audit queue", () => {
   it("queues the seeded transfers with their flags and takes a signed one out", async () => {
     const db = await freshDb({ seeded: true });
     // A one-person transfer (hand-made: the demo history's own may fall on a day without a transfer).
-    const tomasz = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" as const };
+    const tomasz = {
+      id: "u-tomasz",
+      email: "tomasz@larchmere.example",
+      name: "Tomasz Okafor",
+      role: "technician" as const,
+    };
     const alone: EntryInput = {
-      id: randomUUID(), cryostatId: "plover", runId: null, kind: "transfer", authorId: tomasz.id, deviceId: "tab-9", recordedAt: new Date().toISOString(), supersedes: null, reason: null,
-      payload: { supplyDewar: "D-250-B", peoplePresent: ["u-tomasz"], ppeConfirmed: true, oxygenMonitorChecked: true, oxygenLowestPercent: 20.7, levelBeforePercent: 31, levelAfterPercent: 80, suppliedLitres: 68, suppliedBy: "level", gainedLitres: 49, durationMin: 35, anomalies: "" },
+      id: randomUUID(),
+      cryostatId: "plover",
+      runId: null,
+      kind: "transfer",
+      authorId: tomasz.id,
+      deviceId: "tab-9",
+      recordedAt: new Date().toISOString(),
+      supersedes: null,
+      reason: null,
+      payload: {
+        supplyDewar: "D-250-B",
+        peoplePresent: ["u-tomasz"],
+        ppeConfirmed: true,
+        oxygenMonitorChecked: true,
+        oxygenLowestPercent: 20.7,
+        levelBeforePercent: 31,
+        levelAfterPercent: 80,
+        suppliedLitres: 68,
+        suppliedBy: "level",
+        gainedLitres: 49,
+        durationMin: 35,
+        anomalies: "",
+      },
     };
     expect((await appendEntries(db, tomasz, [alone])).rejected).toEqual([]);
     const queue = await auditQueue(db, { keyDir });
@@ -55,10 +114,14 @@ describe("audit queue", () => {
     expect(transfers.length).toBeGreaterThan(4);
     const single = transfers.find((i) => i.entry.id === alone.id)!;
     expect(single.flags.map((f) => f.code)).toContain("single_person");
-    const noOxygen = transfers.find((i) => (i.entry.payload as { oxygenMonitorChecked: boolean }).oxygenMonitorChecked === false)!;
+    const noOxygen = transfers.find(
+      (i) => (i.entry.payload as { oxygenMonitorChecked: boolean }).oxygenMonitorChecked === false,
+    )!;
     expect(noOxygen.flags.map((f) => f.code)).toContain("oxygen_check_missing");
     expect(queue.some((i) => i.entry.kind === "quench")).toBe(true);
-    expect(single.figures && "efficiencyPercent" in single.figures ? single.figures.efficiencyPercent : null).toBeGreaterThan(50);
+    expect(
+      single.figures && "efficiencyPercent" in single.figures ? single.figures.efficiencyPercent : null,
+    ).toBeGreaterThan(50);
 
     const [g] = await db.select().from(users).where(eq(users.id, grace.id));
     const f = finding(single.entry, "needs_action");
@@ -80,7 +143,11 @@ describe("audit queue", () => {
     expect(table.every((i) => i.flags.some((x) => x.code === "single_person"))).toBe(true);
     const signed = table.find((i) => i.entry.id === single.entry.id)!;
     expect(signed.verdict).toBe("needs_action");
-    expect(signed.findings[0]!.signatures[0]).toMatchObject({ meaning: "audited", signerName: grace.name, confirmedBy: "password" });
+    expect(signed.findings[0]!.signatures[0]).toMatchObject({
+      meaning: "audited",
+      signerName: grace.name,
+      confirmedBy: "password",
+    });
     const byPriya = await auditTable(db, { keyDir, personId: "u-priya" });
     expect(byPriya.length).toBeGreaterThan(0);
     expect(byPriya.some((i) => i.entry.id === alone.id)).toBe(false);
@@ -91,7 +158,9 @@ describe("audit queue", () => {
     const [item] = (await auditQueue(db, { keyDir })).filter((i) => i.entry.kind === "transfer");
     const f = finding(item!.entry, "acceptable");
     const res = await appendEntries(db, grace, [f, signature(f, null)]);
-    expect(res.rejected.map((r) => r.message)).toEqual(["An audit signature must be confirmed with the officer's PIN or password."]);
+    expect(res.rejected.map((r) => r.message)).toEqual([
+      "An audit signature must be confirmed with the officer's PIN or password.",
+    ]);
     const [g] = await db.select().from(users).where(eq(users.id, grace.id));
     const onRecord = signature(item!.entry as EntryInput, g!.passwordHash);
     const res2 = await appendEntries(db, grace, [onRecord]);

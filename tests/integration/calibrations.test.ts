@@ -1,8 +1,8 @@
 // Accepting sensor calibration tables (db/queries/calibrations.ts): re-parsed on the server,
 // newest per stage in force, bad files refused with the line that is wrong.
 import { describe, expect, it } from "vitest";
-import { acceptCalibration, listCalibrations } from "@/db/queries/calibrations";
 import { calibrationUploadSchema } from "@/components/cryo/calibration-schema";
+import { acceptCalibration, listCalibrations } from "@/db/queries/calibrations";
 import { convertReading } from "@/lib/cryo";
 import { AppError } from "@/lib/errors";
 import { freshDb } from "./fixture";
@@ -36,7 +36,10 @@ describe("calibrations", () => {
     const db = await freshDb({ seeded: true });
     await acceptCalibration(db, { upload: upload(), userId: "u-tomasz" });
     await new Promise((r) => setTimeout(r, 5));
-    const second = await acceptCalibration(db, { upload: upload({ sensorLabel: "RX-102 #B0001", text: "0.02 15000\n0.2 4000\n2 1500\n" }), userId: "u-ines" });
+    const second = await acceptCalibration(db, {
+      upload: upload({ sensorLabel: "RX-102 #B0001", text: "0.02 15000\n0.2 4000\n2 1500\n" }),
+      userId: "u-ines",
+    });
     await acceptCalibration(db, { upload: upload({ stage: "still" }), userId: "u-tomasz" });
     const inForce = await listCalibrations(db, { cryostatId: "heron" });
     expect(inForce.map((c) => c.stage).sort()).toEqual(["mxc", "still"]);
@@ -55,7 +58,9 @@ describe("calibrations", () => {
 
   it("refuses a stage the cryostat does not have", async () => {
     const db = await freshDb({ seeded: true });
-    await expect(acceptCalibration(db, { upload: upload({ stage: "vti" }), userId: "u-tomasz" })).rejects.toThrow(/no stage "vti"/);
+    await expect(acceptCalibration(db, { upload: upload({ stage: "vti" }), userId: "u-tomasz" })).rejects.toThrow(
+      /no stage "vti"/,
+    );
   });
 
   it("the upload schema refuses an empty file and a missing sensor name", () => {

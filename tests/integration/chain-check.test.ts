@@ -5,16 +5,16 @@
 import { mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { eq } from "drizzle-orm";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import type { Db } from "@/db/client";
 import { checkChain, signChainHeads } from "@/db/queries/chain";
-import { eq } from "drizzle-orm";
-import { chainCheckpoints, chainHeads, entries } from "@/db/schema";
 import { chainEntries } from "@/db/queries/entries";
+import { toStoredRow } from "@/db/queries/stored";
+import { chainCheckpoints, chainHeads, entries } from "@/db/schema";
 import { verifyChain } from "@/lib/audit/chain";
 import { loadOrCreateKey, signCheckpoint } from "@/lib/audit/checkpoint";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
-import { toStoredRow } from "@/db/queries/stored";
 import { freshDb } from "./fixture";
 
 let db: Db;
@@ -31,7 +31,11 @@ afterEach(async () => {
 
 type Row = { id: string; seq: number; hash: string; prev_hash: string };
 async function wren(): Promise<Row[]> {
-  return (await db.$client.query<Row>("SELECT id, seq::int AS seq, hash, prev_hash FROM entries WHERE chain = 'wren' ORDER BY seq")).rows;
+  return (
+    await db.$client.query<Row>(
+      "SELECT id, seq::int AS seq, hash, prev_hash FROM entries WHERE chain = 'wren' ORDER BY seq",
+    )
+  ).rows;
 }
 
 describe("chain check", () => {
@@ -46,7 +50,9 @@ describe("chain check", () => {
   it("names a changed row", async () => {
     const rows = await wren();
     const target = rows[5]!;
-    await db.$client.query(`UPDATE entries SET payload = jsonb_set(payload, '{percent}', '99') WHERE id = $1`, [target.id]);
+    await db.$client.query(`UPDATE entries SET payload = jsonb_set(payload, '{percent}', '99') WHERE id = $1`, [
+      target.id,
+    ]);
     const r = await checkChain(db, { chain: "wren", keyDir });
     expect(r.ok).toBe(false);
     if (r.ok) return;
@@ -68,7 +74,9 @@ describe("chain check", () => {
     const prev = "f".repeat(64);
     const forged = { ...toStoredRow(src!), id: forgedId, seq: free, payload: { percent: 77 } };
     const hash = linkHash(prev, forged, free, forged.receivedAt);
-    await db.insert(entries).values({ ...src!, id: forgedId, seq: free, payload: { percent: 77 }, prevHash: prev, hash });
+    await db
+      .insert(entries)
+      .values({ ...src!, id: forgedId, seq: free, payload: { percent: 77 }, prevHash: prev, hash });
     const r = await checkChain(db, { chain: "wren", keyDir });
     expect(r.ok).toBe(false);
     if (r.ok) return;
@@ -92,7 +100,9 @@ describe("chain check", () => {
     const a = rows[2]!;
     const b = rows[3]!;
     // Swap the two sequence numbers (through a free temporary value: seq is unique).
-    await db.$client.exec(`UPDATE entries SET seq = -1 WHERE id = '${a.id}'; UPDATE entries SET seq = ${a.seq} WHERE id = '${b.id}'; UPDATE entries SET seq = ${b.seq} WHERE id = '${a.id}';`);
+    await db.$client.exec(
+      `UPDATE entries SET seq = -1 WHERE id = '${a.id}'; UPDATE entries SET seq = ${a.seq} WHERE id = '${b.id}'; UPDATE entries SET seq = ${b.seq} WHERE id = '${a.id}';`,
+    );
     const r = await checkChain(db, { chain: "wren", keyDir });
     expect(r.ok).toBe(false);
     if (r.ok) return;
@@ -130,23 +140,46 @@ describe("chain check", () => {
     await signChainHeads(db, { keyDir });
     const rows = await wren();
     const target = rows[4]!;
-    await db.$client.query(`UPDATE entries SET payload = jsonb_set(payload, '{percent}', '99') WHERE id = $1`, [target.id]);
+    await db.$client.query(`UPDATE entries SET payload = jsonb_set(payload, '{percent}', '99') WHERE id = $1`, [
+      target.id,
+    ]);
     // Recompute every hash from the changed row on, as someone with database access could.
-    const all = (await db.$client.query<Record<string, unknown>>("SELECT * FROM entries WHERE chain = 'wren' ORDER BY seq")).rows;
+    const all = (
+      await db.$client.query<Record<string, unknown>>("SELECT * FROM entries WHERE chain = 'wren' ORDER BY seq")
+    ).rows;
     let prevHash = genesisHash("wren");
     const rewritten: { id: string; prev: string; hash: string }[] = [];
     for (const raw of all) {
       const e = toStoredRow({
-        id: raw.id, chain: raw.chain, cryostatId: raw.cryostat_id, runId: raw.run_id, kind: raw.kind, payload: raw.payload, authorId: raw.author_id, deviceId: raw.device_id,
-        recordedAt: new Date(raw.recorded_at as string), supersedes: raw.supersedes, reason: raw.reason, seq: Number(raw.seq), receivedAt: new Date(raw.received_at as string), prevHash: raw.prev_hash, hash: raw.hash,
+        id: raw.id,
+        chain: raw.chain,
+        cryostatId: raw.cryostat_id,
+        runId: raw.run_id,
+        kind: raw.kind,
+        payload: raw.payload,
+        authorId: raw.author_id,
+        deviceId: raw.device_id,
+        recordedAt: new Date(raw.recorded_at as string),
+        supersedes: raw.supersedes,
+        reason: raw.reason,
+        seq: Number(raw.seq),
+        receivedAt: new Date(raw.received_at as string),
+        prevHash: raw.prev_hash,
+        hash: raw.hash,
       } as never);
       const hash = linkHash(prevHash, e, e.seq, e.receivedAt);
       rewritten.push({ id: e.id, prev: prevHash, hash });
       prevHash = hash;
     }
     // Unique prev_hash/hash: move every row to placeholders first, then write the new links.
-    for (const [i, w] of rewritten.entries()) await db.$client.query("UPDATE entries SET prev_hash = $1, hash = $2 WHERE id = $3", [`tmp-p-${i}`, `tmp-h-${i}`, w.id]);
-    for (const w of rewritten) await db.$client.query("UPDATE entries SET prev_hash = $1, hash = $2 WHERE id = $3", [w.prev, w.hash, w.id]);
+    for (const [i, w] of rewritten.entries())
+      await db.$client.query("UPDATE entries SET prev_hash = $1, hash = $2 WHERE id = $3", [
+        `tmp-p-${i}`,
+        `tmp-h-${i}`,
+        w.id,
+      ]);
+    for (const w of rewritten)
+      await db.$client.query("UPDATE entries SET prev_hash = $1, hash = $2 WHERE id = $3", [w.prev, w.hash, w.id]);
     await db.$client.query("UPDATE chain_heads SET hash = $1 WHERE chain = 'wren'", [prevHash]);
     await db.delete(chainCheckpoints);
 
@@ -164,7 +197,14 @@ describe("chain check", () => {
     const rows = await wren();
     const other = loadOrCreateKey(mkdtempSync(join(tmpdir(), "rimelog-other-")));
     const forged = signCheckpoint(other, { chain: "wren", seq: rows.at(-1)!.seq, hash: "0".repeat(64) });
-    await db.insert(chainCheckpoints).values({ chain: "wren", seq: forged.seq, hash: forged.hash, signature: forged.signature, publicKey: forged.publicKey, signedAt: new Date(forged.signedAt) });
+    await db.insert(chainCheckpoints).values({
+      chain: "wren",
+      seq: forged.seq,
+      hash: forged.hash,
+      signature: forged.signature,
+      publicKey: forged.publicKey,
+      signedAt: new Date(forged.signedAt),
+    });
     const r = await checkChain(db, { chain: "wren", keyDir });
     expect(r.ok).toBe(true);
     expect(r.untrustedCheckpoints).toBe(1);

@@ -1,6 +1,6 @@
 // Shared test fixture: one migrated (and optionally seeded) in-memory PGlite per test worker,
 // and a fresh copy of it for each test (dumpDataDir/loadDataDir is much faster than initdb).
-import { openDb, type Db } from "@/db/client";
+import { type Db, openDb } from "@/db/client";
 import { seedIfEmpty } from "@/db/seed";
 
 let emptyDump: Promise<File | Blob> | undefined;

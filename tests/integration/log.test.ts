@@ -11,8 +11,17 @@ const tomasz = DEMO_USERS.find((u) => u.id === "u-tomasz")!;
 
 function note(text: string, over: Partial<EntryInput> = {}): EntryInput {
   return {
-    id: randomUUID(), cryostatId: "wren", runId: null, kind: "note", payload: { text },
-    authorId: tomasz.id, deviceId: "tab-1", recordedAt: new Date().toISOString(), supersedes: null, reason: null, ...over,
+    id: randomUUID(),
+    cryostatId: "wren",
+    runId: null,
+    kind: "note",
+    payload: { text },
+    authorId: tomasz.id,
+    deviceId: "tab-1",
+    recordedAt: new Date().toISOString(),
+    supersedes: null,
+    reason: null,
+    ...over,
   };
 }
 
@@ -53,7 +62,10 @@ describe("append-only log", () => {
     const db = await freshDb({ seeded: true });
     const e = note("mine");
     await appendEntries(db, tomasz, [e]);
-    const res = await appendEntries(db, tomasz, [{ ...e, payload: { text: "changed" } }, note("x", { authorId: "u-priya" })]);
+    const res = await appendEntries(db, tomasz, [
+      { ...e, payload: { text: "changed" } },
+      note("x", { authorId: "u-priya" }),
+    ]);
     expect(res.accepted).toEqual([]);
     expect(res.rejected.map((r) => r.code)).toEqual(["conflict:entry", "forbidden:author"]);
   });

@@ -3,17 +3,44 @@
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { appendEntries } from "@/db/queries/entries";
-import { deliverPending, enqueueMail, listMail, mailTick, queueHeliumForecasts, queueWaitingHandovers } from "@/db/queries/mail";
+import {
+  deliverPending,
+  enqueueMail,
+  listMail,
+  mailTick,
+  queueHeliumForecasts,
+  queueWaitingHandovers,
+} from "@/db/queries/mail";
 import { mailOutbox } from "@/db/schema";
 import { fakeTransport, type MailTransport } from "@/lib/mail/transport";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { DEMO_NOW, freshDb } from "./fixture";
 
-const tomasz = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" as const };
-const grace = { id: "u-grace", email: "grace@larchmere.example", name: "Dr. Grace Oyelaran", role: "safety_officer" as const };
+const tomasz = {
+  id: "u-tomasz",
+  email: "tomasz@larchmere.example",
+  name: "Tomasz Okafor",
+  role: "technician" as const,
+};
+const grace = {
+  id: "u-grace",
+  email: "grace@larchmere.example",
+  name: "Dr. Grace Oyelaran",
+  role: "safety_officer" as const,
+};
 
 function entry(over: Partial<EntryInput> & Pick<EntryInput, "kind" | "payload">, at = new Date()): EntryInput {
-  return { id: randomUUID(), cryostatId: "plover", runId: null, authorId: tomasz.id, deviceId: "tab-1", recordedAt: at.toISOString(), supersedes: null, reason: null, ...over };
+  return {
+    id: randomUUID(),
+    cryostatId: "plover",
+    runId: null,
+    authorId: tomasz.id,
+    deviceId: "tab-1",
+    recordedAt: at.toISOString(),
+    supersedes: null,
+    reason: null,
+    ...over,
+  };
 }
 
 describe("mail outbox", () => {
@@ -29,7 +56,16 @@ describe("mail outbox", () => {
   it("mails a pushed quench once to the safety officer and admin, even when pushed again", async () => {
     const db = await freshDb({ seeded: true });
     const before = (await listMail(db)).length;
-    const q = entry({ kind: "quench", payload: { at: new Date().toISOString(), fieldT: 6, currentA: 50, heliumLostLitres: 20, actions: "Left the room." } });
+    const q = entry({
+      kind: "quench",
+      payload: {
+        at: new Date().toISOString(),
+        fieldT: 6,
+        currentA: 50,
+        heliumLostLitres: 20,
+        actions: "Left the room.",
+      },
+    });
     await appendEntries(db, tomasz, [q]);
     await appendEntries(db, tomasz, [q]); // a retried push
     const mails = (await listMail(db)).filter((m) => m.eventKey === `quench:${q.id}`);
@@ -42,30 +78,55 @@ describe("mail outbox", () => {
 
   it("mails a needs-action finding once, not an acceptable one", async () => {
     const db = await freshDb({ seeded: true });
-    const t = entry({ kind: "incident", payload: { title: "Frost on the neck", description: "Ice on the relief valve.", actions: "Cleared." } });
+    const t = entry({
+      kind: "incident",
+      payload: { title: "Frost on the neck", description: "Ice on the relief valve.", actions: "Cleared." },
+    });
     await appendEntries(db, tomasz, [t]);
-    const ok = entry({ kind: "audit.finding", authorId: grace.id, payload: { targetEntryId: t.id, verdict: "acceptable", findings: "Fine.", flags: [] } });
-    const bad = entry({ kind: "audit.finding", authorId: grace.id, payload: { targetEntryId: t.id, verdict: "needs_action", findings: "Valve needs a check.", flags: [] } });
+    const ok = entry({
+      kind: "audit.finding",
+      authorId: grace.id,
+      payload: { targetEntryId: t.id, verdict: "acceptable", findings: "Fine.", flags: [] },
+    });
+    const bad = entry({
+      kind: "audit.finding",
+      authorId: grace.id,
+      payload: { targetEntryId: t.id, verdict: "needs_action", findings: "Valve needs a check.", flags: [] },
+    });
     const res = await appendEntries(db, grace, [ok, bad]);
     expect(res.rejected).toEqual([]);
     await appendEntries(db, grace, [bad]);
     const mails = await listMail(db);
     expect(mails.filter((m) => m.eventKey.startsWith("finding-needs-action:"))).toHaveLength(1);
-    expect(mails.find((m) => m.eventKey === `finding-needs-action:${bad.id}`)?.to).toContain("tomasz@larchmere.example");
+    expect(mails.find((m) => m.eventKey === `finding-needs-action:${bad.id}`)?.to).toContain(
+      "tomasz@larchmere.example",
+    );
     expect(mails.some((m) => m.eventKey === `finding-needs-action:${ok.id}`)).toBe(false);
   });
 
   it("mails a handover waiting for acceptance once, and none once it is accepted", async () => {
     const db = await freshDb({ seeded: true });
     const now = new Date();
-    const h = entry({ kind: "handover", payload: { summary: { stages: [], openRuns: [], openIssues: [] }, note: "Plover steady.", toUserId: "u-priya" } }, new Date(now.getTime() - 30 * 60_000));
+    const h = entry(
+      {
+        kind: "handover",
+        payload: { summary: { stages: [], openRuns: [], openIssues: [] }, note: "Plover steady.", toUserId: "u-priya" },
+      },
+      new Date(now.getTime() - 30 * 60_000),
+    );
     await appendEntries(db, tomasz, [h]);
     expect(await queueWaitingHandovers(db, { now })).toBe(1);
     expect(await queueWaitingHandovers(db, { now })).toBe(0);
     const mail = (await listMail(db)).find((m) => m.eventKey === `handover-waiting:${h.id}`);
     expect(mail?.to).toBe("priya@larchmere.example");
     // A fresh handover (within the grace period) is not mailed yet.
-    const h2 = entry({ kind: "handover", payload: { summary: { stages: [], openRuns: [], openIssues: [] }, note: "x", toUserId: "u-priya" } }, now);
+    const h2 = entry(
+      {
+        kind: "handover",
+        payload: { summary: { stages: [], openRuns: [], openIssues: [] }, note: "x", toUserId: "u-priya" },
+      },
+      now,
+    );
     await appendEntries(db, tomasz, [h2]);
     expect(await queueWaitingHandovers(db, { now })).toBe(0);
   });
@@ -74,12 +135,33 @@ describe("mail outbox", () => {
     const db = await freshDb({ seeded: true });
     // Wren: 60 L at 0.6 L/%, minimum 20 %. Fill to 40 % then lose 3 %/day: 20 % in ~6.7 days from the fill.
     const t0 = DEMO_NOW + 3 * 86_400_000;
-    const fill = entry({
-      cryostatId: "wren",
-      kind: "transfer",
-      payload: { supplyDewar: "D-100-C", peoplePresent: ["u-tomasz", "u-priya"], ppeConfirmed: true, oxygenMonitorChecked: true, oxygenLowestPercent: 20.7, levelBeforePercent: 22, levelAfterPercent: 40, suppliedLitres: 15, suppliedBy: "level", gainedLitres: 10.8, durationMin: 20, anomalies: "" },
-    }, new Date(t0));
-    const levels = [1, 2, 3].map((d) => entry({ cryostatId: "wren", kind: "helium.level", payload: { percent: 40 - 3 * d } }, new Date(t0 + d * 86_400_000)));
+    const fill = entry(
+      {
+        cryostatId: "wren",
+        kind: "transfer",
+        payload: {
+          supplyDewar: "D-100-C",
+          peoplePresent: ["u-tomasz", "u-priya"],
+          ppeConfirmed: true,
+          oxygenMonitorChecked: true,
+          oxygenLowestPercent: 20.7,
+          levelBeforePercent: 22,
+          levelAfterPercent: 40,
+          suppliedLitres: 15,
+          suppliedBy: "level",
+          gainedLitres: 10.8,
+          durationMin: 20,
+          anomalies: "",
+        },
+      },
+      new Date(t0),
+    );
+    const levels = [1, 2, 3].map((d) =>
+      entry(
+        { cryostatId: "wren", kind: "helium.level", payload: { percent: 40 - 3 * d } },
+        new Date(t0 + d * 86_400_000),
+      ),
+    );
     await appendEntries(db, tomasz, [fill, ...levels]);
     // Only Wren's warnings count here: the demo's other cryostats run on with no transfer after
     // the demo history ends, so their own forecasts may warn too.

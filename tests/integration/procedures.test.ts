@@ -25,14 +25,30 @@ const ines = DEMO_USERS.find((u) => u.id === "u-ines")!;
 let clock = Date.parse("2026-12-01T08:00:00Z");
 function entry(over: Partial<EntryInput> & Pick<EntryInput, "kind" | "payload">): EntryInput {
   clock += 60_000;
-  return { id: randomUUID(), cryostatId: "heron", runId: null, authorId: tomasz.id, deviceId: "tab-1", recordedAt: new Date(clock).toISOString(), supersedes: null, reason: null, ...over };
+  return {
+    id: randomUUID(),
+    cryostatId: "heron",
+    runId: null,
+    authorId: tomasz.id,
+    deviceId: "tab-1",
+    recordedAt: new Date(clock).toISOString(),
+    supersedes: null,
+    reason: null,
+    ...over,
+  };
 }
-const step = (runId: string, payload: Record<string, unknown>, over: Partial<EntryInput> = {}) => entry({ runId, kind: "run.step", payload, ...over });
+const step = (runId: string, payload: Record<string, unknown>, over: Partial<EntryInput> = {}) =>
+  entry({ runId, kind: "run.step", payload, ...over });
 
 async function cooldown(db: Db) {
   const t = (await latestTemplates(db)).find((x) => x.key === "cooldown-dry-dilution")!;
   const id = randomUUID();
-  const start = entry({ id, runId: id, kind: "run.start", payload: { templateId: t.id, templateKey: t.key, templateVersion: t.version, title: "Cooldown of Heron" } });
+  const start = entry({
+    id,
+    runId: id,
+    kind: "run.start",
+    payload: { templateId: t.id, templateKey: t.key, templateVersion: t.version, title: "Cooldown of Heron" },
+  });
   expect((await appendEntries(db, tomasz, [start])).rejected).toEqual([]);
   return { t, id, start };
 }
@@ -40,9 +56,20 @@ async function cooldown(db: Db) {
 async function pinSign(db: Db, target: EntryInput, signer: typeof tomasz) {
   const salt = randomBytes(16).toString("base64");
   const key = await derivePinKey("731904", salt, 1000);
-  await db.update(users).set({ pinHash: formatPinRecord(1000, salt, key) }).where(eq(users.id, signer.id));
+  await db
+    .update(users)
+    .set({ pinHash: formatPinRecord(1000, salt, key) })
+    .where(eq(users.id, signer.id));
   const subject = signingSubject(target, signer, "verified");
-  return signatureEntry({ target, subject, signer, deviceId: target.deviceId, confirmedBy: "pin", proof: hmacHex(key, signingMessage(subject)), recordedAt: new Date((clock += 60_000)).toISOString() });
+  return signatureEntry({
+    target,
+    subject,
+    signer,
+    deviceId: target.deviceId,
+    confirmedBy: "pin",
+    proof: hmacHex(key, signingMessage(subject)),
+    recordedAt: new Date((clock += 60_000)).toISOString(),
+  });
 }
 
 describe("procedure templates", () => {
@@ -55,11 +82,25 @@ describe("procedure templates", () => {
   it("a template edit makes a new version and does not alter a run started on the old one", async () => {
     const db = await freshDb({ seeded: true });
     const { t, id } = await cooldown(db);
-    const edited = { ...t, title: "Cooldown — dry fridge (rev. B)", steps: t.steps.map((s) => (s.id === "mxc-base" ? { ...s, max: 15 } : s)).filter((s) => s.id !== "panel-photo") };
-    const saved = await saveTemplateVersion(db, { input: templateInputSchema.parse(edited), createdBy: ines.id, basedOnVersion: t.version });
+    const edited = {
+      ...t,
+      title: "Cooldown — dry fridge (rev. B)",
+      steps: t.steps.map((s) => (s.id === "mxc-base" ? { ...s, max: 15 } : s)).filter((s) => s.id !== "panel-photo"),
+    };
+    const saved = await saveTemplateVersion(db, {
+      input: templateInputSchema.parse(edited),
+      createdBy: ines.id,
+      basedOnVersion: t.version,
+    });
     expect(saved.ok && saved.template.version).toBe(2);
     // A second editor still on version 1 is refused, not silently overwritten.
-    expect(await saveTemplateVersion(db, { input: templateInputSchema.parse(edited), createdBy: ines.id, basedOnVersion: 1 })).toMatchObject({ ok: false, reason: "stale", latest: 2 });
+    expect(
+      await saveTemplateVersion(db, {
+        input: templateInputSchema.parse(edited),
+        createdBy: ines.id,
+        basedOnVersion: 1,
+      }),
+    ).toMatchObject({ ok: false, reason: "stale", latest: 2 });
 
     const record = await getRunRecord(db, { runId: id });
     expect(record?.template.id).toBe(t.id);
@@ -70,7 +111,14 @@ describe("procedure templates", () => {
     const photo = step(id, { stepId: "panel-photo", kind: "photo", attachmentId: randomUUID() });
     expect((await appendEntries(db, tomasz, [photo])).rejected).toEqual([]);
     // A reading of 18 mK is in range for version 1 (≤ 20 mK) though version 2 would flag it.
-    const r = step(id, { stepId: "mxc-base", kind: "reading", quantity: "Mixing chamber temperature at base", value: 18, unit: "mK", outOfRange: false });
+    const r = step(id, {
+      stepId: "mxc-base",
+      kind: "reading",
+      quantity: "Mixing chamber temperature at base",
+      value: 18,
+      unit: "mK",
+      outOfRange: false,
+    });
     expect((await appendEntries(db, tomasz, [r])).rejected).toEqual([]);
   });
 });
@@ -80,7 +128,9 @@ describe("procedure runs", () => {
     const db = await freshDb({ seeded: true });
     const { id } = await cooldown(db);
     expect((await listRuns(db, { cryostatId: "heron", status: "open" })).map((r) => r.id)).toContain(id);
-    await appendEntries(db, tomasz, [entry({ runId: id, kind: "run.abort", payload: { reason: "Leak on the vacuum can seal." } })]);
+    await appendEntries(db, tomasz, [
+      entry({ runId: id, kind: "run.abort", payload: { reason: "Leak on the vacuum can seal." } }),
+    ]);
     const [run] = await listRuns(db, { cryostatId: "heron" });
     expect(run).toMatchObject({ id, status: "aborted", templateKey: "cooldown-dry-dilution", templateVersion: 1 });
   });
@@ -88,7 +138,12 @@ describe("procedure runs", () => {
   it("re-checks readings against the pinned range: unflagged out-of-range, flagged in-range and missing comments are refused", async () => {
     const db = await freshDb({ seeded: true });
     const { id } = await cooldown(db);
-    const base = { stepId: "tank-before", kind: "reading", quantity: "Mixture tank pressure before condensing", unit: "mbar" };
+    const base = {
+      stepId: "tank-before",
+      kind: "reading",
+      quantity: "Mixture tank pressure before condensing",
+      unit: "mbar",
+    };
     const res = await appendEntries(db, tomasz, [
       step(id, { ...base, value: 640, outOfRange: false }),
       step(id, { ...base, value: 806, outOfRange: true, comment: "x" }),
@@ -111,8 +166,27 @@ describe("procedure runs", () => {
   it("keeps the original of a corrected reading in the history; the correction is what counts", async () => {
     const db = await freshDb({ seeded: true });
     const { t, id } = await cooldown(db);
-    const first = step(id, { stepId: "precool-pt2", kind: "reading", quantity: "4 K plate temperature after pre-cool", value: 34, unit: "K", outOfRange: true, comment: "Still cooling" });
-    const fix = step(id, { stepId: "precool-pt2", kind: "reading", quantity: "4 K plate temperature after pre-cool", value: 3.4, unit: "K", outOfRange: false }, { supersedes: first.id, reason: "Decimal point missed on the keypad." });
+    const first = step(id, {
+      stepId: "precool-pt2",
+      kind: "reading",
+      quantity: "4 K plate temperature after pre-cool",
+      value: 34,
+      unit: "K",
+      outOfRange: true,
+      comment: "Still cooling",
+    });
+    const fix = step(
+      id,
+      {
+        stepId: "precool-pt2",
+        kind: "reading",
+        quantity: "4 K plate temperature after pre-cool",
+        value: 3.4,
+        unit: "K",
+        outOfRange: false,
+      },
+      { supersedes: first.id, reason: "Decimal point missed on the keypad." },
+    );
     expect((await appendEntries(db, tomasz, [first, fix])).rejected).toEqual([]);
 
     const rec = (await getRunRecord(db, { runId: id }))!;
@@ -133,7 +207,11 @@ describe("procedure runs", () => {
     const hold = step(id, { stepId: "hold-precool", kind: "hold", statement: "Pre-cool finished." });
     const sig = await pinSign(db, hold, tomasz);
     expect((await appendEntries(db, tomasz, [hold, sig])).rejected).toEqual([]);
-    const fix = step(id, { stepId: "hold-precool", kind: "hold", statement: "Pre-cool finished; 4 K plate 3.9 K." }, { supersedes: hold.id, reason: "Add the plate temperature." });
+    const fix = step(
+      id,
+      { stepId: "hold-precool", kind: "hold", statement: "Pre-cool finished; 4 K plate 3.9 K." },
+      { supersedes: hold.id, reason: "Add the plate temperature." },
+    );
     expect((await appendEntries(db, tomasz, [fix])).rejected).toEqual([]);
 
     let state = deriveRun(id, t, (await getRunRecord(db, { runId: id }))!.entries);

@@ -8,13 +8,22 @@ import { AppError } from "@/lib/errors";
 import { freshDb } from "./fixture";
 
 const ines = { id: "u-ines", email: "ines@larchmere.example", name: "Ines Vartanian", role: "facility_admin" as const };
-const tomasz = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" as const };
+const tomasz = {
+  id: "u-tomasz",
+  email: "tomasz@larchmere.example",
+  name: "Tomasz Okafor",
+  role: "technician" as const,
+};
 
 describe("facility rules changes", () => {
   it("writes an audited rules.change entry with old and new values and puts the new version in force", async () => {
     const db = await freshDb({ seeded: true });
     const before = (await getRules(db))!;
-    const after = await changeRules(db, ines, { values: { ...before.values, oxygenAlarmPercent: 19.8, transferEfficiencyMinPercent: 45 }, reason: "New monitors", expectedVersion: before.version });
+    const after = await changeRules(db, ines, {
+      values: { ...before.values, oxygenAlarmPercent: 19.8, transferEfficiencyMinPercent: 45 },
+      reason: "New monitors",
+      expectedVersion: before.version,
+    });
     expect(after.version).toBe(before.version + 1);
     expect(after.values.oxygenAlarmPercent).toBe(19.8);
     const chain = await chainEntries(db, "facility");
@@ -30,17 +39,35 @@ describe("facility rules changes", () => {
   it("refuses a change made from an older version, and a change that changes nothing", async () => {
     const db = await freshDb({ seeded: true });
     const r = (await getRules(db))!;
-    await changeRules(db, ines, { values: { ...r.values, forecastWarnDays: 5 }, reason: "Longer notice", expectedVersion: r.version });
-    await expect(changeRules(db, ines, { values: { ...r.values, forecastWarnDays: 7 }, reason: "Other", expectedVersion: r.version })).rejects.toThrow(/changed the rules meanwhile/);
+    await changeRules(db, ines, {
+      values: { ...r.values, forecastWarnDays: 5 },
+      reason: "Longer notice",
+      expectedVersion: r.version,
+    });
+    await expect(
+      changeRules(db, ines, {
+        values: { ...r.values, forecastWarnDays: 7 },
+        reason: "Other",
+        expectedVersion: r.version,
+      }),
+    ).rejects.toThrow(/changed the rules meanwhile/);
     const now = (await getRules(db))!;
-    await expect(changeRules(db, ines, { values: now.values, reason: "Same", expectedVersion: now.version })).rejects.toBeInstanceOf(AppError);
+    await expect(
+      changeRules(db, ines, { values: now.values, reason: "Same", expectedVersion: now.version }),
+    ).rejects.toBeInstanceOf(AppError);
     expect((await getRules(db))!.values.forecastWarnDays).toBe(5);
   });
 
   it("refuses a rules.change entry from a technician", async () => {
     const db = await freshDb({ seeded: true });
     const r = (await getRules(db))!;
-    await expect(changeRules(db, tomasz, { values: { ...r.values, twoPersonTransfer: false }, reason: "No", expectedVersion: r.version })).rejects.toThrow(/may not record/);
+    await expect(
+      changeRules(db, tomasz, {
+        values: { ...r.values, twoPersonTransfer: false },
+        reason: "No",
+        expectedVersion: r.version,
+      }),
+    ).rejects.toThrow(/may not record/);
     expect((await getRules(db))!.version).toBe(r.version);
     const res = await appendEntries(db, tomasz, []);
     expect(res.accepted).toEqual([]);

@@ -18,7 +18,8 @@ describe("cryostat series", () => {
     expect(last.k).toBeLessThan(0.02);
     const first = s.stages.find((x) => x.key === "pt1")!.points[0]!;
     expect(first.k).toBeGreaterThan(200);
-    for (const st of s.stages) for (let i = 1; i < st.points.length; i++) expect(st.points[i]!.t).toBeGreaterThanOrEqual(st.points[i - 1]!.t);
+    for (const st of s.stages)
+      for (let i = 1; i < st.points.length; i++) expect(st.points[i]!.t).toBeGreaterThanOrEqual(st.points[i - 1]!.t);
     expect(s.helium).toBeNull();
     expect(s.fields.map((f) => f.fieldT)).toEqual([0.045, 2, 0]);
     // One cooldown: "cooling" at day 7 to "cold" 60 h later (the seed's story).
@@ -42,9 +43,27 @@ describe("cryostat series", () => {
   it("a corrected reading replaces the one it supersedes", () => {
     const cfg = { id: "x", config: { stages: [{ key: "mxc", label: "MXC", nominalK: 0.01 }] } };
     const s = buildSeries(cfg, [
-      { id: "a", kind: "reading", payload: { stage: "mxc", value: 120, unit: "mK" }, recordedAt: "2026-01-01T00:00:00.000Z", supersedes: null },
-      { id: "b", kind: "reading", payload: { stage: "mxc", value: 12, unit: "mK" }, recordedAt: "2026-01-01T00:05:00.000Z", supersedes: "a" },
-      { id: "c", kind: "reading", payload: { stage: "mxc", value: 3, unit: "mbar" }, recordedAt: "2026-01-01T00:06:00.000Z", supersedes: null },
+      {
+        id: "a",
+        kind: "reading",
+        payload: { stage: "mxc", value: 120, unit: "mK" },
+        recordedAt: "2026-01-01T00:00:00.000Z",
+        supersedes: null,
+      },
+      {
+        id: "b",
+        kind: "reading",
+        payload: { stage: "mxc", value: 12, unit: "mK" },
+        recordedAt: "2026-01-01T00:05:00.000Z",
+        supersedes: "a",
+      },
+      {
+        id: "c",
+        kind: "reading",
+        payload: { stage: "mxc", value: 3, unit: "mbar" },
+        recordedAt: "2026-01-01T00:06:00.000Z",
+        supersedes: null,
+      },
     ]);
     expect(s.stages[0]!.points.map((p) => p.k)).toEqual([0.012]);
   });

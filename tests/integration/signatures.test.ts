@@ -1,10 +1,9 @@
 // Signatures on the server (R3–R5): bound to the exact record by recordHash (RFC 8785 canonical
 // JSON, SHA-256), refused when the record changed after signing, refused for a role that may not
 // sign that meaning, and refused on procedure records without a checked PIN/password proof.
-import { randomBytes, randomUUID } from "node:crypto";
-import { eq } from "drizzle-orm";
+import { createHash, randomBytes, randomUUID } from "node:crypto";
 import canonicalize from "canonicalize";
-import { createHash } from "node:crypto";
+import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import type { Db } from "@/db/client";
 import { appendEntries } from "@/db/queries/entries";
@@ -12,7 +11,15 @@ import { latestTemplates } from "@/db/queries/templates";
 import { users } from "@/db/schema";
 import { DEMO_USERS } from "@/db/seed";
 import type { EntryInput, SignatureMeaning } from "@/lib/schemas/entry";
-import { derivePinKey, formatPinRecord, hmacHex, passwordProofKey, PIN_ITERATIONS, signingMessage, verifierOf } from "@/lib/signing/proof";
+import {
+  derivePinKey,
+  formatPinRecord,
+  hmacHex,
+  PIN_ITERATIONS,
+  passwordProofKey,
+  signingMessage,
+  verifierOf,
+} from "@/lib/signing/proof";
 import { signatureEntry, signingSubject } from "@/lib/signing/sign";
 import { recordHash } from "@/lib/sync/hash";
 import { freshDb } from "./fixture";
@@ -22,14 +29,33 @@ const priya = DEMO_USERS.find((u) => u.id === "u-priya")!;
 const grace = DEMO_USERS.find((u) => u.id === "u-grace")!;
 
 function entry(over: Partial<EntryInput> & Pick<EntryInput, "kind" | "payload">): EntryInput {
-  return { id: randomUUID(), cryostatId: "heron", runId: null, authorId: tomasz.id, deviceId: "tab-1", recordedAt: new Date().toISOString(), supersedes: null, reason: null, ...over };
+  return {
+    id: randomUUID(),
+    cryostatId: "heron",
+    runId: null,
+    authorId: tomasz.id,
+    deviceId: "tab-1",
+    recordedAt: new Date().toISOString(),
+    supersedes: null,
+    reason: null,
+    ...over,
+  };
 }
 
 async function startRun(db: Db) {
   const t = (await latestTemplates(db)).find((x) => x.key === "cooldown-dry-dilution")!;
   const id = randomUUID();
-  const start = entry({ id, runId: id, kind: "run.start", payload: { templateId: t.id, templateKey: t.key, templateVersion: t.version, title: "Cooldown of Heron" } });
-  const hold = entry({ runId: id, kind: "run.step", payload: { stepId: "hold-precool", kind: "hold", statement: "Pre-cool finished." } });
+  const start = entry({
+    id,
+    runId: id,
+    kind: "run.start",
+    payload: { templateId: t.id, templateKey: t.key, templateVersion: t.version, title: "Cooldown of Heron" },
+  });
+  const hold = entry({
+    runId: id,
+    kind: "run.step",
+    payload: { stepId: "hold-precool", kind: "hold", statement: "Pre-cool finished." },
+  });
   const res = await appendEntries(db, tomasz, [start, hold]);
   expect(res.rejected).toEqual([]);
   return { start, hold };
@@ -39,20 +65,47 @@ async function startRun(db: Db) {
 async function setPin(db: Db, userId: string, pin: string) {
   const salt = randomBytes(16).toString("base64");
   const key = await derivePinKey(pin, salt, 1000);
-  await db.update(users).set({ pinHash: formatPinRecord(1000, salt, key) }).where(eq(users.id, userId));
+  await db
+    .update(users)
+    .set({ pinHash: formatPinRecord(1000, salt, key) })
+    .where(eq(users.id, userId));
   return { key, salt };
 }
 
-async function pinSignature(db: Db, target: EntryInput, signer: typeof tomasz, meaning: SignatureMeaning, pin = "482916") {
+async function pinSignature(
+  db: Db,
+  target: EntryInput,
+  signer: typeof tomasz,
+  meaning: SignatureMeaning,
+  pin = "482916",
+) {
   const { key } = await setPin(db, signer.id, pin);
   const subject = signingSubject(target, signer, meaning);
-  return signatureEntry({ target, subject, signer, deviceId: "tab-1", confirmedBy: "pin", proof: hmacHex(key, signingMessage(subject)) });
+  return signatureEntry({
+    target,
+    subject,
+    signer,
+    deviceId: "tab-1",
+    confirmedBy: "pin",
+    proof: hmacHex(key, signingMessage(subject)),
+  });
 }
 
 describe("signatures", () => {
   it("recordHash is SHA-256 of the RFC 8785 canonical JSON (checked with canonicalize + node:crypto directly)", () => {
     const e = entry({ kind: "note", payload: { text: "Cafe\u0301 ok", b: 1, a: [2, 1] } });
-    const content = { id: e.id, cryostatId: e.cryostatId, runId: e.runId, kind: e.kind, payload: { text: "Café ok", b: 1, a: [2, 1] }, authorId: e.authorId, deviceId: e.deviceId, recordedAt: e.recordedAt, supersedes: null, reason: null };
+    const content = {
+      id: e.id,
+      cryostatId: e.cryostatId,
+      runId: e.runId,
+      kind: e.kind,
+      payload: { text: "Café ok", b: 1, a: [2, 1] },
+      authorId: e.authorId,
+      deviceId: e.deviceId,
+      recordedAt: e.recordedAt,
+      supersedes: null,
+      reason: null,
+    };
     expect(recordHash(e)).toBe(createHash("sha256").update(canonicalize(content)!).digest("hex"));
   });
 
@@ -64,12 +117,18 @@ describe("signatures", () => {
 
     // Tampered: the signed record's content changed after signing (a new record with the old id
     // cannot be stored, so the tampering shows as a signature whose hash no longer matches).
-    const hold2 = entry({ runId: hold.runId, kind: "run.step", payload: { stepId: "hold-precool", kind: "hold", statement: "Pre-cool finished." } });
+    const hold2 = entry({
+      runId: hold.runId,
+      kind: "run.step",
+      payload: { stepId: "hold-precool", kind: "hold", statement: "Pre-cool finished." },
+    });
     const sig2 = await pinSignature(db, hold2, tomasz, "verified");
     const changed = { ...hold2, payload: { ...hold2.payload, statement: "Pre-cool NOT finished." } };
     const res = await appendEntries(db, tomasz, [changed, sig2]);
     expect(res.accepted.map((a) => a.id)).toEqual([changed.id]);
-    expect(res.rejected).toEqual([{ id: sig2.id, code: "conflict:signature", message: expect.stringMatching(/changed after signing/) }]);
+    expect(res.rejected).toEqual([
+      { id: sig2.id, code: "conflict:signature", message: expect.stringMatching(/changed after signing/) },
+    ]);
   });
 
   it("refuses a signature moved onto another record", async () => {
@@ -85,7 +144,11 @@ describe("signatures", () => {
     const db = await freshDb({ seeded: true });
     const { hold } = await startRun(db);
     const good = await pinSignature(db, hold, tomasz, "verified");
-    const bare = { ...good, id: randomUUID(), payload: { ...good.payload, confirmedBy: undefined, confirmProof: undefined } };
+    const bare = {
+      ...good,
+      id: randomUUID(),
+      payload: { ...good.payload, confirmedBy: undefined, confirmProof: undefined },
+    };
     // The proof covers the meaning too: the same proof under another meaning is refused.
     const reused = { ...good, id: randomUUID(), payload: { ...good.payload, meaning: "performed" } };
     const res = await appendEntries(db, tomasz, [bare, reused]);
@@ -95,7 +158,14 @@ describe("signatures", () => {
     const wrongKey = await derivePinKey("222222", "AAAAAAAAAAAAAAAAAAAAAA==", 1000);
     expect(wrongKey).not.toBe(key);
     const subject = signingSubject(hold, tomasz, "verified");
-    const wrong = signatureEntry({ target: hold, subject, signer: tomasz, deviceId: "tab-1", confirmedBy: "pin", proof: hmacHex(wrongKey, signingMessage(subject)) });
+    const wrong = signatureEntry({
+      target: hold,
+      subject,
+      signer: tomasz,
+      deviceId: "tab-1",
+      confirmedBy: "pin",
+      proof: hmacHex(wrongKey, signingMessage(subject)),
+    });
     expect((await appendEntries(db, tomasz, [wrong])).rejected[0]?.code).toBe("forbidden:signature");
   });
 
@@ -104,7 +174,14 @@ describe("signatures", () => {
     const { hold } = await startRun(db);
     const [row] = await db.select().from(users).where(eq(users.id, tomasz.id));
     const subject = signingSubject(hold, tomasz, "verified");
-    const sig = signatureEntry({ target: hold, subject, signer: tomasz, deviceId: "tab-1", confirmedBy: "password", proof: hmacHex(passwordProofKey(row!.passwordHash), signingMessage(subject)) });
+    const sig = signatureEntry({
+      target: hold,
+      subject,
+      signer: tomasz,
+      deviceId: "tab-1",
+      confirmedBy: "password",
+      proof: hmacHex(passwordProofKey(row!.passwordHash), signingMessage(subject)),
+    });
     expect((await appendEntries(db, tomasz, [sig])).rejected).toEqual([]);
   });
 

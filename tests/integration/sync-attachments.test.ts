@@ -1,9 +1,10 @@
 // Attachments: upload by the tablet's id (idempotent), type by magic bytes, size bound,
 // same-origin only, served as a download; and the sync client uploads photos before entries.
+
+import { randomUUID } from "node:crypto";
 import { mkdtempSync, readdirSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { randomUUID } from "node:crypto";
 import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { afterAll, beforeEach, describe, expect, it, vi } from "vitest";
 import type { Db } from "@/db/client";
@@ -11,8 +12,8 @@ import type { SessionUser } from "@/lib/auth/session-user";
 import { AppError } from "@/lib/errors";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, putAttachmentIn, recordEntriesIn } from "@/lib/local/store";
-import { syncOnce, type Transport } from "@/lib/sync/client";
 import { sniffType } from "@/lib/storage/objects";
+import { syncOnce, type Transport } from "@/lib/sync/client";
 import { freshDb } from "./fixture";
 
 const dir = mkdtempSync(join(tmpdir(), "rimelog-files-"));
@@ -30,7 +31,12 @@ vi.mock("@/lib/auth/require", () => ({
 const upload = (await import("@/app/api/attachments/route")).POST;
 const download = (await import("@/app/api/attachments/[id]/route")).GET;
 
-const tomasz: SessionUser = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" };
+const tomasz: SessionUser = {
+  id: "u-tomasz",
+  email: "tomasz@larchmere.example",
+  name: "Tomasz Okafor",
+  role: "technician",
+};
 const JPEG = new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 0, 0x10, 0x4a, 0x46, 0x49, 0x46, 0, 1]);
 const ORIGIN = "http://localhost:3000";
 
@@ -39,7 +45,14 @@ function post(bytes: Uint8Array, id: string, headers: Record<string, string> = {
     new Request(`${ORIGIN}/api/attachments`, {
       method: "POST",
       body: bytes as unknown as BodyInit,
-      headers: { "content-type": "application/octet-stream", origin: ORIGIN, host: "localhost:3000", "x-rimelog-attachment-id": id, "x-rimelog-file-name": encodeURIComponent("../../gauge 1.jpg"), ...headers },
+      headers: {
+        "content-type": "application/octet-stream",
+        origin: ORIGIN,
+        host: "localhost:3000",
+        "x-rimelog-attachment-id": id,
+        "x-rimelog-file-name": encodeURIComponent("../../gauge 1.jpg"),
+        ...headers,
+      },
     }),
   );
 }
@@ -96,7 +109,16 @@ describe("attachments", () => {
       },
       push: async (list) => {
         calls.push("push");
-        return { accepted: list.map((e, i) => ({ id: e.id, seq: 10_000 + i, hash: "h".repeat(64), prevHash: "p".repeat(64), receivedAt: new Date().toISOString() })), rejected: [] };
+        return {
+          accepted: list.map((e, i) => ({
+            id: e.id,
+            seq: 10_000 + i,
+            hash: "h".repeat(64),
+            prevHash: "p".repeat(64),
+            receivedAt: new Date().toISOString(),
+          })),
+          rejected: [],
+        };
       },
       pull: async () => ({ entries: [], cursor: 0, hasMore: false, reference: null, me: tomasz }),
     };

@@ -13,14 +13,24 @@ import { entries } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie, SCHEMA_VERSIONS } from "@/lib/local/db";
 import { queryEntries, queryEntry } from "@/lib/local/queries";
-import { confirmSession, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
-import { applyPushReply, syncOnce, toInput, TransportError, type Transport } from "@/lib/sync/client";
+import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import type { EntryInput } from "@/lib/schemas/entry";
+import { applyPushReply, syncOnce, type Transport, TransportError, toInput } from "@/lib/sync/client";
 import { applyPush, pullPage } from "@/lib/sync/server";
 import { freshDb } from "./fixture";
 
-const tomasz: SessionUser = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" };
-const priya: SessionUser = { id: "u-priya", email: "priya@larchmere.example", name: "Priya Lindqvist", role: "technician" };
+const tomasz: SessionUser = {
+  id: "u-tomasz",
+  email: "tomasz@larchmere.example",
+  name: "Tomasz Okafor",
+  role: "technician",
+};
+const priya: SessionUser = {
+  id: "u-priya",
+  email: "priya@larchmere.example",
+  name: "Priya Lindqvist",
+  role: "technician",
+};
 
 let db: Db;
 let factory: IDBFactory;
@@ -40,19 +50,28 @@ function readings(n: number, tag: string): EntryDraft[] {
 }
 
 /** The server, in process, for whoever `who()` says is signed in; records what was sent. */
-function server(who: () => SessionUser, opts: { maxEntries?: number; failOnPush?: number; encodeAhead?: boolean } = {}) {
+function server(
+  who: () => SessionUser,
+  opts: { maxEntries?: number; failOnPush?: number; encodeAhead?: boolean } = {},
+) {
   const sent: EntryInput[][] = [];
   /** With encodeAhead: for each push, whether it came with a body made ahead, and the body's entries. */
   const bodies: { ahead: boolean; ids: string[] }[] = [];
   const transport: Transport = {
     ...(opts.encodeAhead ? { encodePush: (list: EntryInput[]) => JSON.stringify({ entries: list }) } : {}),
     async push(list, encoded) {
-      if (opts.failOnPush !== undefined && sent.length === opts.failOnPush) throw new TransportError("offline", "The network went away.");
-      if (opts.maxEntries !== undefined && list.length > opts.maxEntries) throw new TransportError("too_large", "Too many entries in one push.", 413);
+      if (opts.failOnPush !== undefined && sent.length === opts.failOnPush)
+        throw new TransportError("offline", "The network went away.");
+      if (opts.maxEntries !== undefined && list.length > opts.maxEntries)
+        throw new TransportError("too_large", "Too many entries in one push.", 413);
       sent.push(list);
       // What the server gets is the body made ahead when there is one (as over HTTP).
       const body = typeof encoded === "string" ? encoded : JSON.stringify({ entries: list });
-      if (opts.encodeAhead) bodies.push({ ahead: typeof encoded === "string", ids: (JSON.parse(body) as { entries: EntryInput[] }).entries.map((e) => e.id) });
+      if (opts.encodeAhead)
+        bodies.push({
+          ahead: typeof encoded === "string",
+          ids: (JSON.parse(body) as { entries: EntryInput[] }).entries.map((e) => e.id),
+        });
       return JSON.parse(JSON.stringify(await applyPush(db, who(), JSON.parse(body))));
     },
     async pull(since) {
@@ -164,7 +183,10 @@ describe("pushing a long outbox", () => {
     expect(await t.receipts.count()).toBe(1);
     expect((await t.entries.bulkGet(written.map((e) => e.id))).map((e) => e?.sync)).toEqual(Array(5).fill("pending"));
     // The screens read them as sent already (no outbox row), in step with the pending count.
-    const shown = [...(await queryEntries(t, { cryostatId: "wren" })), ...(await queryEntries(t, { cryostatId: "heron", limit: 10 }))];
+    const shown = [
+      ...(await queryEntries(t, { cryostatId: "wren" })),
+      ...(await queryEntries(t, { cryostatId: "heron", limit: 10 })),
+    ];
     expect(shown.map((e) => e.sync)).toEqual(Array(5).fill("synced"));
     expect((await queryEntry(t, written[0]!.id))?.sync).toBe("synced");
     // Meanwhile one entry is gone from the tablet: folding the receipt must not bring it back
@@ -202,7 +224,9 @@ describe("pushing a long outbox", () => {
       supersedes: null,
       reason: null,
     };
-    await old.table("entries").add({ ...e, sync: "pending", seq: null, hash: null, prevHash: null, receivedAt: null, rejection: null });
+    await old
+      .table("entries")
+      .add({ ...e, sync: "pending", seq: null, hash: null, prevHash: null, receivedAt: null, rejection: null });
     await old.table("outbox").add({ entryId: e.id, authorId: tomasz.id, queuedAt: e.recordedAt, bytes: 300 });
     await old.table("meta").put({ key: "session", value: { user: tomasz, confirmedAt: new Date().toISOString() } });
     old.close();

@@ -7,7 +7,10 @@ import { applyPush } from "@/lib/sync/server";
 
 const [dir, batchFile] = process.argv.slice(2);
 if (!dir || !batchFile) throw new Error("usage: sync-kill.child.ts <data dir> <batch file>");
-const { user, pushes } = JSON.parse(readFileSync(batchFile, "utf8")) as { user: Parameters<typeof applyPush>[1]; pushes: unknown[] };
+const { user, pushes } = JSON.parse(readFileSync(batchFile, "utf8")) as {
+  user: Parameters<typeof applyPush>[1];
+  pushes: unknown[];
+};
 const db = await openDb(dir);
 process.stdout.write("open\n");
 for (const [i, body] of pushes.entries()) {

@@ -13,13 +13,18 @@ import { entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie } from "@/lib/local/db";
-import { confirmSession, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
-import { syncOnce, toInput, type Transport } from "@/lib/sync/client";
+import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
+import { syncOnce, type Transport, toInput } from "@/lib/sync/client";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
 import { applyPush, pullPage } from "@/lib/sync/server";
 
-const tomasz: SessionUser = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" };
+const tomasz: SessionUser = {
+  id: "u-tomasz",
+  email: "tomasz@larchmere.example",
+  name: "Tomasz Okafor",
+  role: "technician",
+};
 const work = mkdtempSync(join(tmpdir(), "rimelog-kill-"));
 afterAll(() => rmSync(work, { recursive: true, force: true }));
 
@@ -51,10 +56,22 @@ describe("killed in the middle of a push", () => {
     // The server process applies the pushes; it is killed a moment into the third one.
     // node itself (not the tsx wrapper) so the SIGKILL hits the process that holds the database;
     // `react-server` lets db/queries import "server-only" outside Next.
-    const child = spawn(process.execPath, ["--conditions", "react-server", "--import", "tsx", join(process.cwd(), "tests/integration/sync-kill.child.ts"), dir, batchFile], {
-      cwd: process.cwd(),
-      stdio: ["ignore", "pipe", "inherit"],
-    });
+    const child = spawn(
+      process.execPath,
+      [
+        "--conditions",
+        "react-server",
+        "--import",
+        "tsx",
+        join(process.cwd(), "tests/integration/sync-kill.child.ts"),
+        dir,
+        batchFile,
+      ],
+      {
+        cwd: process.cwd(),
+        stdio: ["ignore", "pipe", "inherit"],
+      },
+    );
     const lines: string[] = [];
     const exited = new Promise<NodeJS.Signals | null>((resolve) => child.on("exit", (_c, s) => resolve(s)));
     await new Promise<void>((resolve, reject) => {
@@ -79,7 +96,19 @@ describe("killed in the middle of a push", () => {
 
     // Restart: each batch is either all there or not there at all.
     let db = await openDb(dir);
-    const present = new Set((await db.select({ id: entries.id }).from(entries).where(inArray(entries.id, list.map((e) => e.id)))).map((r) => r.id));
+    const present = new Set(
+      (
+        await db
+          .select({ id: entries.id })
+          .from(entries)
+          .where(
+            inArray(
+              entries.id,
+              list.map((e) => e.id),
+            ),
+          )
+      ).map((r) => r.id),
+    );
     const perBatch = pushes.map((p) => p.entries.filter((e) => present.has(e.id)).length);
     expect(perBatch.slice(0, 2)).toEqual([size, size]);
     for (const n of perBatch) expect([0, size]).toContain(n);
@@ -88,7 +117,8 @@ describe("killed in the middle of a push", () => {
     // The tablet never heard back, so everything is still in its outbox; it retries after the restart.
     expect(await tablet.outbox.count()).toBe(4 * size);
     const transport: Transport = {
-      push: async (l) => JSON.parse(JSON.stringify(await applyPush(db, tomasz, JSON.parse(JSON.stringify({ entries: l }))))),
+      push: async (l) =>
+        JSON.parse(JSON.stringify(await applyPush(db, tomasz, JSON.parse(JSON.stringify({ entries: l }))))),
       pull: async (since) => ({ ...(await pullPage(db, tomasz, { since })), reference: null, me: tomasz }),
     };
     await syncOnce(tablet, transport, { maxBatch: size, maxBytes: PUSH_LIMITS.maxBytes });
@@ -100,12 +130,22 @@ describe("killed in the middle of a push", () => {
     db = await openDb(dir);
     const again = await applyPush(db, tomasz, { entries: list.slice(0, size) });
     expect(again.rejected).toEqual([]);
-    const stored = await db.select({ id: entries.id }).from(entries).where(inArray(entries.id, list.map((e) => e.id)));
+    const stored = await db
+      .select({ id: entries.id })
+      .from(entries)
+      .where(
+        inArray(
+          entries.id,
+          list.map((e) => e.id),
+        ),
+      );
     expect(stored.length).toBe(list.length);
     expect(new Set(stored.map((r) => r.id)).size).toBe(list.length);
 
     for (const chain of ["wren", "heron"]) {
-      const rows = (await db.select().from(entries).where(eq(entries.chain, chain)).orderBy(asc(entries.seq))).map(toStoredRow);
+      const rows = (await db.select().from(entries).where(eq(entries.chain, chain)).orderBy(asc(entries.seq))).map(
+        toStoredRow,
+      );
       let prev = genesisHash(chain);
       for (const e of rows) {
         expect(e.prevHash).toBe(prev);

@@ -8,19 +8,19 @@ import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { and, asc, eq, gt, sql } from "drizzle-orm";
-import fc from "fast-check";
 import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
+import fc from "fast-check";
 import { afterAll, describe, expect, it } from "vitest";
-import { openDb, type Db } from "@/db/client";
+import { type Db, openDb } from "@/db/client";
+import { toStoredRow } from "@/db/queries/stored";
 import { chainHeads, entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
 import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie } from "@/lib/local/db";
-import { confirmSession, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
-import { syncOnce, TransportError, type Transport } from "@/lib/sync/client";
+import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
+import { syncOnce, type Transport, TransportError } from "@/lib/sync/client";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
 import { applyPush, pullPage } from "@/lib/sync/server";
-import { toStoredRow } from "@/db/queries/stored";
 import { freshDb } from "./fixture";
 
 const USERS: SessionUser[] = [
@@ -32,10 +32,18 @@ const CRYOSTATS = ["heron", "plover", "wren"] as const;
 
 type Fault = "ok" | "lose-request" | "lose-reply" | "duplicate" | "delay";
 type Server = { db: Db; late: { user: SessionUser; body: unknown }[] };
-type Device = { name: string; factory: IDBFactory; store: RimelogDexie; user: SessionUser; faults: Fault[]; f: number; written: string[] };
+type Device = {
+  name: string;
+  factory: IDBFactory;
+  store: RimelogDexie;
+  user: SessionUser;
+  faults: Fault[];
+  f: number;
+  written: string[];
+};
 
 const offline = () => new TransportError("offline", "simulated network loss");
-const wire = <T,>(x: T): T => JSON.parse(JSON.stringify(x)) as T; // what crosses HTTP
+const wire = <T>(x: T): T => JSON.parse(JSON.stringify(x)) as T; // what crosses HTTP
 
 function transportFor(server: Server, d: Device, healthy: () => boolean): Transport {
   const nextFault = (): Fault => (healthy() ? "ok" : (d.faults[d.f++ % d.faults.length] ?? "ok"));
@@ -68,10 +76,22 @@ type Cmd =
   | { t: "late" }
   | { t: "restart" };
 
-const faultArb = fc.array(fc.constantFrom<Fault>("ok", "ok", "lose-request", "lose-reply", "duplicate", "delay"), { minLength: 1, maxLength: 6 });
+const faultArb = fc.array(fc.constantFrom<Fault>("ok", "ok", "lose-request", "lose-reply", "duplicate", "delay"), {
+  minLength: 1,
+  maxLength: 6,
+});
 const cmdArb = (devices: number, restarts: boolean) =>
   fc.oneof(
-    { weight: 4, arbitrary: fc.record({ t: fc.constant("write" as const), dev: fc.nat(devices - 1), cryo: fc.nat(2), n: fc.integer({ min: 1, max: 3 }), kind: fc.constantFrom("note" as const, "reading" as const) }) },
+    {
+      weight: 4,
+      arbitrary: fc.record({
+        t: fc.constant("write" as const),
+        dev: fc.nat(devices - 1),
+        cryo: fc.nat(2),
+        n: fc.integer({ min: 1, max: 3 }),
+        kind: fc.constantFrom("note" as const, "reading" as const),
+      }),
+    },
     { weight: 4, arbitrary: fc.record({ t: fc.constant("sync" as const), dev: fc.nat(devices - 1) }) },
     { weight: 1, arbitrary: fc.record({ t: fc.constant("reload" as const), dev: fc.nat(devices - 1) }) },
     { weight: 1, arbitrary: fc.constant({ t: "late" as const }) },
@@ -85,14 +105,24 @@ function draft(kind: "note" | "reading", cryostatId: string, i: number): EntryDr
 }
 
 async function simulate(server: Server, plan: { faults: Fault[][]; cmds: Cmd[] }, restart?: () => Promise<void>) {
-  const [{ startSeq }] = (await server.db.select({ startSeq: sql<number>`coalesce(max(${entries.seq}), 0)::int` }).from(entries)) as [{ startSeq: number }];
+  const [{ startSeq }] = (await server.db
+    .select({ startSeq: sql<number>`coalesce(max(${entries.seq}), 0)::int` })
+    .from(entries)) as [{ startSeq: number }];
   const heads = new Map((await server.db.select().from(chainHeads)).map((h) => [h.chain, h.hash]));
   let healthy = false;
   const devices: Device[] = [];
   for (const [i, faults] of plan.faults.entries()) {
     const factory = new IDBFactory();
     const name = `dev-${i}`;
-    const d: Device = { name, factory, store: new RimelogDexie(name, { indexedDB: factory, IDBKeyRange }), user: USERS[i % USERS.length]!, faults, f: 0, written: [] };
+    const d: Device = {
+      name,
+      factory,
+      store: new RimelogDexie(name, { indexedDB: factory, IDBKeyRange }),
+      user: USERS[i % USERS.length]!,
+      faults,
+      f: 0,
+      written: [],
+    };
     await confirmSession(d.store, d.user);
     // A tablet set up now starts its pull cursor at the server's head (older entries are not its concern here).
     await d.store.setMeta("cursor", Number(startSeq));
@@ -130,9 +160,16 @@ async function simulate(server: Server, plan: { faults: Fault[][]; cmds: Cmd[] }
   // Heal: the network comes back, late copies arrive, everyone syncs until nothing is pending.
   healthy = true;
   for (const l of server.late.splice(0)) await applyPush(server.db, l.user, l.body);
-  for (let round = 0; round < 2; round++) for (let i = 0; i < devices.length; i++) await syncOnce(devices[i]!.store, transports[i]!, { maxBatch: 4 });
+  for (let round = 0; round < 2; round++)
+    for (let i = 0; i < devices.length; i++) await syncOnce(devices[i]!.store, transports[i]!, { maxBatch: 4 });
 
-  const rows = (await server.db.select().from(entries).where(gt(entries.seq, Number(startSeq))).orderBy(asc(entries.seq))).map(toStoredRow);
+  const rows = (
+    await server.db
+      .select()
+      .from(entries)
+      .where(gt(entries.seq, Number(startSeq)))
+      .orderBy(asc(entries.seq))
+  ).map(toStoredRow);
   const written = devices.flatMap((d) => d.written);
   // Server: every written entry exactly once, nothing else.
   expect(rows.map((r) => r.id).sort()).toEqual([...written].sort());
@@ -157,7 +194,13 @@ async function simulate(server: Server, plan: { faults: Fault[][]; cmds: Cmd[] }
   }
   // Chains: each new link follows the head as it was before the run.
   for (const chain of CRYOSTATS) {
-    const list = (await server.db.select().from(entries).where(and(eq(entries.chain, chain), gt(entries.seq, Number(startSeq)))).orderBy(asc(entries.seq))).map(toStoredRow);
+    const list = (
+      await server.db
+        .select()
+        .from(entries)
+        .where(and(eq(entries.chain, chain), gt(entries.seq, Number(startSeq))))
+        .orderBy(asc(entries.seq))
+    ).map(toStoredRow);
     let prev = heads.get(chain) ?? genesisHash(chain);
     for (const e of list) {
       expect(e.prevHash).toBe(prev);
@@ -169,7 +212,10 @@ async function simulate(server: Server, plan: { faults: Fault[][]; cmds: Cmd[] }
 
 const planArb = (restarts: boolean) =>
   fc.integer({ min: 2, max: 3 }).chain((n) =>
-    fc.record({ faults: fc.array(faultArb, { minLength: n, maxLength: n }), cmds: fc.array(cmdArb(n, restarts), { minLength: 1, maxLength: restarts ? 8 : 10 }) }),
+    fc.record({
+      faults: fc.array(faultArb, { minLength: n, maxLength: n }),
+      cmds: fc.array(cmdArb(n, restarts), { minLength: 1, maxLength: restarts ? 8 : 10 }),
+    }),
   );
 
 describe("sync under lost, duplicated and late pushes, reloads and restarts", () => {

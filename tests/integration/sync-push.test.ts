@@ -10,7 +10,7 @@ import type { SessionUser } from "@/lib/auth/session-user";
 import { AppError } from "@/lib/errors";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, recordEntriesIn } from "@/lib/local/store";
-import { syncOnce, TransportError, type Transport } from "@/lib/sync/client";
+import { syncOnce, type Transport, TransportError } from "@/lib/sync/client";
 import { PUSH_LIMITS, type PullReply, type PushReply } from "@/lib/sync/protocol";
 import { freshDb } from "./fixture";
 
@@ -27,15 +27,43 @@ vi.mock("@/lib/auth/require", () => ({
 const { POST } = await import("@/app/api/sync/push/route");
 const { GET } = await import("@/app/api/sync/pull/route");
 
-const tomasz: SessionUser = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" };
-const grace: SessionUser = { id: "u-grace", email: "grace@larchmere.example", name: "Grace Oyelaran", role: "safety_officer" };
+const tomasz: SessionUser = {
+  id: "u-tomasz",
+  email: "tomasz@larchmere.example",
+  name: "Tomasz Okafor",
+  role: "technician",
+};
+const grace: SessionUser = {
+  id: "u-grace",
+  email: "grace@larchmere.example",
+  name: "Grace Oyelaran",
+  role: "safety_officer",
+};
 const ORIGIN = "http://localhost:3000";
 
 function note(text: string, over: Record<string, unknown> = {}) {
-  return { id: randomUUID(), cryostatId: "wren", runId: null, kind: "note", payload: { text }, authorId: "u-tomasz", deviceId: "tab-t", recordedAt: new Date().toISOString(), supersedes: null, reason: null, ...over };
+  return {
+    id: randomUUID(),
+    cryostatId: "wren",
+    runId: null,
+    kind: "note",
+    payload: { text },
+    authorId: "u-tomasz",
+    deviceId: "tab-t",
+    recordedAt: new Date().toISOString(),
+    supersedes: null,
+    reason: null,
+    ...over,
+  };
 }
 function push(body: string, headers: Record<string, string> = {}) {
-  return POST(new Request(`${ORIGIN}/api/sync/push`, { method: "POST", body, headers: { "content-type": "application/json", origin: ORIGIN, host: "localhost:3000", ...headers } }));
+  return POST(
+    new Request(`${ORIGIN}/api/sync/push`, {
+      method: "POST",
+      body,
+      headers: { "content-type": "application/json", origin: ORIGIN, host: "localhost:3000", ...headers },
+    }),
+  );
 }
 async function count() {
   return (await state.db!.select({ id: entries.id }).from(entries)).length;
@@ -76,10 +104,16 @@ describe("POST /api/sync/push", () => {
 
   it("answers 413 with a clear message over the entry count or the byte bound", async () => {
     const before = await count();
-    const many = await push(JSON.stringify({ entries: Array.from({ length: PUSH_LIMITS.maxEntries + 1 }, (_, i) => note(`n${i}`)) }));
+    const many = await push(
+      JSON.stringify({ entries: Array.from({ length: PUSH_LIMITS.maxEntries + 1 }, (_, i) => note(`n${i}`)) }),
+    );
     expect(many.status).toBe(413);
-    expect(((await many.json()) as { error: { message: string } }).error.message).toContain(`at most ${PUSH_LIMITS.maxEntries} are accepted`);
-    const big = await push(JSON.stringify({ entries: [note("x".repeat(3000))], pad: "y".repeat(PUSH_LIMITS.maxBytes) }));
+    expect(((await many.json()) as { error: { message: string } }).error.message).toContain(
+      `at most ${PUSH_LIMITS.maxEntries} are accepted`,
+    );
+    const big = await push(
+      JSON.stringify({ entries: [note("x".repeat(3000))], pad: "y".repeat(PUSH_LIMITS.maxBytes) }),
+    );
     expect(big.status).toBe(413);
     expect(await count()).toBe(before);
   });
@@ -87,11 +121,17 @@ describe("POST /api/sync/push", () => {
   it("refuses malformed and wrong-role entries one by one, without failing the good ones", async () => {
     state.user = grace;
     const good = note("safety walk", { authorId: "u-grace" });
-    const wrongRole = { ...note("", { authorId: "u-grace" }), kind: "field.setting", payload: { currentA: 1, fieldT: 0.1, persistent: false } };
+    const wrongRole = {
+      ...note("", { authorId: "u-grace" }),
+      kind: "field.setting",
+      payload: { currentA: 1, fieldT: 0.1, persistent: false },
+    };
     const malformed = { ...note("x", { authorId: "u-grace" }), recordedAt: "yesterday" };
     const otherAuthor = note("not mine");
     const before = await count();
-    const r = (await (await push(JSON.stringify({ entries: [good, wrongRole, malformed, otherAuthor, 42] }))).json()) as PushReply;
+    const r = (await (
+      await push(JSON.stringify({ entries: [good, wrongRole, malformed, otherAuthor, 42] }))
+    ).json()) as PushReply;
     expect(r.accepted.map((a) => a.id)).toEqual([good.id]);
     const codes = Object.fromEntries(r.rejected.map((x) => [x.id, x.code]));
     expect(codes[wrongRole.id]).toBe("forbidden:kind");
@@ -104,19 +144,28 @@ describe("POST /api/sync/push", () => {
 
 describe("GET /api/sync/pull", () => {
   it("pages forward, sends reference data only when the tablet's copy is stale, hides what the role may not read", async () => {
-    const audit = { ...note(""), authorId: "u-grace", kind: "audit.finding", payload: { targetEntryId: randomUUID(), verdict: "acceptable", findings: "ok" } };
+    const audit = {
+      ...note(""),
+      authorId: "u-grace",
+      kind: "audit.finding",
+      payload: { targetEntryId: randomUUID(), verdict: "acceptable", findings: "ok" },
+    };
     state.user = grace;
     await push(JSON.stringify({ entries: [audit] }));
     state.user = tomasz;
     const first = (await (await GET(new Request(`${ORIGIN}/api/sync/pull?since=0&ref=none`))).json()) as PullReply;
     expect(first.me.id).toBe("u-tomasz");
     expect(first.reference?.cryostats.map((c) => c.id).sort()).toEqual(["heron", "plover", "wren"]);
-    const again = (await (await GET(new Request(`${ORIGIN}/api/sync/pull?since=0&ref=${first.reference!.hash}`))).json()) as PullReply;
+    const again = (await (
+      await GET(new Request(`${ORIGIN}/api/sync/pull?since=0&ref=${first.reference!.hash}`))
+    ).json()) as PullReply;
     expect(again.reference).toBeNull();
     let cursor = 0;
     const seen: string[] = [];
     for (;;) {
-      const page = (await (await GET(new Request(`${ORIGIN}/api/sync/pull?since=${cursor}&limit=50`))).json()) as PullReply;
+      const page = (await (
+        await GET(new Request(`${ORIGIN}/api/sync/pull?since=${cursor}&limit=50`))
+      ).json()) as PullReply;
       expect(page.cursor).toBeGreaterThanOrEqual(cursor);
       seen.push(...page.entries.map((e) => e.kind));
       cursor = page.cursor;
@@ -145,7 +194,10 @@ describe("the tablet after a refused push", () => {
     expect((await tablet.entries.toArray())[0]?.sync).toBe("rejected");
 
     await recordEntriesIn(tablet, [{ cryostatId: "wren", kind: "note", payload: { text: "kept too" } }]);
-    const down: Transport = { ...refusing, push: async () => Promise.reject(new TransportError("bad_request", "bad", 400)) };
+    const down: Transport = {
+      ...refusing,
+      push: async () => Promise.reject(new TransportError("bad_request", "bad", 400)),
+    };
     await expect(syncOnce(tablet, down)).rejects.toThrow();
     expect(await tablet.outbox.count()).toBe(1);
     expect(await tablet.entries.where("sync").equals("pending").count()).toBe(1);

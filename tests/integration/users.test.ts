@@ -11,7 +11,11 @@ describe("changeUserAccess", () => {
   it("changes the role, ends sessions and writes a user.change entry", async () => {
     const db = await freshDb({ seeded: true });
     const before = await getUser(db, { id: "u-yuki" });
-    const res = await changeUserAccess(db, ines, { id: "u-yuki", change: { role: "technician", active: false }, deviceId: "server" });
+    const res = await changeUserAccess(db, ines, {
+      id: "u-yuki",
+      change: { role: "technician", active: false },
+      deviceId: "server",
+    });
     expect(res.ok).toBe(true);
     const after = await getUser(db, { id: "u-yuki" });
     expect(after?.role).toBe("technician");
@@ -19,15 +23,28 @@ describe("changeUserAccess", () => {
     expect(after!.sessionVersion).toBe(before!.sessionVersion + 1);
     const trail = (await chainEntries(db, "facility")).filter((e) => e.kind === "user.change");
     expect(trail).toHaveLength(1);
-    expect(trail[0]!.payload).toMatchObject({ userId: "u-yuki", changes: [{ field: "role", from: "researcher", to: "technician" }, { field: "active", from: true, to: false }] });
+    expect(trail[0]!.payload).toMatchObject({
+      userId: "u-yuki",
+      changes: [
+        { field: "role", from: "researcher", to: "technician" },
+        { field: "active", from: true, to: false },
+      ],
+    });
     expect(trail[0]!.authorId).toBe("u-ines");
   });
 
   it("refuses a change to oneself and a change that changes nothing, writing nothing", async () => {
     const db = await freshDb({ seeded: true });
-    expect(await changeUserAccess(db, ines, { id: "u-ines", change: { active: false }, deviceId: "server" })).toEqual({ ok: false, reason: "self" });
-    expect(await changeUserAccess(db, ines, { id: "u-mateo", change: { role: "researcher" }, deviceId: "server" })).toEqual({ ok: false, reason: "no_change" });
-    expect(await changeUserAccess(db, ines, { id: "u-nobody", change: { active: false }, deviceId: "server" })).toEqual({ ok: false, reason: "not_found" });
+    expect(await changeUserAccess(db, ines, { id: "u-ines", change: { active: false }, deviceId: "server" })).toEqual({
+      ok: false,
+      reason: "self",
+    });
+    expect(
+      await changeUserAccess(db, ines, { id: "u-mateo", change: { role: "researcher" }, deviceId: "server" }),
+    ).toEqual({ ok: false, reason: "no_change" });
+    expect(await changeUserAccess(db, ines, { id: "u-nobody", change: { active: false }, deviceId: "server" })).toEqual(
+      { ok: false, reason: "not_found" },
+    );
     expect((await chainEntries(db, "facility")).filter((e) => e.kind === "user.change")).toHaveLength(0);
   });
 });

@@ -1,7 +1,14 @@
 // The live derived values of the reading forms (components/cryo/derive.ts). Each check names the
 // outside source of its expected figure.
 import { describe, expect, it } from "vitest";
-import { deriveReading, durationText, readNumber, sinceLastFill, type CryostatLike, type Derived } from "@/components/cryo/derive";
+import {
+  type CryostatLike,
+  type Derived,
+  deriveReading,
+  durationText,
+  readNumber,
+  sinceLastFill,
+} from "@/components/cryo/derive";
 import { PLOVER as PLOVER_CONFIG } from "@/db/seed";
 import { parseCalibration } from "@/lib/cryo";
 
@@ -12,7 +19,13 @@ const HERON: CryostatLike = {
   id: "heron",
   config: {
     stages: [{ key: "mxc", label: "Mixing chamber", nominalK: 0.012 }],
-    magnet: { coilConstantTPerA: 0.09, maxCurrentA: 100, inductanceH: 20, rampLimitTPerMin: 0.15, persistentSwitch: true },
+    magnet: {
+      coilConstantTPerA: 0.09,
+      maxCurrentA: 100,
+      inductanceH: 20,
+      rampLimitTPerMin: 0.15,
+      persistentSwitch: true,
+    },
   },
 };
 
@@ -23,7 +36,9 @@ function items(d: Derived) {
 
 describe("vapour pressure → ITS-90 4He temperature", () => {
   it("1013.25 mbar on the VTI is the normal boiling point 4.2221 K (ITS-90, Metrologia 27, 3 (1990))", () => {
-    const [t] = items(deriveReading({ cryostat: PLOVER, quantity: "VTI pressure", unit: "mbar", value: "1013.25", stage: "vti" }));
+    const [t] = items(
+      deriveReading({ cryostat: PLOVER, quantity: "VTI pressure", unit: "mbar", value: "1013.25", stage: "vti" }),
+    );
     expect(t?.value).toBeCloseTo(4.2221, 4);
     expect(t?.text).toBe("4.222 K");
   });
@@ -42,7 +57,9 @@ describe("vapour pressure → ITS-90 4He temperature", () => {
   });
 
   it("a mixture tank pressure is not read as a vapour pressure", () => {
-    expect(deriveReading({ cryostat: HERON, quantity: "Mixture tank pressure", unit: "mbar", value: 806 }).status).toBe("none");
+    expect(deriveReading({ cryostat: HERON, quantity: "Mixture tank pressure", unit: "mbar", value: 806 }).status).toBe(
+      "none",
+    );
   });
 });
 
@@ -56,7 +73,14 @@ describe("helium level → litres and days left", () => {
     const day = 86_400_000;
     const t0 = Date.parse("2026-11-01T08:00:00Z");
     const history = [80, 75, 70].map((percent, i) => ({ timeMs: t0 + i * day, percent }));
-    const d = deriveReading({ cryostat: PLOVER, quantity: "Helium level", unit: "%", value: 65, levelHistory: history, nowMs: t0 + 3 * day });
+    const d = deriveReading({
+      cryostat: PLOVER,
+      quantity: "Helium level",
+      unit: "%",
+      value: 65,
+      levelHistory: history,
+      nowMs: t0 + 3 * day,
+    });
     const [litres, rate, days] = items(d);
     expect(litres?.value).toBeCloseTo(63.5, 10);
     expect(rate?.value).toBeCloseTo(5, 10);
@@ -84,7 +108,9 @@ describe("magnet current → field and ramp time", () => {
   });
 
   it("ramp starts from the field the magnet is at", () => {
-    const [, ramp] = items(deriveReading({ cryostat: HERON, quantity: "Magnet current", unit: "A", value: 22.2, fromFieldT: 1.5 }));
+    const [, ramp] = items(
+      deriveReading({ cryostat: HERON, quantity: "Magnet current", unit: "A", value: 22.2, fromFieldT: 1.5 }),
+    );
     expect(ramp?.value).toBeCloseTo((1.998 - 1.5) / 0.15, 10);
   });
 
@@ -109,28 +135,57 @@ describe("sensor resistance → temperature", () => {
   const table = parseCalibration("T R\n0.01 20000\n0.1 5000\n1 2000\n4.2 1200\n", { sensorKind: "ruthenium-oxide" });
 
   it("a reading at a table node returns the node's temperature (interpolant passes through the data)", () => {
-    const [t] = items(deriveReading({ cryostat: HERON, quantity: "Resistance", unit: "Ω", value: 5000, stage: "mxc", calibration: table }));
+    const [t] = items(
+      deriveReading({
+        cryostat: HERON,
+        quantity: "Resistance",
+        unit: "Ω",
+        value: 5000,
+        stage: "mxc",
+        calibration: table,
+      }),
+    );
     expect(t?.value).toBeCloseTo(0.1, 10);
     expect(t?.text).toBe("100 mK");
   });
 
   it("a reading in kΩ is converted before the look-up", () => {
-    const [t] = items(deriveReading({ cryostat: HERON, quantity: "Resistance", unit: "kΩ", value: 2, stage: "mxc", calibration: table }));
+    const [t] = items(
+      deriveReading({
+        cryostat: HERON,
+        quantity: "Resistance",
+        unit: "kΩ",
+        value: 2,
+        stage: "mxc",
+        calibration: table,
+      }),
+    );
     expect(t?.value).toBeCloseTo(1, 10);
   });
 
   it("outside the table it is a message, not an extrapolation", () => {
-    const d = deriveReading({ cryostat: HERON, quantity: "Resistance", unit: "Ω", value: 50_000, stage: "mxc", calibration: table });
+    const d = deriveReading({
+      cryostat: HERON,
+      quantity: "Resistance",
+      unit: "Ω",
+      value: 50_000,
+      stage: "mxc",
+      calibration: table,
+    });
     expect(d).toMatchObject({ status: "error" });
   });
 
   it("a Pt100 at 138.51 Ω is 100 °C (IEC 60751 table value)", () => {
-    const [t] = items(deriveReading({ cryostat: HERON, quantity: "Pt100 on the gas handling", unit: "Ω", value: 138.51 }));
+    const [t] = items(
+      deriveReading({ cryostat: HERON, quantity: "Pt100 on the gas handling", unit: "Ω", value: 138.51 }),
+    );
     expect(t?.value).toBeCloseTo(373.15, 1);
   });
 
   it("without a table or a platinum name there is nothing to show", () => {
-    expect(deriveReading({ cryostat: HERON, quantity: "Resistance", unit: "Ω", value: 5000, stage: "mxc" }).status).toBe("none");
+    expect(
+      deriveReading({ cryostat: HERON, quantity: "Resistance", unit: "Ω", value: 5000, stage: "mxc" }).status,
+    ).toBe("none");
   });
 });
 

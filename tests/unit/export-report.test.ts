@@ -3,8 +3,8 @@
 import { inflateSync } from "node:zlib";
 import { PDFDocument } from "pdf-lib";
 import { describe, expect, it } from "vitest";
-import { csvField, recordsToCsv, CSV_COLUMNS, type CsvRecord } from "@/lib/export/csv";
-import { auditReportPdf, manifestation, winAnsi, type ReportRecord } from "@/lib/export/pdf";
+import { CSV_COLUMNS, type CsvRecord, csvField, recordsToCsv } from "@/lib/export/csv";
+import { auditReportPdf, manifestation, type ReportRecord, winAnsi } from "@/lib/export/pdf";
 
 const rec: CsvRecord = {
   id: "r1",
@@ -13,14 +13,28 @@ const rec: CsvRecord = {
   cryostatName: "Plover",
   authorName: "Tomasz Okafor",
   peopleNames: ["Tomasz Okafor"],
-  payload: { supplyDewar: "D-250-A", ppeConfirmed: true, oxygenMonitorChecked: false, suppliedLitres: 60, gainedLitres: 45, anomalies: 'Said "alone", then left' },
+  payload: {
+    supplyDewar: "D-250-A",
+    ppeConfirmed: true,
+    oxygenMonitorChecked: false,
+    suppliedLitres: 60,
+    gainedLitres: 45,
+    anomalies: 'Said "alone", then left',
+  },
   efficiencyPercent: 75,
   gasToRecoveryLitres: 11244,
   boilOffLitresPerDay: 5.1,
   flags: ["Single person", "Oxygen check missing"],
   verdict: "needs_action",
-  findings: ["=HYPERLINK(\"x\")"],
-  signatures: [{ meaning: "audited", signerName: "Dr. Grace Oyelaran", signerRole: "safety_officer", signedAt: "2026-11-21T09:00:00.000Z" }],
+  findings: ['=HYPERLINK("x")'],
+  signatures: [
+    {
+      meaning: "audited",
+      signerName: "Dr. Grace Oyelaran",
+      signerRole: "safety_officer",
+      signedAt: "2026-11-21T09:00:00.000Z",
+    },
+  ],
   hash: "a".repeat(64),
 };
 
@@ -75,7 +89,15 @@ describe("PDF audit report", () => {
       lines: ["Supply dewar D-250-A; people present: Tomasz Okafor."],
       figures: ["Efficiency 75.0 %"],
       flags: ["Single person (1 person recorded as present)"],
-      findings: [{ verdict: "needs_action", text: "Second person required.", by: "Dr. Grace Oyelaran", at: "2026-11-21T09:00:00.000Z", signatures: rec.signatures.map((s) => ({ ...s, confirmedBy: "password" })) }],
+      findings: [
+        {
+          verdict: "needs_action",
+          text: "Second person required.",
+          by: "Dr. Grace Oyelaran",
+          at: "2026-11-21T09:00:00.000Z",
+          signatures: rec.signatures.map((s) => ({ ...s, confirmedBy: "password" })),
+        },
+      ],
       signatures: [],
       hash: rec.hash,
     };
@@ -100,7 +122,9 @@ describe("PDF audit report", () => {
     expect(text).toContain(hex("Dr. Grace Oyelaran (safety officer), 2026-11-21 09:00 UTC"));
     expect(text).toContain(hex("AUDITED"));
     expect(text).toContain(hex("Flags: Single person"));
-    expect(manifestation(rec.signatures[0]!)).toMatch(/AUDITED — Dr. Grace Oyelaran \(safety officer\), 2026-11-21 09:00 UTC; identity not confirmed/);
+    expect(manifestation(rec.signatures[0]!)).toMatch(
+      /AUDITED — Dr. Grace Oyelaran \(safety officer\), 2026-11-21 09:00 UTC; identity not confirmed/,
+    );
   });
   it("maps symbols the standard fonts cannot draw", () => {
     expect(winAnsi("≈ 5 → 6 ≥ 7 Hallström")).toBe("~ 5 -> 6 >= 7 Hallström");

@@ -6,8 +6,8 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { DataDirLockedError, lockDataDir } from "@/db/lock";
 import { throttleDelayMs } from "@/lib/auth/credentials";
-import { mayRead, mayWrite, maySign } from "@/lib/auth/permissions";
-import { AppError } from "@/lib/errors";
+import { mayRead, maySign, mayWrite } from "@/lib/auth/permissions";
+import type { AppError } from "@/lib/errors";
 import { readJson } from "@/lib/http/respond";
 import { parseEntry } from "@/lib/schemas/entry";
 import { canonicalJson, recordHash } from "@/lib/sync/hash";
@@ -42,18 +42,34 @@ describe("sign-in throttling", () => {
 });
 
 function req(body: string, headers: Record<string, string>) {
-  return new Request("http://localhost:3000/api/x", { method: "POST", body, headers: { host: "localhost:3000", ...headers } });
+  return new Request("http://localhost:3000/api/x", {
+    method: "POST",
+    body,
+    headers: { host: "localhost:3000", ...headers },
+  });
 }
 
 describe("readJson (state-changing requests)", () => {
   it("accepts same-origin JSON", async () => {
-    await expect(readJson(req('{"a":1}', { "content-type": "application/json", origin: "http://localhost:3000" }))).resolves.toEqual({ a: 1 });
+    await expect(
+      readJson(req('{"a":1}', { "content-type": "application/json", origin: "http://localhost:3000" })),
+    ).resolves.toEqual({ a: 1 });
   });
   it("refuses a form post, a foreign origin, an oversized body and broken JSON", async () => {
-    const codes = async (r: Request, max?: number) => readJson(r, max).then(() => "ok", (e: AppError) => `${e.status} ${e.code}`);
-    expect(await codes(req("a=1", { "content-type": "application/x-www-form-urlencoded" }))).toBe("415 unsupported:request");
-    expect(await codes(req("{}", { "content-type": "application/json", origin: "http://evil.example" }))).toBe("403 forbidden:origin");
-    expect(await codes(req(JSON.stringify({ x: "y".repeat(200) }), { "content-type": "application/json" }), 100)).toBe("413 too_large:request");
+    const codes = async (r: Request, max?: number) =>
+      readJson(r, max).then(
+        () => "ok",
+        (e: AppError) => `${e.status} ${e.code}`,
+      );
+    expect(await codes(req("a=1", { "content-type": "application/x-www-form-urlencoded" }))).toBe(
+      "415 unsupported:request",
+    );
+    expect(await codes(req("{}", { "content-type": "application/json", origin: "http://evil.example" }))).toBe(
+      "403 forbidden:origin",
+    );
+    expect(await codes(req(JSON.stringify({ x: "y".repeat(200) }), { "content-type": "application/json" }), 100)).toBe(
+      "413 too_large:request",
+    );
     expect(await codes(req("{nope", { "content-type": "application/json" }))).toBe("400 bad_request:request");
   });
 });
@@ -72,19 +88,39 @@ describe("permissions", () => {
 describe("canonical JSON (RFC 8785)", () => {
   it("sorts keys, normalises strings to NFC and drops undefined", () => {
     // RFC 8785 §3.2.3 sorts properties by UTF-16 code units.
-    expect(canonicalJson({ b: 1, a: [true, null], "é": "e\u0301", u: undefined })).toBe('{"a":[true,null],"b":1,"é":"é"}');
+    expect(canonicalJson({ b: 1, a: [true, null], é: "e\u0301", u: undefined })).toBe(
+      '{"a":[true,null],"b":1,"é":"é"}',
+    );
     // RFC 8785 appendix B: numbers serialise as ECMAScript does.
     expect(canonicalJson({ n: 1e21, m: 0.000001, k: -0 })).toBe('{"k":0,"m":0.000001,"n":1e+21}');
   });
   it("changes the record hash when any field changes", () => {
-    const e = { id: "1b4e28ba-2fa1-4d3b-a3f5-ef19b5a7633b", cryostatId: "wren", runId: null, kind: "note" as const, payload: { text: "a" }, authorId: "u", deviceId: "d", recordedAt: "2026-12-01T10:00:00.000Z", supersedes: null, reason: null };
+    const e = {
+      id: "1b4e28ba-2fa1-4d3b-a3f5-ef19b5a7633b",
+      cryostatId: "wren",
+      runId: null,
+      kind: "note" as const,
+      payload: { text: "a" },
+      authorId: "u",
+      deviceId: "d",
+      recordedAt: "2026-12-01T10:00:00.000Z",
+      supersedes: null,
+      reason: null,
+    };
     expect(recordHash({ ...e, payload: { text: "b" } })).not.toBe(recordHash(e));
     expect(recordHash({ ...e })).toBe(recordHash(e));
   });
 });
 
 describe("entry validation", () => {
-  const base = { id: "1b4e28ba-2fa1-4d3b-a3f5-ef19b5a7633b", cryostatId: "plover", kind: "helium.level", authorId: "u-tomasz", deviceId: "tab", recordedAt: "2026-12-01T10:00:00.000Z" };
+  const base = {
+    id: "1b4e28ba-2fa1-4d3b-a3f5-ef19b5a7633b",
+    cryostatId: "plover",
+    kind: "helium.level",
+    authorId: "u-tomasz",
+    deviceId: "tab",
+    recordedAt: "2026-12-01T10:00:00.000Z",
+  };
   it("accepts a well-formed entry and fills defaults", () => {
     const r = parseEntry({ ...base, payload: { percent: 55 } });
     expect(r.ok && r.entry.supersedes).toBe(null);

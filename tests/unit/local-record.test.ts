@@ -4,9 +4,21 @@ import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { describe, expect, it } from "vitest";
 import { RimelogDexie } from "@/lib/local/db";
 import { queryEntries, syncSummary } from "@/lib/local/queries";
-import { confirmSession, LocalWriteError, OFFLINE_SESSION_MS, putAttachmentIn, recordEntriesIn, type EntryDraft } from "@/lib/local/store";
+import {
+  confirmSession,
+  type EntryDraft,
+  LocalWriteError,
+  OFFLINE_SESSION_MS,
+  putAttachmentIn,
+  recordEntriesIn,
+} from "@/lib/local/store";
 
-const tomasz = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" as const };
+const tomasz = {
+  id: "u-tomasz",
+  email: "tomasz@larchmere.example",
+  name: "Tomasz Okafor",
+  role: "technician" as const,
+};
 
 function tablet(): RimelogDexie {
   return new RimelogDexie(`t-${crypto.randomUUID()}`, { indexedDB: new IDBFactory(), IDBKeyRange });
@@ -16,7 +28,9 @@ describe("tablet store: recording", () => {
   it("writes the entry and its outbox row together, stamped with author, device and time", async () => {
     const db = tablet();
     await confirmSession(db, tomasz);
-    const [e] = await recordEntriesIn(db, [{ cryostatId: "wren", kind: "reading", payload: { quantity: "4 K plate", stage: "4k", value: 3.9, unit: "K" } }]);
+    const [e] = await recordEntriesIn(db, [
+      { cryostatId: "wren", kind: "reading", payload: { quantity: "4 K plate", stage: "4k", value: 3.9, unit: "K" } },
+    ]);
     expect(e?.authorId).toBe("u-tomasz");
     expect(e?.deviceId).toMatch(/^tab-/);
     expect(e?.sync).toBe("pending");
@@ -42,12 +56,22 @@ describe("tablet store: recording", () => {
 
   it("refuses to record without a session, after the offline bound, or for a kind the role may not write", async () => {
     const db = tablet();
-    await expect(recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "x" } }])).rejects.toMatchObject({ code: "no_session" });
+    await expect(
+      recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "x" } }]),
+    ).rejects.toMatchObject({ code: "no_session" });
     await confirmSession(db, tomasz, new Date(Date.now() - OFFLINE_SESSION_MS - 60_000));
-    await expect(recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "x" } }])).rejects.toMatchObject({ code: "session_expired" });
+    await expect(
+      recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "x" } }]),
+    ).rejects.toMatchObject({ code: "session_expired" });
     await confirmSession(db, tomasz);
     await expect(
-      recordEntriesIn(db, [{ cryostatId: "wren", kind: "audit.finding", payload: { targetEntryId: crypto.randomUUID(), verdict: "acceptable", findings: "" } }]),
+      recordEntriesIn(db, [
+        {
+          cryostatId: "wren",
+          kind: "audit.finding",
+          payload: { targetEntryId: crypto.randomUUID(), verdict: "acceptable", findings: "" },
+        },
+      ]),
     ).rejects.toMatchObject({ code: "forbidden" });
     expect(await db.entries.count()).toBe(0);
   });
@@ -58,13 +82,25 @@ describe("tablet store: recording", () => {
     const note = (text: string) => [{ cryostatId: "wren", kind: "note", payload: { text } }] as EntryDraft[];
     await confirmSession(db, tomasz);
     const [a] = await recordEntriesIn(db, note("tomasz"));
-    const priya = { id: "u-priya", email: "priya@larchmere.example", name: "Priya Lindqvist", role: "technician" } as const;
+    const priya = {
+      id: "u-priya",
+      email: "priya@larchmere.example",
+      name: "Priya Lindqvist",
+      role: "technician",
+    } as const;
     await confirmSession(db, priya);
     const [b] = await recordEntriesIn(db, note("priya"));
     expect([a!.authorId, b!.authorId]).toEqual(["u-tomasz", "u-priya"]);
     // The safety officer signs in on the same tablet: a magnet setting, Priya's to record, is not hers.
-    await confirmSession(db, { id: "u-grace", email: "grace@larchmere.example", name: "Dr. Grace Oyelaran", role: "safety_officer" });
-    const field = [{ cryostatId: "wren", kind: "field.setting", payload: { currentA: 10, fieldT: 1, persistent: false } }] as EntryDraft[];
+    await confirmSession(db, {
+      id: "u-grace",
+      email: "grace@larchmere.example",
+      name: "Dr. Grace Oyelaran",
+      role: "safety_officer",
+    });
+    const field = [
+      { cryostatId: "wren", kind: "field.setting", payload: { currentA: 10, fieldT: 1, persistent: false } },
+    ] as EntryDraft[];
     await expect(recordEntriesIn(db, field)).rejects.toMatchObject({ code: "forbidden" });
     // The session ran out, then nobody is signed in: refused, and nothing half-written.
     await confirmSession(db, priya, new Date(Date.now() - OFFLINE_SESSION_MS - 60_000));
@@ -83,11 +119,16 @@ describe("tablet store: recording", () => {
   it("keeps a photo for upload and refuses an empty one", async () => {
     const db = tablet();
     await confirmSession(db, tomasz);
-    const id = await putAttachmentIn(db, new Blob([new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 1, 2, 3])]), { fileName: "gauge.jpg", mime: "image/jpeg" });
+    const id = await putAttachmentIn(db, new Blob([new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 1, 2, 3])]), {
+      fileName: "gauge.jpg",
+      mime: "image/jpeg",
+    });
     const row = await db.attachments.get(id);
     expect(row?.state).toBe("pending");
     expect(row?.bytes).toBe(7);
-    await expect(putAttachmentIn(db, new Blob([]), { fileName: "x.jpg", mime: "image/jpeg" })).rejects.toMatchObject({ code: "invalid" });
+    await expect(putAttachmentIn(db, new Blob([]), { fileName: "x.jpg", mime: "image/jpeg" })).rejects.toMatchObject({
+      code: "invalid",
+    });
   });
 });
 
@@ -96,9 +137,22 @@ describe("tablet store: reading a cryostat's newest entries", () => {
     const db = tablet();
     await confirmSession(db, tomasz);
     const synced = Array.from({ length: 30 }, (_, i) => ({
-      id: crypto.randomUUID(), cryostatId: i % 2 ? "wren" : "heron", runId: null, kind: "note" as const, payload: { text: `s${i}` },
-      authorId: "u-priya", deviceId: "tab-p", recordedAt: new Date(Date.UTC(2026, 10, 1, 0, i)).toISOString(), supersedes: null, reason: null,
-      sync: "synced" as const, seq: 100 + i, hash: "h", prevHash: "p", receivedAt: new Date().toISOString(), rejection: null,
+      id: crypto.randomUUID(),
+      cryostatId: i % 2 ? "wren" : "heron",
+      runId: null,
+      kind: "note" as const,
+      payload: { text: `s${i}` },
+      authorId: "u-priya",
+      deviceId: "tab-p",
+      recordedAt: new Date(Date.UTC(2026, 10, 1, 0, i)).toISOString(),
+      supersedes: null,
+      reason: null,
+      sync: "synced" as const,
+      seq: 100 + i,
+      hash: "h",
+      prevHash: "p",
+      receivedAt: new Date().toISOString(),
+      rejection: null,
     }));
     await db.entries.bulkPut(synced);
     const [mine] = await recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "unsent" } }]);
@@ -116,10 +170,20 @@ describe("tablet store: reading entries of some kinds", () => {
     await confirmSession(db, tomasz);
     const at = (i: number) => new Date(Date.UTC(2026, 10, 2, 0, i));
     const reading = { quantity: "Temperature", stage: "still", value: 0.8, unit: "K" };
-    const plan = [["wren", "note"], ["wren", "reading"], ["heron", "reading"], [null, "note"], ["wren", "reading"]] as const;
+    const plan = [
+      ["wren", "note"],
+      ["wren", "reading"],
+      ["heron", "reading"],
+      [null, "note"],
+      ["wren", "reading"],
+    ] as const;
     const written: { id: string }[] = [];
     for (const [i, [cryostatId, kind]] of plan.entries()) {
-      const [e] = await recordEntriesIn(db, [{ cryostatId, kind, payload: kind === "note" ? { text: `n${i}` } : reading } as EntryDraft], at(i));
+      const [e] = await recordEntriesIn(
+        db,
+        [{ cryostatId, kind, payload: kind === "note" ? { text: `n${i}` } : reading } as EntryDraft],
+        at(i),
+      );
       written.push(e!);
     }
     const ids = (xs: { id: string }[]) => xs.map((e) => e.id);

@@ -5,22 +5,63 @@ import { describe, expect, it } from "vitest";
 import { applyKey, keypadNumber } from "@/components/procedures/keypad";
 import { DEFAULT_TEMPLATES } from "@/db/seed-templates";
 import { handoverSummary } from "@/lib/procedures/handover";
-import { deriveRun, describeRange, readingOutOfRange, type PinnedTemplate, type RunEntry } from "@/lib/procedures/state";
+import {
+  deriveRun,
+  describeRange,
+  type PinnedTemplate,
+  type RunEntry,
+  readingOutOfRange,
+} from "@/lib/procedures/state";
 import { recordHash } from "@/lib/sync/hash";
 
 const cooldown = DEFAULT_TEMPLATES.find((t) => t.key === "cooldown-dry-dilution")!;
-const template: PinnedTemplate = { id: randomUUID(), key: cooldown.key, version: 1, title: cooldown.title, steps: cooldown.steps };
+const template: PinnedTemplate = {
+  id: randomUUID(),
+  key: cooldown.key,
+  version: 1,
+  title: cooldown.title,
+  steps: cooldown.steps,
+};
 
 let clock = Date.parse("2026-12-01T08:00:00Z");
 function e(kind: string, payload: Record<string, unknown>, over: Partial<RunEntry> = {}): RunEntry {
   clock += 60_000;
-  return { id: randomUUID(), cryostatId: "heron", runId: null, kind: kind as RunEntry["kind"], payload, authorId: "u-tomasz", deviceId: "tab-1", recordedAt: new Date(clock).toISOString(), supersedes: null, reason: null, ...over };
+  return {
+    id: randomUUID(),
+    cryostatId: "heron",
+    runId: null,
+    kind: kind as RunEntry["kind"],
+    payload,
+    authorId: "u-tomasz",
+    deviceId: "tab-1",
+    recordedAt: new Date(clock).toISOString(),
+    supersedes: null,
+    reason: null,
+    ...over,
+  };
 }
 function run() {
-  const start = e("run.start", { templateId: template.id, templateKey: template.key, templateVersion: 1, title: "Cooldown" });
-  const step = (payload: Record<string, unknown>, over: Partial<RunEntry> = {}) => e("run.step", payload, { runId: start.id, ...over });
+  const start = e("run.start", {
+    templateId: template.id,
+    templateKey: template.key,
+    templateVersion: 1,
+    title: "Cooldown",
+  });
+  const step = (payload: Record<string, unknown>, over: Partial<RunEntry> = {}) =>
+    e("run.step", payload, { runId: start.id, ...over });
   const sign = (target: RunEntry, meaning = "verified", role = "technician") =>
-    e("signature", { signedEntryId: target.id, meaning, signerName: "Tomasz Okafor", signerRole: role, signedHash: recordHash(target as never), confirmedBy: "pin" }, { runId: start.id });
+    e(
+      "signature",
+      {
+        signedEntryId: target.id,
+        meaning,
+        signerName: "Tomasz Okafor",
+        signerRole: role,
+        signedHash: recordHash(target as never),
+        confirmedBy: "pin",
+      },
+      { runId: start.id },
+    );
   return { start, step, sign };
 }
 
@@ -41,7 +82,11 @@ describe("run state", () => {
     const s = deriveRun(start.id, template, [start]);
     expect(s.status).toBe("open");
     expect(s.currentIndex).toBe(0);
-    expect(s.progress).toEqual({ done: 0, required: template.steps.filter((x) => x.kind !== "note").length, percent: 0 });
+    expect(s.progress).toEqual({
+      done: 0,
+      required: template.steps.filter((x) => x.kind !== "note").length,
+      percent: 0,
+    });
     const hold = template.steps.findIndex((x) => x.id === "hold-precool");
     expect(s.blockingHold).toBe(hold);
     expect(s.steps[hold + 1]?.status).toBe("blocked");
@@ -50,7 +95,14 @@ describe("run state", () => {
 
   it("flags an out-of-range reading (and a missing comment) but counts it as recorded", () => {
     const { start, step } = run();
-    const r = step({ stepId: "tank-before", kind: "reading", quantity: "q", value: 640, unit: "mbar", outOfRange: true });
+    const r = step({
+      stepId: "tank-before",
+      kind: "reading",
+      quantity: "q",
+      value: 640,
+      unit: "mbar",
+      outOfRange: true,
+    });
     const s = deriveRun(start.id, template, [start, r]).steps.find((x) => x.step.id === "tank-before")!;
     expect(s.status).toBe("flagged");
     expect(s.problems.join(" ")).toMatch(/below 700 – 900 mbar/);
@@ -86,7 +138,13 @@ describe("run state", () => {
   it("the same result whatever order the entries arrive in", () => {
     const { start, step, sign } = run();
     const hold = step({ stepId: "hold-precool", kind: "hold", statement: "ok" });
-    const list = [start, step({ stepId: "probe-closed", kind: "check" }), step({ stepId: "leak-check", kind: "check" }, { deviceId: "tab-2" }), hold, sign(hold)];
+    const list = [
+      start,
+      step({ stepId: "probe-closed", kind: "check" }),
+      step({ stepId: "leak-check", kind: "check" }, { deviceId: "tab-2" }),
+      hold,
+      sign(hold),
+    ];
     const a = deriveRun(start.id, template, list);
     const b = deriveRun(start.id, template, [...list].reverse());
     expect(b.steps.map((x) => x.status)).toEqual(a.steps.map((x) => x.status));
@@ -99,11 +157,22 @@ describe("run state", () => {
     for (const st of template.steps) {
       if (st.kind === "note") continue;
       const p =
-        st.kind === "check" ? { stepId: st.id, kind: "check" } :
-        st.kind === "reading" ? { stepId: st.id, kind: "reading", quantity: st.quantity, value: st.max ?? st.min ?? 1, unit: st.unit, outOfRange: false } :
-        st.kind === "photo" ? { stepId: st.id, kind: "photo", attachmentId: randomUUID() } :
-        st.kind === "caution" ? { stepId: st.id, kind: "caution", acknowledged: true } :
-        { stepId: st.id, kind: "hold", statement: st.text };
+        st.kind === "check"
+          ? { stepId: st.id, kind: "check" }
+          : st.kind === "reading"
+            ? {
+                stepId: st.id,
+                kind: "reading",
+                quantity: st.quantity,
+                value: st.max ?? st.min ?? 1,
+                unit: st.unit,
+                outOfRange: false,
+              }
+            : st.kind === "photo"
+              ? { stepId: st.id, kind: "photo", attachmentId: randomUUID() }
+              : st.kind === "caution"
+                ? { stepId: st.id, kind: "caution", acknowledged: true }
+                : { stepId: st.id, kind: "hold", statement: st.text };
       const x = step(p);
       list.push(x);
       if (st.kind === "hold") list.push(sign(x));
@@ -142,7 +211,11 @@ describe("handover summary", () => {
   it("takes the latest per stage, the level in litres and a forecast from the boil-off since the last fill", () => {
     const config = {
       stages: [{ key: "bath", label: "Helium bath", nominalK: 4.2 }],
-      reservoir: { capacityLitres: 60, minimumPercent: 20, calibration: { kind: "linear" as const, litresPerPercent: 0.6, offsetLitres: 0 } },
+      reservoir: {
+        capacityLitres: 60,
+        minimumPercent: 20,
+        calibration: { kind: "linear" as const, litresPerPercent: 0.6, offsetLitres: 0 },
+      },
     };
     const now = Date.parse("2026-12-10T12:00:00Z");
     const day = 86_400_000;

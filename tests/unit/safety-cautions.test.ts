@@ -1,29 +1,41 @@
 // Cautions: every screen's texts carry the facility's own values and end by deferring to the
 // facility's rules, training, the safety officer and the maker's instructions; computed figures
 // read as estimates. Values are the demo lab's (db/seed.ts DEMO_RULES).
+
+import { PDFDocument } from "pdf-lib";
 import { describe, expect, it } from "vitest";
 import { DEMO_RULES } from "@/db/seed";
 import { CAUTION_TOPIC_NAMES, cautionsFor, deferral, facilityFacts } from "@/lib/safety/cautions";
-import { ESTIMATE_NOTE, fringeDistanceText, heliumLostText, oxygenEstimateText, storedEnergyText } from "@/lib/safety/estimates";
+import {
+  ESTIMATE_NOTE,
+  fringeDistanceText,
+  heliumLostText,
+  oxygenEstimateText,
+  storedEnergyText,
+} from "@/lib/safety/estimates";
 import { checkRulesDocument, isPdf, RULES_DOCUMENT_MAX_BYTES } from "@/lib/safety/rules-document";
-import { PDFDocument } from "pdf-lib";
 
 describe("cautions", () => {
-  it.each(CAUTION_TOPIC_NAMES)("%s: every section ends by deferring to rules, training, the safety officer and the maker", (topic) => {
-    const sections = cautionsFor(topic, DEMO_RULES, { cryostatId: "plover", cryostatName: "Plover" });
-    expect(sections.length).toBeGreaterThan(0);
-    for (const s of sections) {
-      expect(s.points.length).toBeGreaterThan(0);
-      expect(s.deferral).toMatch(/facility's own rules/);
-      expect(s.deferral).toMatch(/training/);
-      expect(s.deferral).toMatch(/safety officer/);
-      expect(s.deferral).toMatch(/equipment maker's instructions/);
-      expect(s.deferral).toContain("Dr. Grace Oyelaran");
-    }
-  });
+  it.each(CAUTION_TOPIC_NAMES)(
+    "%s: every section ends by deferring to rules, training, the safety officer and the maker",
+    (topic) => {
+      const sections = cautionsFor(topic, DEMO_RULES, { cryostatId: "plover", cryostatName: "Plover" });
+      expect(sections.length).toBeGreaterThan(0);
+      for (const s of sections) {
+        expect(s.points.length).toBeGreaterThan(0);
+        expect(s.deferral).toMatch(/facility's own rules/);
+        expect(s.deferral).toMatch(/training/);
+        expect(s.deferral).toMatch(/safety officer/);
+        expect(s.deferral).toMatch(/equipment maker's instructions/);
+        expect(s.deferral).toContain("Dr. Grace Oyelaran");
+      }
+    },
+  );
 
   it("the transfer caution names the facility's PPE, alarm level and two-person rule", () => {
-    const all = cautionsFor("transfer", DEMO_RULES).flatMap((s) => s.points).join(" ");
+    const all = cautionsFor("transfer", DEMO_RULES)
+      .flatMap((s) => s.points)
+      .join(" ");
     expect(all).toContain("Face shield, Cryogenic gloves");
     expect(all).toContain("19.5 %");
     expect(all).toContain("18 %");
@@ -34,14 +46,20 @@ describe("cautions", () => {
 
   it("follows the facility's values when they change", () => {
     const other = { ...DEMO_RULES, oxygenAlarmPercent: 20, twoPersonTransfer: false, ppe: ["Visor"] };
-    const all = cautionsFor("transfer", other).flatMap((s) => s.points).join(" ");
+    const all = cautionsFor("transfer", other)
+      .flatMap((s) => s.points)
+      .join(" ");
     expect(all).toContain("20 %");
     expect(all).not.toMatch(/require two people/);
     expect(all).toContain("Visor");
   });
 
   it("the ramp caution gives the cryostat's own limit and the maker's", () => {
-    const ramp = cautionsFor("ramp", DEMO_RULES, { cryostatId: "heron", cryostatName: "Heron", makerRampLimitTPerMin: 0.15 });
+    const ramp = cautionsFor("ramp", DEMO_RULES, {
+      cryostatId: "heron",
+      cryostatName: "Heron",
+      makerRampLimitTPerMin: 0.15,
+    });
     const text = ramp.flatMap((s) => s.points).join(" ");
     expect(text).toContain("facility's limit for Heron is 0.15 T/min");
     expect(text).toMatch(/pacemakers/);

@@ -7,7 +7,12 @@ import { confirmSession } from "@/lib/local/store";
 import type { Transport } from "@/lib/sync/client";
 import { SyncLoop } from "@/lib/sync/loop";
 
-const tomasz = { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" as const };
+const tomasz = {
+  id: "u-tomasz",
+  email: "tomasz@larchmere.example",
+  name: "Tomasz Okafor",
+  role: "technician" as const,
+};
 
 /** A transport whose pulls are counted (one a round here: nothing is queued) and may be held. */
 function countingTransport() {

@@ -19,19 +19,26 @@ export async function POST(req: Request) {
     const user = await requireUser();
     requireByteUpload(req, "attachment");
     const id = z.uuid().safeParse(req.headers.get("x-rimelog-attachment-id"));
-    if (!id.success) throw new AppError("bad_request", "attachment", "The upload needs the attachment id the tablet made (a UUID).");
+    if (!id.success)
+      throw new AppError("bad_request", "attachment", "The upload needs the attachment id the tablet made (a UUID).");
     const tooLarge = () => `The file is over ${MAX_ATTACHMENT_BYTES / 1048576} MB.`;
     const bytes = await readUploadBytes(req, { surface: "attachment", maxBytes: MAX_ATTACHMENT_BYTES, tooLarge });
     if (bytes.length > MAX_ATTACHMENT_BYTES) throw new AppError("too_large", "attachment", tooLarge());
     if (bytes.length === 0) throw new AppError("bad_request", "attachment", "The file is empty.");
     const type = sniffType(bytes);
-    if (!type) throw new AppError("unsupported", "attachment", "Only photos (JPEG, PNG, WebP), PDF and plain-text files are accepted.");
+    if (!type)
+      throw new AppError(
+        "unsupported",
+        "attachment",
+        "Only photos (JPEG, PNG, WebP), PDF and plain-text files are accepted.",
+      );
     const sha256 = createHash("sha256").update(bytes).digest("hex");
     const rawName = uploadHeader(req, "x-rimelog-file-name");
     const db = await getDb();
     const existing = await getAttachment(db, { id: id.data });
     if (existing) {
-      if (existing.sha256 !== sha256) throw new AppError("conflict", "attachment", "Another file is already stored under this id.");
+      if (existing.sha256 !== sha256)
+        throw new AppError("conflict", "attachment", "Another file is already stored under this id.");
       return json({ id: existing.id, bytes: existing.bytes, mime: existing.mime, sha256 });
     }
     const storageKey = newStorageKey();
@@ -45,7 +52,8 @@ export async function POST(req: Request) {
       storageKey,
       uploadedBy: user.id,
     });
-    if (row.sha256 !== sha256) throw new AppError("conflict", "attachment", "Another file is already stored under this id.");
+    if (row.sha256 !== sha256)
+      throw new AppError("conflict", "attachment", "Another file is already stored under this id.");
     return json({ id: row.id, bytes: row.bytes, mime: row.mime, sha256 }, 201);
   });
 }

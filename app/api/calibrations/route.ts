@@ -1,9 +1,9 @@
 // Sensor calibration tables: GET the tables in force (any signed-in user; the tablet remembers
 // them for offline conversion), POST to accept a previewed table (facility admin or technician).
 import { z } from "zod";
+import { calibrationUploadSchema } from "@/components/cryo/calibration-schema";
 import { getDb } from "@/db";
 import { acceptCalibration, listCalibrations } from "@/db/queries/calibrations";
-import { calibrationUploadSchema } from "@/components/cryo/calibration-schema";
 import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
 import { handle, json, readJson } from "@/lib/http/respond";
@@ -17,7 +17,8 @@ export async function GET(req: Request) {
   return handle(async () => {
     await requireUser();
     const q = query.safeParse(Object.fromEntries(new URL(req.url).searchParams));
-    if (!q.success) throw new AppError("bad_request", "calibration", "Unknown query parameters.", formatIssues(q.error));
+    if (!q.success)
+      throw new AppError("bad_request", "calibration", "Unknown query parameters.", formatIssues(q.error));
     const calibrations = await listCalibrations(await getDb(), {
       ...(q.data.cryostatId ? { cryostatId: q.data.cryostatId } : {}),
       inForce: q.data.history === "0",
@@ -30,7 +31,13 @@ export async function POST(req: Request) {
   return handle(async () => {
     const user = await requireUser("facility_admin", "technician");
     const body = calibrationUploadSchema.safeParse(await readJson(req, 400_000));
-    if (!body.success) throw new AppError("bad_request", "calibration", "The calibration upload is incomplete.", formatIssues(body.error));
+    if (!body.success)
+      throw new AppError(
+        "bad_request",
+        "calibration",
+        "The calibration upload is incomplete.",
+        formatIssues(body.error),
+      );
     const record = await acceptCalibration(await getDb(), { upload: body.data, userId: user.id });
     return json({ calibration: record }, 201);
   });

@@ -6,7 +6,15 @@ import { SignInError, verifySignIn } from "@/lib/auth/credentials";
 import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
 import { handle, json, readJson } from "@/lib/http/respond";
-import { derivePinKey, formatPinRecord, parsePinRecord, PIN_ITERATIONS, PIN_LIFETIME_MS, PIN_PATTERN, verifierOf } from "@/lib/signing/proof";
+import {
+  derivePinKey,
+  formatPinRecord,
+  PIN_ITERATIONS,
+  PIN_LIFETIME_MS,
+  PIN_PATTERN,
+  parsePinRecord,
+  verifierOf,
+} from "@/lib/signing/proof";
 
 export const dynamic = "force-dynamic";
 
@@ -14,7 +22,12 @@ export const dynamic = "force-dynamic";
 function verifierFor(record: string | null) {
   const pin = parsePinRecord(record);
   if (!pin) return null;
-  return { saltB64: pin.saltB64, iterations: pin.iterations, verifier: verifierOf(pin.keyHex), expiresAt: new Date(Date.now() + PIN_LIFETIME_MS).toISOString() };
+  return {
+    saltB64: pin.saltB64,
+    iterations: pin.iterations,
+    verifier: verifierOf(pin.keyHex),
+    expiresAt: new Date(Date.now() + PIN_LIFETIME_MS).toISOString(),
+  };
 }
 
 /** Refresh the tablet's cached PIN verifier (online, signed in): a new expiry, same PIN. */
@@ -26,7 +39,10 @@ export async function GET() {
   });
 }
 
-const setSchema = z.object({ password: z.string().min(1).max(200), pin: z.string().regex(PIN_PATTERN, "6 to 12 digits") });
+const setSchema = z.object({
+  password: z.string().min(1).max(200),
+  pin: z.string().regex(PIN_PATTERN, "6 to 12 digits"),
+});
 
 /** Set or change the signing PIN; needs the password again, so an unattended session cannot. */
 export async function POST(req: Request) {
@@ -34,7 +50,11 @@ export async function POST(req: Request) {
     const user = await requireUser();
     const body = setSchema.safeParse(await readJson(req, 2_000));
     if (!body.success) throw new AppError("bad_request", "pin", "The PIN is 6 to 12 digits.");
-    if (/^(\d)\1+$/.test(body.data.pin) || "01234567890123456789".includes(body.data.pin) || "98765432109876543210".includes(body.data.pin)) {
+    if (
+      /^(\d)\1+$/.test(body.data.pin) ||
+      "01234567890123456789".includes(body.data.pin) ||
+      "98765432109876543210".includes(body.data.pin)
+    ) {
       throw new AppError("bad_request", "pin", "Choose a PIN that is not one repeated digit or a run of digits.");
     }
     const db = await getDb();

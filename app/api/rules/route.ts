@@ -5,8 +5,8 @@ import { changeRules, getRules } from "@/db/queries/rules";
 import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
 import { handle, json, readJson } from "@/lib/http/respond";
-import { formatIssues } from "@/lib/schemas/entry";
 import { rulesChangeInputSchema } from "@/lib/safety/rules-input";
+import { formatIssues } from "@/lib/schemas/entry";
 
 export const dynamic = "force-dynamic";
 
@@ -21,7 +21,8 @@ export async function PUT(req: Request) {
   return handle(async () => {
     const user = await requireUser("facility_admin");
     const parsed = rulesChangeInputSchema.safeParse(await readJson(req, 200_000));
-    if (!parsed.success) throw new AppError("bad_request", "rules", "Check the highlighted fields.", formatIssues(parsed.error));
+    if (!parsed.success)
+      throw new AppError("bad_request", "rules", "Check the highlighted fields.", formatIssues(parsed.error));
     return json({ rules: await changeRules(await getDb(), user, parsed.data) });
   });
 }

@@ -1,3 +1,4 @@
+import { z } from "zod";
 import { getDb } from "@/db";
 import { listTemplates, saveTemplateVersion } from "@/db/queries/templates";
 import { requireUser } from "@/lib/auth/require";
@@ -5,7 +6,6 @@ import { AppError } from "@/lib/errors";
 import { handle, json, readJson } from "@/lib/http/respond";
 import { formatIssues } from "@/lib/schemas/entry";
 import { templateInputSchema } from "@/lib/schemas/run";
-import { z } from "zod";
 
 export const dynamic = "force-dynamic";
 
@@ -24,11 +24,22 @@ export async function POST(req: Request) {
   return handle(async () => {
     const user = await requireUser("facility_admin");
     const body = saveSchema.safeParse(await readJson(req, 300_000));
-    if (!body.success) throw new AppError("bad_request", "template", "Send { basedOnVersion, template }.", formatIssues(body.error));
+    if (!body.success)
+      throw new AppError("bad_request", "template", "Send { basedOnVersion, template }.", formatIssues(body.error));
     const parsed = templateInputSchema.safeParse(body.data.template);
-    if (!parsed.success) throw new AppError("bad_request", "template", "Check the highlighted fields.", formatIssues(parsed.error));
-    const res = await saveTemplateVersion(await getDb(), { input: parsed.data, createdBy: user.id, basedOnVersion: body.data.basedOnVersion });
-    if (!res.ok) throw new AppError("conflict", "template", `Someone saved version ${res.latest} of this procedure while you were editing. Reload it and make your change again.`);
+    if (!parsed.success)
+      throw new AppError("bad_request", "template", "Check the highlighted fields.", formatIssues(parsed.error));
+    const res = await saveTemplateVersion(await getDb(), {
+      input: parsed.data,
+      createdBy: user.id,
+      basedOnVersion: body.data.basedOnVersion,
+    });
+    if (!res.ok)
+      throw new AppError(
+        "conflict",
+        "template",
+        `Someone saved version ${res.latest} of this procedure while you were editing. Reload it and make your change again.`,
+      );
     return json({ template: res.template }, 201);
   });
 }

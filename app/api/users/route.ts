@@ -22,11 +22,15 @@ export async function POST(req: Request) {
   return handle(async () => {
     await requireUser("facility_admin");
     const parsed = newUserSchema.safeParse(await readJson(req));
-    if (!parsed.success) throw new AppError("bad_request", "user", "Check the highlighted fields.", formatIssues(parsed.error));
+    if (!parsed.success)
+      throw new AppError("bad_request", "user", "Check the highlighted fields.", formatIssues(parsed.error));
     const { password, ...rest } = parsed.data;
-    const res = await createUser(await getDb(), { ...rest, id: `u-${randomUUID()}`, passwordHash: await bcrypt.hash(password, 10) });
+    const res = await createUser(await getDb(), {
+      ...rest,
+      id: `u-${randomUUID()}`,
+      passwordHash: await bcrypt.hash(password, 10),
+    });
     if (!res.ok) throw new AppError("conflict", "user", `Someone already uses ${rest.email}.`);
     return json({ user: res.user }, 201);
   });
 }
-

@@ -3,7 +3,7 @@
 import { mkdirSync } from "node:fs";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
+import { type Browser, type BrowserContext, chromium, type Page } from "playwright-core";
 import { afterAll, beforeAll } from "vitest";
 import { assertChromiumInstalled, CHROMIUM_ARGS } from "./chromium";
 import { DEMO_PASSWORD } from "./demo-users";
@@ -96,5 +96,9 @@ export function useTablets(baseURL: string) {
 
 /** Waits until the sync indicator shows `n` entries waiting to be sent. */
 export async function waitPending(page: Page, n: number, timeout = 30_000): Promise<void> {
-  await page.waitForFunction((want) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(want), n, { timeout });
+  await page.waitForFunction(
+    (want) => document.querySelector('[data-testid="sync-indicator"]')?.getAttribute("data-pending") === String(want),
+    n,
+    { timeout },
+  );
 }

@@ -1,6 +1,6 @@
 // Builds and runs the production app for the e2e suite: one `next start` in its own process group,
 // a throwaway data directory, a log file, and a readiness wait on /api/health.
-import { spawn, type ChildProcess } from "node:child_process";
+import { type ChildProcess, spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import { closeSync, existsSync, mkdtempSync, openSync, readFileSync, rmSync } from "node:fs";
 import { createServer } from "node:net";

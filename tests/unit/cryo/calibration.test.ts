@@ -42,7 +42,10 @@ describe("parseCalibration", () => {
   });
 
   it("an explicit column order wins over the header guess", () => {
-    const table = parseCalibration("10 2000\n20 1000\n30 500\n", { sensorKind: "germanium", columns: "value-temperature" });
+    const table = parseCalibration("10 2000\n20 1000\n30 500\n", {
+      sensorKind: "germanium",
+      columns: "value-temperature",
+    });
     expect(table.range.temperatureMaxK).toBe(2000);
   });
 
@@ -83,7 +86,9 @@ describe("convertReading", () => {
 
   it("refuses readings outside the table, naming its range", () => {
     expect(() => convertReading(ruox, 100)).toThrow(RangeError);
-    expect(() => convertReading(ruox, 100)).toThrow(/below the calibration table's range \(158\.1–63250 Ω, 0\.01–4 K\)/);
+    expect(() => convertReading(ruox, 100)).toThrow(
+      /below the calibration table's range \(158\.1–63250 Ω, 0\.01–4 K\)/,
+    );
     expect(() => convertReading(diode, 1.8)).toThrow(/above the calibration table's range/);
     expect(() => convertReading(diode, Number.NaN)).toThrow(/finite/);
   });

@@ -43,7 +43,13 @@ describe("litresFromLevel", () => {
     const linear = { kind: "linear" as const, litresPerPercent: 1, offsetLitres: 0 };
     expect(() => litresFromLevel(-1, linear)).toThrow(/below the level meter's range \(0–100 %\)/);
     expect(() => litresFromLevel(Number.NaN, linear)).toThrow(RangeError);
-    const bad = { kind: "table" as const, points: [{ percent: 0, litres: 0 }, { percent: 0, litres: 5 }] };
+    const bad = {
+      kind: "table" as const,
+      points: [
+        { percent: 0, litres: 0 },
+        { percent: 0, litres: 5 },
+      ],
+    };
     expect(() => litresFromLevel(0, bad)).toThrow(CryoInputError);
   });
 });
@@ -134,7 +140,10 @@ describe("boilOffRate", () => {
 
 describe("forecastMinimumLevel", () => {
   it("a clean line at 5 L/day from 80 L reaches 25 L after 11 days", () => {
-    const clean = Array.from({ length: 5 }, (_, i) => ({ timeMs: T0 + i * DAY_MS, litres: 80 - 5 * i + (i % 2) * 1e-9 }));
+    const clean = Array.from({ length: 5 }, (_, i) => ({
+      timeMs: T0 + i * DAY_MS,
+      litres: 80 - 5 * i + (i % 2) * 1e-9,
+    }));
     const f = forecastMinimumLevel(boilOffRate(clean), 25, T0);
     expect(f.forecast).toBe(true);
     if (!f.forecast) return;

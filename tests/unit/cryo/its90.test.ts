@@ -3,7 +3,6 @@
 // independent CoolProp equation of state in cryogens-eos.json.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import eos from "@/lib/cryo/data/cryogens-eos.json";
 import {
   HE3_RANGE,
   HE4_RANGE,
@@ -12,6 +11,7 @@ import {
   he4PressureFromTemperature,
   he4TemperatureFromPressure,
 } from "@/lib/cryo";
+import eos from "@/lib/cryo/data/cryogens-eos.json";
 
 describe("4He temperature from pressure", () => {
   it("normal boiling point 101 325 Pa → 4.2221 K (ITS-90 NBP, Metrologia 27 [pub])", () => {

@@ -33,7 +33,10 @@ describe("continuous release", () => {
     if (!t.reached) throw new Error("expected the level to be reached");
     expect(oxygenDuringRelease(room, t.timeS)).toBeCloseTo(0.195, 12);
     const windy = { ...room, ventilationM3PerS: 50 * PER_MIN };
-    expect(timeToOxygenFraction(windy, 0.195)).toEqual({ reached: false, steadyStateFraction: steadyStateOxygen(windy) });
+    expect(timeToOxygenFraction(windy, 0.195)).toEqual({
+      reached: false,
+      steadyStateFraction: steadyStateOxygen(windy),
+    });
     expect(steadyStateOxygen(windy)).toBeCloseTo((0.21 * 50) / 51, 12);
   });
 

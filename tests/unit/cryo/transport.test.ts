@@ -51,7 +51,10 @@ describe("Aharonov–Bohm ring", () => {
   it("1 µm mean diameter → ΔB = 5.2657 mT (REFERENCES.md [calc]); mathjs unit check in mT", () => {
     const period = aharonovBohmPeriodT({ meanDiameterM: 1e-6 });
     expect(period * 1e3).toBeCloseTo(5.2657, 4);
-    const viaMathjs = math.divide(math.unit(FLUX_QUANTUM_H_OVER_E_WB, "Wb"), math.unit(Math.PI * 0.25, "um^2")) as math.Unit;
+    const viaMathjs = math.divide(
+      math.unit(FLUX_QUANTUM_H_OVER_E_WB, "Wb"),
+      math.unit(Math.PI * 0.25, "um^2"),
+    ) as math.Unit;
     expect(viaMathjs.toNumber("mT")).toBeCloseTo(period * 1e3, 10);
   });
 

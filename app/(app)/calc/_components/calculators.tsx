@@ -1,12 +1,12 @@
 "use client";
 // The /calc page: one cached page, sections picked client-side by the URL hash (#magnet, …),
 // so every calculator works offline once the page is in the service worker's cache.
-import { useEffect, useState, type ReactNode } from "react";
-import { GasSection, OxygenSection } from "./safety-gas";
+import { type ReactNode, useEffect, useState } from "react";
+import { useCryostatList } from "@/components/cryo/use-cryo-data";
 import { HeliumSection, MagnetSection } from "./helium-magnet";
+import { GasSection, OxygenSection } from "./safety-gas";
 import { CalibrationSection, Its90Section, PlatinumSection } from "./thermometry";
 import { TransportSection } from "./transport";
-import { useCryostatList } from "@/components/cryo/use-cryo-data";
 
 const SECTIONS: { id: string; label: string; title: string; render: () => ReactNode }[] = [
   { id: "its90", label: "ITS-90", title: "Helium vapour-pressure thermometry", render: () => <Its90Section /> },
@@ -39,16 +39,23 @@ export function Calculators() {
     <div className="flex flex-col gap-4">
       <div>
         <h1 className="text-3xl font-bold">Calculators</h1>
-        <p className="text-muted">Work on this tablet with no network. Figures outside a formula&apos;s range are refused, never stretched.</p>
+        <p className="text-muted">
+          Work on this tablet with no network. Figures outside a formula&apos;s range are refused, never stretched.
+        </p>
       </div>
-      <nav aria-label="Calculator sections" className="sticky top-[64px] z-10 -mx-1 flex flex-wrap gap-1 bg-bg/95 px-1 py-1 backdrop-blur">
+      <nav
+        aria-label="Calculator sections"
+        className="sticky top-[64px] z-10 -mx-1 flex flex-wrap gap-1 bg-bg/95 px-1 py-1 backdrop-blur"
+      >
         {SECTIONS.map((s) => (
           <a
             key={s.id}
             href={`#${s.id}`}
             aria-current={s.id === active ? "page" : undefined}
             className={`flex min-h-12 items-center rounded-xl border-2 px-4 font-semibold ${
-              s.id === active ? "border-accent bg-accent text-accent-ink" : "border-line bg-panel text-ink hover:bg-sunk"
+              s.id === active
+                ? "border-accent bg-accent text-accent-ink"
+                : "border-line bg-panel text-ink hover:bg-sunk"
             }`}
           >
             {s.label}

@@ -2,35 +2,36 @@
 // Helium bookkeeping and magnet calculators. Presets come from the cryostats remembered at the
 // last online visit (reservoir calibration, magnet parameters); every figure can be overridden.
 import { useState } from "react";
+import { Calculator, parsePairs } from "@/components/cryo/calc-kit";
+import { durationText, figure } from "@/components/cryo/derive";
+import { EstimateNote } from "@/components/cryo/estimate-note";
+import { useCryostatList } from "@/components/cryo/use-cryo-data";
+import { Caution } from "@/components/safety/caution";
+import { type Choice, OptionList } from "@/components/ui/form";
 import {
-  GAS_REFERENCES,
   boilOffFromHeatLoad,
   boilOffRate,
   contourDistance,
   currentFromField,
   fieldFromCurrent,
   forecastMinimumLevel,
+  GAS_REFERENCES,
+  type GasReference,
   gasLitresFromLiquid,
+  type LevelCalibration,
   litresFromLevel,
   litresFromMass,
+  type MagnetSpec,
   quenchBoilOffLitresMax,
   rampTime,
   storedEnergyJ,
   transferEfficiency,
-  type GasReference,
-  type LevelCalibration,
-  type MagnetSpec,
 } from "@/lib/cryo";
-import { Calculator, parsePairs } from "@/components/cryo/calc-kit";
-import { durationText, figure } from "@/components/cryo/derive";
-import { EstimateNote } from "@/components/cryo/estimate-note";
-import { Caution } from "@/components/safety/caution";
-import { useCryostatList } from "@/components/cryo/use-cryo-data";
-import { OptionList, type Choice } from "@/components/ui/form";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 
 /** "20C_1atm" → "20 °C, 1 atm". */
-export const refLabel = (r: string | undefined) => (r ?? "").replace("C_", " °C, ").replace("1atm", "1 atm").replace("100kPa", "100 kPa");
+export const refLabel = (r: string | undefined) =>
+  (r ?? "").replace("C_", " °C, ").replace("1atm", "1 atm").replace("100kPa", "100 kPa");
 export const REFERENCE_OPTIONS = GAS_REFERENCES.map((r) => ({ value: r, label: refLabel(r) }));
 
 const CRYOGEN_FIELD = {
@@ -48,11 +49,25 @@ const TIME_UNITS = [
   { value: "h", label: "hours" },
 ];
 
-function PresetPicker({ label, value, onChange, options }: { label: string; value: string; onChange: (v: string) => void; options: Choice[] }) {
+function PresetPicker({
+  label,
+  value,
+  onChange,
+  options,
+}: {
+  label: string;
+  value: string;
+  onChange: (v: string) => void;
+  options: Choice[];
+}) {
   return (
     <label className="flex flex-wrap items-center gap-3 font-semibold">
       {label}
-      <select className="min-h-12 rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg text-ink focus:border-accent" value={value} onChange={(e) => onChange(e.target.value)}>
+      <select
+        className="min-h-12 rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg text-ink focus:border-accent"
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+      >
         <OptionList options={options} />
       </select>
     </label>
@@ -69,7 +84,15 @@ function calibrationText(c: LevelCalibration): string {
 
 export function HeliumSection() {
   const list = useCryostatList();
-  const withReservoir = (list.data ?? []).filter((c): c is { id: string; name: string; config: CryostatConfig & { reservoir: NonNullable<CryostatConfig["reservoir"]> } } => Boolean(c.config.reservoir));
+  const withReservoir = (list.data ?? []).filter(
+    (
+      c,
+    ): c is {
+      id: string;
+      name: string;
+      config: CryostatConfig & { reservoir: NonNullable<CryostatConfig["reservoir"]> };
+    } => Boolean(c.config.reservoir),
+  );
   const [preset, setPreset] = useState("");
   const chosen = withReservoir.find((c) => c.id === preset) ?? withReservoir[0];
   const calibration: LevelCalibration = chosen?.config.reservoir.calibration ?? CUSTOM_LEVEL;
@@ -82,12 +105,19 @@ export function HeliumSection() {
             label="Reservoir"
             value={chosen?.id ?? ""}
             onChange={setPreset}
-            options={withReservoir.map((c) => ({ value: c.id, label: `${c.name} (${figure(c.config.reservoir.capacityLitres)} L)` }))}
+            options={withReservoir.map((c) => ({
+              value: c.id,
+              label: `${c.name} (${figure(c.config.reservoir.capacityLitres)} L)`,
+            }))}
           />
         ) : (
-          <p className="text-base text-muted">No cryostats remembered on this tablet yet: a 1 L per % reservoir is assumed.</p>
+          <p className="text-base text-muted">
+            No cryostats remembered on this tablet yet: a 1 L per % reservoir is assumed.
+          </p>
         )}
-        <p className="text-base text-muted">Level calibration — {calibrationText(calibration)}; minimum {figure(minimumPercent)} %.</p>
+        <p className="text-base text-muted">
+          Level calibration — {calibrationText(calibration)}; minimum {figure(minimumPercent)} %.
+        </p>
       </div>
       <Calculator
         key={`level-${chosen?.id ?? "custom"}`}
@@ -120,7 +150,10 @@ export function HeliumSection() {
           const minL = litresFromLevel(n.min!, calibration);
           const f = forecastMinimumLevel(rate, minL, last.timeMs);
           return [
-            { label: "Boil-off", text: `${figure(rate.litresPerDay, 3)} ± ${figure(rate.standardErrorLitresPerDay, 2)} L/day` },
+            {
+              label: "Boil-off",
+              text: `${figure(rate.litresPerDay, 3)} ± ${figure(rate.standardErrorLitresPerDay, 2)} L/day`,
+            },
             { label: "Now (last reading)", text: `${figure(last.litres, 3)} L` },
             f.forecast
               ? {
@@ -149,7 +182,10 @@ export function HeliumSection() {
         compute={({ n, s }) => {
           const g = gasLitresFromLiquid(n.l!, s.ref as GasReference, s.cry as "helium" | "nitrogen");
           return [
-            { label: `Gas at ${refLabel(s.ref)}`, text: `${figure(g.gasLitres / 1000, 4)} m³ (${figure(g.gasLitres, 5)} L)` },
+            {
+              label: `Gas at ${refLabel(s.ref)}`,
+              text: `${figure(g.gasLitres / 1000, 4)} m³ (${figure(g.gasLitres, 5)} L)`,
+            },
             { label: "Expansion ratio", text: `1 : ${figure(g.expansionRatio, 4)}` },
           ];
         }}
@@ -163,18 +199,28 @@ export function HeliumSection() {
         compute={({ n }) => {
           const t = transferEfficiency(n.gained!, n.taken!);
           return [
-            { label: "Efficiency", text: `${figure(t.efficiency * 100, 3)} %`, tone: t.exceedsSupply ? "danger" : undefined },
-            { label: "Lost", text: t.exceedsSupply ? "More arrived than was taken: check both readings" : `${figure(t.lossLitres, 3)} L` },
+            {
+              label: "Efficiency",
+              text: `${figure(t.efficiency * 100, 3)} %`,
+              tone: t.exceedsSupply ? "danger" : undefined,
+            },
+            {
+              label: "Lost",
+              text: t.exceedsSupply
+                ? "More arrived than was taken: check both readings"
+                : `${figure(t.lossLitres, 3)} L`,
+            },
           ];
         }}
-        footer={<p className="text-base text-muted">Losses of 20–40 % are common practice for a transfer through a warm line.</p>}
+        footer={
+          <p className="text-base text-muted">
+            Losses of 20–40 % are common practice for a transfer through a warm line.
+          </p>
+        }
       />
       <Calculator
         title="Heat load → boil-off"
-        fields={[
-          { key: "w", label: "Heat load", unit: "W", initial: "0.1", match: /Heat/ },
-          CRYOGEN_FIELD,
-        ]}
+        fields={[{ key: "w", label: "Heat load", unit: "W", initial: "0.1", match: /Heat/ }, CRYOGEN_FIELD]}
         compute={({ n, s }) => {
           const b = boilOffFromHeatLoad(n.w!, s.cry as "helium" | "nitrogen");
           return [
@@ -182,7 +228,9 @@ export function HeliumSection() {
             { label: "Per day", text: `${figure(b.litresPerDay, 3)} L/day` },
           ];
         }}
-        footer={<p className="text-base text-muted">Q/(ρ·L) at the normal boiling point; 1 W ≈ 1.4 L/h of liquid helium.</p>}
+        footer={
+          <p className="text-base text-muted">Q/(ρ·L) at the normal boiling point; 1 W ≈ 1.4 L/h of liquid helium.</p>
+        }
       />
     </>
   );
@@ -206,16 +254,32 @@ export function MagnetSection() {
     { key: "k", label: "Coil constant", unit: "T/A", initial: String(m.coilConstantTPerA), match: /Coil constant/ },
     { key: "imax", label: "Maximum current", unit: "A", initial: String(m.maxCurrentA), match: /Maximum current/ },
   ];
-  const spec = (n: Record<string, number>): MagnetSpec => ({ coilConstantTPerA: n.k!, maxCurrentA: n.imax!, rampLimitTPerMin: n.rate! });
+  const spec = (n: Record<string, number>): MagnetSpec => ({
+    coilConstantTPerA: n.k!,
+    maxCurrentA: n.imax!,
+    rampLimitTPerMin: n.rate!,
+  });
   const caution = <EstimateNote topic="magnet" />;
   return (
     <>
       <div className="flex flex-col gap-2 lg:col-span-2">
-        <Caution topic="magnet" {...(chosen ? { cryostatId: chosen.id, cryostatName: chosen.name, makerRampLimitTPerMin: m.rampLimitTPerMin } : {})} />
+        <Caution
+          topic="magnet"
+          {...(chosen
+            ? { cryostatId: chosen.id, cryostatName: chosen.name, makerRampLimitTPerMin: m.rampLimitTPerMin }
+            : {})}
+        />
         {magnets.length > 0 ? (
-          <PresetPicker label="Magnet" value={key} onChange={setPreset} options={magnets.map((c) => ({ value: c.id, label: c.name }))} />
+          <PresetPicker
+            label="Magnet"
+            value={key}
+            onChange={setPreset}
+            options={magnets.map((c) => ({ value: c.id, label: c.name }))}
+          />
         ) : (
-          <p className="text-base text-muted">No cryostats remembered on this tablet yet: enter the magnet's figures.</p>
+          <p className="text-base text-muted">
+            No cryostats remembered on this tablet yet: enter the magnet's figures.
+          </p>
         )}
       </div>
       <Calculator
@@ -225,7 +289,13 @@ export function MagnetSection() {
           ...specFields,
           { key: "rate", label: "Ramp limit", unit: "T/min", initial: String(m.rampLimitTPerMin), match: /Ramp rate/ },
           { key: "i", label: "Current", unit: "A", initial: "22.2", match: /^Current/ },
-          { key: "b", label: "Target field", unit: "T", initial: String(Math.min(5, m.coilConstantTPerA * m.maxCurrentA)), match: /^Target|Field/ },
+          {
+            key: "b",
+            label: "Target field",
+            unit: "T",
+            initial: String(Math.min(5, m.coilConstantTPerA * m.maxCurrentA)),
+            match: /^Target|Field/,
+          },
         ]}
         compute={({ n }) => {
           const s = spec(n);
@@ -240,7 +310,10 @@ export function MagnetSection() {
           return [
             { label: "Field at the current", text: `${figure(fieldNow, 4)} T` },
             { label: "Current for the target", text: `${figure(target, 4)} A` },
-            { label: `Ramp ${figure(fieldNow, 3)} → ${figure(n.b!, 3)} T at the limit`, text: durationText(ramp.minutes) },
+            {
+              label: `Ramp ${figure(fieldNow, 3)} → ${figure(n.b!, 3)} T at the limit`,
+              text: durationText(ramp.minutes),
+            },
           ];
         }}
         footer={caution}
@@ -258,12 +331,18 @@ export function MagnetSection() {
           return [
             { label: "Stored energy ½LI²", text: `${figure(e / 1000, 4)} kJ` },
             { label: "Helium boiled, at most", text: `${figure(litres, 3)} L liquid` },
-            { label: "As gas at 20 °C, 1 atm", text: `${figure(gasLitresFromLiquid(litres, "20C_1atm").gasLitres / 1000, 3)} m³` },
+            {
+              label: "As gas at 20 °C, 1 atm",
+              text: `${figure(gasLitresFromLiquid(litres, "20C_1atm").gasLitres / 1000, 3)} m³`,
+            },
           ];
         }}
         footer={
           <>
-            <p className="text-base text-muted">Upper bound: all stored energy into latent heat. A real quench puts part of it into the coil and the dump resistor.</p>
+            <p className="text-base text-muted">
+              Upper bound: all stored energy into latent heat. A real quench puts part of it into the coil and the dump
+              resistor.
+            </p>
             {caution}
           </>
         }
@@ -277,11 +356,19 @@ export function MagnetSection() {
             key: "mom",
             label: "Dipole moment",
             unit: "A·m²",
-            initial: chosen?.config.magnet?.dipoleMomentAm2 !== undefined ? String(chosen.config.magnet.dipoleMomentAm2) : "",
+            initial:
+              chosen?.config.magnet?.dipoleMomentAm2 !== undefined ? String(chosen.config.magnet.dipoleMomentAm2) : "",
             optional: true,
             match: /Dipole/,
           },
-          { key: "bf", label: "…or field measured on the axis", unit: "mT", initial: "", optional: true, match: /^Field/ },
+          {
+            key: "bf",
+            label: "…or field measured on the axis",
+            unit: "mT",
+            initial: "",
+            optional: true,
+            match: /^Field/,
+          },
           { key: "d", label: "…at distance", unit: "m", initial: "", optional: true, match: /Distance/ },
           { key: "c", label: "Contour", unit: "mT", initial: "0.5", match: /Contour/ },
         ]}
@@ -292,7 +379,8 @@ export function MagnetSection() {
             : Number.isFinite(n.bf) && Number.isFinite(n.d)
               ? { fieldT: n.bf! / 1000, distanceM: n.d!, direction: "axis" as const }
               : null;
-          if (!source) return [{ label: "Contour distance", text: "Enter the dipole moment, or a field and its distance" }];
+          if (!source)
+            return [{ label: "Contour distance", text: "Enter the dipole moment, or a field and its distance" }];
           const est = contourDistance(source, contourT);
           return [
             { label: `${figure(n.c!)} mT line on the axis`, text: `≈ ${figure(est.axisDistanceM, 3)} m` },
@@ -302,7 +390,9 @@ export function MagnetSection() {
         }}
         footer={
           <>
-            <p className="text-base text-muted">0.5 mT: IEC 60601-2-33 up to its 3rd edition (the 4th uses 0.9 mT); the facility sets its own line.</p>
+            <p className="text-base text-muted">
+              0.5 mT: IEC 60601-2-33 up to its 3rd edition (the 4th uses 0.9 mT); the facility sets its own line.
+            </p>
             <EstimateNote topic="fringe" />
           </>
         }

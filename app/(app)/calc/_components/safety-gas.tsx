@@ -1,11 +1,18 @@
 "use client";
+import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS, type ResultRow } from "@/components/cryo/calc-kit";
+import { durationText, figure } from "@/components/cryo/derive";
+import { EstimateNote } from "@/components/cryo/estimate-note";
+import { Caution } from "@/components/safety/caution";
 // Oxygen deficiency estimates (room B-014 defaults: 220 m³, 4 air changes per hour) and gas
 // accounting (tank amounts, mixture loss between warmup and cooldown).
 import {
   classifyOxygen,
+  type GasReference,
   gasAmount,
   gasLitresFromLiquid,
   heliumCompressibility20C,
+  MOLAR_VOLUME_REFERENCES,
+  type MolarVolumeReference,
   mixtureLoss,
   oxygenAfterDisplacement,
   oxygenAfterMixedRelease,
@@ -14,20 +21,18 @@ import {
   steadyStateOxygen,
   timeToOxygenFraction,
   ventilationFromAirChanges,
-  MOLAR_VOLUME_REFERENCES,
-  type GasReference,
-  type MolarVolumeReference,
 } from "@/lib/cryo";
-import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS, type ResultRow } from "@/components/cryo/calc-kit";
-import { durationText, figure } from "@/components/cryo/derive";
-import { EstimateNote } from "@/components/cryo/estimate-note";
-import { Caution } from "@/components/safety/caution";
 import { REFERENCE_OPTIONS, refLabel } from "./helium-magnet";
 
 /** The demo room's free volume and ventilation (room B-014); the facility's own figures replace them. */
 export const ROOM_DEFAULTS = { volumeM3: 220, airChangesPerHour: 4 };
 
-const STATUS_TEXT = { normal: "normal", alarm: "below the alarm point", evacuate: "leave the room", enriched: "oxygen-enriched" } as const;
+const STATUS_TEXT = {
+  normal: "normal",
+  alarm: "below the alarm point",
+  evacuate: "leave the room",
+  enriched: "oxygen-enriched",
+} as const;
 
 function oxygenRow(label: string, fraction: number): ResultRow {
   const c = classifyOxygen(fraction);
@@ -40,7 +45,10 @@ function oxygenRow(label: string, fraction: number): ResultRow {
 
 const caution = <EstimateNote topic="oxygen" />;
 const thresholds = (
-  <p className="text-base text-muted">Alarm 19.5 % (OSHA 29 CFR 1910.146: oxygen-deficient below it), leave at 18 % (common practice) — the facility sets its own points.</p>
+  <p className="text-base text-muted">
+    Alarm 19.5 % (OSHA 29 CFR 1910.146: oxygen-deficient below it), leave at 18 % (common practice) — the facility sets
+    its own points.
+  </p>
 );
 
 export function OxygenSection() {
@@ -51,25 +59,55 @@ export function OxygenSection() {
         title="Sudden release"
         intro="A volume of gas released at once into the room."
         fields={[
-          { key: "v", label: "Room free volume", unit: "m³", initial: String(ROOM_DEFAULTS.volumeM3), match: /Room volume/ },
+          {
+            key: "v",
+            label: "Room free volume",
+            unit: "m³",
+            initial: String(ROOM_DEFAULTS.volumeM3),
+            match: /Room volume/,
+          },
           { key: "g", label: "Gas released (room conditions)", unit: "m³", initial: "20", match: /Released/ },
         ]}
         compute={({ n }) => [
           oxygenRow("Mixed, pushing air out", oxygenAfterMixedRelease({ roomVolumeM3: n.v!, gasVolumeM3: n.g! })),
-          oxygenRow("Displacing air, no mixing (worst case)", oxygenAfterDisplacement({ roomVolumeM3: n.v!, gasVolumeM3: n.g! })),
+          oxygenRow(
+            "Displacing air, no mixing (worst case)",
+            oxygenAfterDisplacement({ roomVolumeM3: n.v!, gasVolumeM3: n.g! }),
+          ),
         ]}
-        footer={<>{thresholds}{caution}</>}
+        footer={
+          <>
+            {thresholds}
+            {caution}
+          </>
+        }
       />
       <Calculator
         title="Continuous release with ventilation"
         fields={[
-          { key: "v", label: "Room free volume", unit: "m³", initial: String(ROOM_DEFAULTS.volumeM3), match: /Room volume/ },
-          { key: "ach", label: "Air changes", unit: "per hour", initial: String(ROOM_DEFAULTS.airChangesPerHour), match: /Air changes|Ventilation/ },
+          {
+            key: "v",
+            label: "Room free volume",
+            unit: "m³",
+            initial: String(ROOM_DEFAULTS.volumeM3),
+            match: /Room volume/,
+          },
+          {
+            key: "ach",
+            label: "Air changes",
+            unit: "per hour",
+            initial: String(ROOM_DEFAULTS.airChangesPerHour),
+            match: /Air changes|Ventilation/,
+          },
           { key: "r", label: "Release rate (gas)", unit: "m³/min", initial: "1", match: /Release rate/ },
           { key: "t", label: "After", unit: "min", initial: "10", match: /Time/ },
         ]}
         compute={({ n }) => {
-          const release = { roomVolumeM3: n.v!, releaseM3PerS: n.r! / 60, ventilationM3PerS: ventilationFromAirChanges(n.v!, n.ach!) };
+          const release = {
+            roomVolumeM3: n.v!,
+            releaseM3PerS: n.r! / 60,
+            ventilationM3PerS: ventilationFromAirChanges(n.v!, n.ach!),
+          };
           const to = timeToOxygenFraction(release, 0.195);
           return [
             oxygenRow(`After ${figure(n.t!)} min`, oxygenDuringRelease(release, n.t! * 60)),
@@ -79,27 +117,47 @@ export function OxygenSection() {
               : { label: "Reaches 19.5 %", text: "never at this release and ventilation", tone: "ok" },
           ];
         }}
-        footer={<>{thresholds}{caution}</>}
+        footer={
+          <>
+            {thresholds}
+            {caution}
+          </>
+        }
       />
       <Calculator
         title="Quench or loss of vacuum: whole inventory"
         intro="All liquid of a cryostat boils into the room (no recovery line, no vent to outside)."
         fields={[
           { key: "l", label: "Liquid helium in the cryostat", unit: "L", initial: "90", match: /Liquid/ },
-          { key: "v", label: "Room free volume", unit: "m³", initial: String(ROOM_DEFAULTS.volumeM3), match: /Room volume/ },
+          {
+            key: "v",
+            label: "Room free volume",
+            unit: "m³",
+            initial: String(ROOM_DEFAULTS.volumeM3),
+            match: /Room volume/,
+          },
           { kind: "select", key: "ref", label: "Gas at", initial: "20C_1atm", options: REFERENCE_OPTIONS },
         ]}
         compute={({ n, s }) => {
           const gas = quenchGasVolume(n.l!, s.ref as GasReference);
           return [
             { label: "Helium gas", text: `${figure(gas.gasM3, 3)} m³ at ${refLabel(s.ref)}` },
-            oxygenRow("Mixed, pushing air out", oxygenAfterMixedRelease({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 })),
-            oxygenRow("Displacing air (worst case)", oxygenAfterDisplacement({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 })),
+            oxygenRow(
+              "Mixed, pushing air out",
+              oxygenAfterMixedRelease({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 }),
+            ),
+            oxygenRow(
+              "Displacing air (worst case)",
+              oxygenAfterDisplacement({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 }),
+            ),
           ];
         }}
         footer={
           <>
-            <p className="text-base text-muted">Helium rises and collects under the ceiling; a low room or a pit holds cold gas for a while. {`Liquid → gas uses the ${figure(gasLitresFromLiquid(1, "20C_1atm").expansionRatio, 4)}:1 ratio at 20 °C.`}</p>
+            <p className="text-base text-muted">
+              Helium rises and collects under the ceiling; a low room or a pit holds cold gas for a while.{" "}
+              {`Liquid → gas uses the ${figure(gasLitresFromLiquid(1, "20C_1atm").expansionRatio, 4)}:1 ratio at 20 °C.`}
+            </p>
             {caution}
           </>
         }
@@ -121,7 +179,13 @@ export function GasSection() {
           { key: "p", label: "Pressure (absolute)", initial: "200", match: /^Pressure/ },
           { key: "v", label: "Volume", unit: "L", initial: "50", match: /volume/i },
           { key: "t", label: "Temperature", unit: "°C", initial: "20", match: /^Temperature/ },
-          { key: "z", label: "Compressibility Z (empty: helium table at 20 °C, else 1)", initial: "", optional: true, match: /Compressibility/ },
+          {
+            key: "z",
+            label: "Compressibility Z (empty: helium table at 20 °C, else 1)",
+            initial: "",
+            optional: true,
+            match: /Compressibility/,
+          },
           { kind: "select", key: "ref", label: "Litres at", initial: "0C_1atm", options: MOLAR_OPTIONS },
         ]}
         compute={({ n, s }) => {
@@ -137,14 +201,25 @@ export function GasSection() {
               zNote = "ideal gas";
             }
           }
-          const g = gasAmount({ pressurePa: pa, volumeLitres: n.v!, temperatureK: n.t! + 273.15, compressibilityZ: z }, s.ref as MolarVolumeReference);
+          const g = gasAmount(
+            { pressurePa: pa, volumeLitres: n.v!, temperatureK: n.t! + 273.15, compressibilityZ: z },
+            s.ref as MolarVolumeReference,
+          );
           return [
             { label: "Amount", text: `${figure(g.mol, 4)} mol` },
             { label: `Gas at ${refLabel(s.ref)}`, text: `${figure(g.litresAtReference, 4)} L` },
-            { label: "Z used", text: `${figure(z, 4)} (${zNote})`, tone: zNote === "ideal gas" && pa > 5e5 ? "warn" : undefined },
+            {
+              label: "Z used",
+              text: `${figure(z, 4)} (${zNote})`,
+              tone: zNote === "ideal gas" && pa > 5e5 ? "warn" : undefined,
+            },
           ];
         }}
-        footer={<p className="text-base text-muted">High-pressure cylinders: the usual cylinder cautions and the supplier&apos;s instructions apply.</p>}
+        footer={
+          <p className="text-base text-muted">
+            High-pressure cylinders: the usual cylinder cautions and the supplier&apos;s instructions apply.
+          </p>
+        }
       />
       <Calculator
         title="Mixture loss (warmup → next cooldown)"
@@ -157,14 +232,27 @@ export function GasSection() {
           { key: "t2", label: "Temperature after", unit: "K", initial: "295" },
         ]}
         compute={({ n }) => {
-          const loss = mixtureLoss(n.v!, { pressurePa: n.p1! * 100, temperatureK: n.t1! }, { pressurePa: n.p2! * 100, temperatureK: n.t2! });
+          const loss = mixtureLoss(
+            n.v!,
+            { pressurePa: n.p1! * 100, temperatureK: n.t1! },
+            { pressurePa: n.p2! * 100, temperatureK: n.t2! },
+          );
           return [
-            { label: "Lost", text: `${figure(loss.litresLost, 3)} L at 0 °C, 1 atm`, tone: loss.litresLost < 0 ? "warn" : undefined },
+            {
+              label: "Lost",
+              text: `${figure(loss.litresLost, 3)} L at 0 °C, 1 atm`,
+              tone: loss.litresLost < 0 ? "warn" : undefined,
+            },
             { label: "Share of the mixture", text: `${figure(loss.percentLost, 3)} %` },
-            { label: "Before / after", text: `${figure(loss.before.litresAtReference, 4)} / ${figure(loss.after.litresAtReference, 4)} L` },
+            {
+              label: "Before / after",
+              text: `${figure(loss.before.litresAtReference, 4)} / ${figure(loss.after.litresAtReference, 4)} L`,
+            },
           ];
         }}
-        footer={<p className="text-base text-muted">A negative loss means the tank gained gas: look for air leaking in.</p>}
+        footer={
+          <p className="text-base text-muted">A negative loss means the tank gained gas: look for air leaking in.</p>
+        }
       />
     </>
   );

@@ -2,10 +2,13 @@
 // Thermometry calculators: ITS-90 helium vapour pressure, IEC 60751 platinum sensors, and a
 // pasted sensor calibration table.
 import Link from "next/link";
+import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS } from "@/components/cryo/calc-kit";
+import { COLUMN_ORDER_OPTIONS, SENSOR_KIND_LABEL } from "@/components/cryo/calibration-schema";
+import { figure, temperatureText } from "@/components/cryo/derive";
 import {
+  convertReading,
   HE3_RANGE,
   HE4_RANGE,
-  convertReading,
   he3PressureFromTemperature,
   he3TemperatureFromPressure,
   he4PressureFromTemperature,
@@ -16,9 +19,6 @@ import {
   ptToleranceC,
   type SensorKind,
 } from "@/lib/cryo";
-import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS } from "@/components/cryo/calc-kit";
-import { COLUMN_ORDER_OPTIONS, SENSOR_KIND_LABEL } from "@/components/cryo/calibration-schema";
-import { figure, temperatureText } from "@/components/cryo/derive";
 
 const ISOTOPES = [
   { value: "he4", label: "⁴He (1.25–5.0 K)" },
@@ -36,7 +36,12 @@ export function Its90Section() {
     <>
       <Calculator
         title="Vapour pressure → temperature"
-        intro={<>ITS-90 helium vapour-pressure scale (Metrologia 27, 3 (1990)). Saturated vapour only: a pot or bath, read at the liquid.</>}
+        intro={
+          <>
+            ITS-90 helium vapour-pressure scale (Metrologia 27, 3 (1990)). Saturated vapour only: a pot or bath, read at
+            the liquid.
+          </>
+        }
         fields={[
           { kind: "select", key: "iso", label: "Isotope", initial: "he4", options: ISOTOPES },
           { kind: "select", key: "unit", label: "Pressure unit", initial: "mbar", options: PRESSURE_OPTIONS },
@@ -60,8 +65,9 @@ export function Its90Section() {
         }}
         footer={
           <p className="text-base text-muted">
-            Ranges: ⁴He {HE4_RANGE.temperatureMinK}–{HE4_RANGE.temperatureMaxK} K ({figure(HE4_RANGE.pressureMinPa, 4)}–{figure(HE4_RANGE.pressureMaxPa, 4)} Pa);
-            ³He {HE3_RANGE.temperatureMinK}–{HE3_RANGE.temperatureMaxK} K. Outside them the scale defines nothing, and nothing is extrapolated.
+            Ranges: ⁴He {HE4_RANGE.temperatureMinK}–{HE4_RANGE.temperatureMaxK} K ({figure(HE4_RANGE.pressureMinPa, 4)}–
+            {figure(HE4_RANGE.pressureMaxPa, 4)} Pa); ³He {HE3_RANGE.temperatureMinK}–{HE3_RANGE.temperatureMaxK} K.
+            Outside them the scale defines nothing, and nothing is extrapolated.
           </p>
         }
       />
@@ -76,7 +82,10 @@ const R0_OPTIONS = [
 
 const R0_FIELD = { kind: "select", key: "r0", label: "Sensor", initial: "100", options: R0_OPTIONS } as const;
 /** IEC 60751 class A and B tolerances at a temperature (°C). */
-const toleranceRow = (c: number) => ({ label: "Class A / B tolerance", text: `±${figure(ptToleranceC(c, "A"), 3)} / ±${figure(ptToleranceC(c, "B"), 3)} °C` });
+const toleranceRow = (c: number) => ({
+  label: "Class A / B tolerance",
+  text: `±${figure(ptToleranceC(c, "A"), 3)} / ±${figure(ptToleranceC(c, "B"), 3)} °C`,
+});
 
 export function PlatinumSection() {
   return (
@@ -112,7 +121,9 @@ export function PlatinumSection() {
   );
 }
 
-export const SENSOR_KINDS = (["ruthenium-oxide", "germanium", "carbon", "silicon-diode"] as const satisfies readonly SensorKind[]).map((k) => ({ value: k, label: SENSOR_KIND_LABEL[k] }));
+export const SENSOR_KINDS = (
+  ["ruthenium-oxide", "germanium", "carbon", "silicon-diode"] as const satisfies readonly SensorKind[]
+).map((k) => ({ value: k, label: SENSOR_KIND_LABEL[k] }));
 
 const EXAMPLE_TABLE = `# T (K)   R (Ω) — an example ruthenium-oxide curve
 0.010  21500
@@ -130,8 +141,8 @@ export function CalibrationSection() {
       wide
       intro={
         <>
-          Paste a two-column table (CSV or spaces; # comments and a header line allowed). Monotone cubic interpolation, in log–log for
-          resistors; nothing outside the table. To keep a table for a thermometer channel, use{" "}
+          Paste a two-column table (CSV or spaces; # comments and a header line allowed). Monotone cubic interpolation,
+          in log–log for resistors; nothing outside the table. To keep a table for a thermometer channel, use{" "}
           <Link href="/calibrations" className="inline-flex min-h-12 items-center font-semibold text-accent underline">
             Sensor calibrations
           </Link>
@@ -141,7 +152,14 @@ export function CalibrationSection() {
       fields={[
         { kind: "select", key: "kind", label: "Sensor kind", initial: "ruthenium-oxide", options: SENSOR_KINDS },
         { kind: "select", key: "cols", label: "Columns", initial: "auto", options: COLUMN_ORDER_OPTIONS },
-        { kind: "text", key: "table", label: "Table", initial: EXAMPLE_TABLE, rows: 8, match: /^Line|calibration table needs/ },
+        {
+          kind: "text",
+          key: "table",
+          label: "Table",
+          initial: EXAMPLE_TABLE,
+          rows: 8,
+          match: /^Line|calibration table needs/,
+        },
         { key: "reading", label: "Reading (Ω, or V for a diode)", initial: "3500", match: /^Reading/ },
       ]}
       compute={({ n, s }) => {

@@ -9,7 +9,9 @@ export default function CryostatPage() {
   return (
     <>
       <CryostatScreen />
-      <div className="mt-6"><CryostatCharts /></div>
+      <div className="mt-6">
+        <CryostatCharts />
+      </div>
     </>
   );
 }

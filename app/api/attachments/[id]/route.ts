@@ -19,7 +19,8 @@ export async function GET(_req: Request, ctx: { params: Promise<{ id: string }> 
     const row = await getAttachment(await getDb(), { id: id.data });
     if (!row) throw new AppError("not_found", "attachment", "No such file.");
     const bytes = await fileStore(env().RIMELOG_STORAGE_DIR).get(row.storageKey);
-    if (!bytes) throw new AppError("not_found", "attachment", "The file is missing from storage; restore it from a backup.");
+    if (!bytes)
+      throw new AppError("not_found", "attachment", "The file is missing from storage; restore it from a backup.");
     const ascii = row.fileName.replace(/[^\x20-\x7e]/g, "_").replace(/["\\]/g, "_");
     return new Response(bytes as unknown as BodyInit, {
       headers: {

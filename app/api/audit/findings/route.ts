@@ -23,7 +23,8 @@ export async function POST(req: Request) {
     const signature = parseEntry(body.data.signature);
     if (!finding.ok) throw new AppError("bad_request", "audit", "The finding is not valid.", finding.problems);
     if (!signature.ok) throw new AppError("bad_request", "audit", "The signature is not valid.", signature.problems);
-    if (finding.entry.kind !== "audit.finding") throw new AppError("bad_request", "audit", "The first entry must be an audit finding.");
+    if (finding.entry.kind !== "audit.finding")
+      throw new AppError("bad_request", "audit", "The first entry must be an audit finding.");
     const sp = signature.entry.payload as { signedEntryId: string; meaning: string };
     if (signature.entry.kind !== "signature" || sp.meaning !== "audited" || sp.signedEntryId !== finding.entry.id) {
       throw new AppError("bad_request", "audit", "The signature must be an 'audited' signature on this finding.");

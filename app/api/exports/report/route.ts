@@ -21,11 +21,24 @@ export async function GET(req: Request) {
     const db = await getDb();
     const to = f.to ?? new Date().toISOString();
     const from = f.from ?? new Date(Date.parse(to) - 30 * 86_400_000).toISOString();
-    const items = await auditTable(db, { ...f, from, to, kinds: f.kinds ?? ["transfer", "quench", "incident"], sort: "date", dir: "asc", keyDir: keyDir() });
+    const items = await auditTable(db, {
+      ...f,
+      from,
+      to,
+      kinds: f.kinds ?? ["transfer", "quench", "incident"],
+      sort: "date",
+      dir: "asc",
+      keyDir: keyDir(),
+    });
     const chains = [];
     for (const c of await listChains(db)) {
       const r = await checkChain(db, { chain: c.chain, keyDir: keyDir() });
-      chains.push({ chain: c.chain, ok: r.ok, count: r.count, message: r.ok ? `Signed checkpoints checked: ${r.checkpointsChecked}.` : r.message });
+      chains.push({
+        chain: c.chain,
+        ok: r.ok,
+        count: r.count,
+        message: r.ok ? `Signed checkpoints checked: ${r.checkpointsChecked}.` : r.message,
+      });
     }
     const rules = await getRules(db);
     const pdf = await auditReportPdf({

@@ -36,6 +36,8 @@ export async function POST(req: Request) {
     const secrets = await signingSecrets(db, { userId: user.id });
     if (!secrets) throw new AppError("unauthorized", "session", "Sign in first.");
     const { password: _pw, ...subject } = body.data;
-    return json({ proof: hmacHex(passwordProofKey(secrets.passwordHash), signingMessage({ ...subject, signerId: user.id })) });
+    return json({
+      proof: hmacHex(passwordProofKey(secrets.passwordHash), signingMessage({ ...subject, signerId: user.id })),
+    });
   });
 }

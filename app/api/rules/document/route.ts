@@ -24,18 +24,37 @@ export async function POST(req: Request) {
     const bytes = await readUploadBytes(req, {
       surface: "rules_document",
       maxBytes: RULES_DOCUMENT_MAX_BYTES,
-      tooLarge: (declared) => `"${fileName}" is ${(declared / 1048576).toFixed(1)} MB; the limit is ${RULES_DOCUMENT_MAX_BYTES / 1048576} MB. Upload a smaller PDF.`,
+      tooLarge: (declared) =>
+        `"${fileName}" is ${(declared / 1048576).toFixed(1)} MB; the limit is ${RULES_DOCUMENT_MAX_BYTES / 1048576} MB. Upload a smaller PDF.`,
     });
     const check = checkRulesDocument(bytes, fileName);
-    if (!check.ok) throw new AppError(check.status === 413 ? "too_large" : check.status === 415 ? "unsupported" : "bad_request", "rules_document", check.message);
+    if (!check.ok)
+      throw new AppError(
+        check.status === 413 ? "too_large" : check.status === 415 ? "unsupported" : "bad_request",
+        "rules_document",
+        check.message,
+      );
     const db = await getDb();
     const current = await requireRules(db);
     const sha256 = createHash("sha256").update(bytes).digest("hex");
     const storageKey = newStorageKey();
     await fileStore(env().RIMELOG_STORAGE_DIR).put(storageKey, bytes);
-    const { row } = await saveAttachment(db, { id: randomUUID(), fileName: cleanFileName(fileName, "pdf"), mime: "application/pdf", bytes: bytes.length, sha256, storageKey, uploadedBy: user.id });
+    const { row } = await saveAttachment(db, {
+      id: randomUUID(),
+      fileName: cleanFileName(fileName, "pdf"),
+      mime: "application/pdf",
+      bytes: bytes.length,
+      sha256,
+      storageKey,
+      uploadedBy: user.id,
+    });
     const reason = uploadHeader(req, "x-rimelog-reason").trim() || `New rules document "${row.fileName}" uploaded.`;
-    const rules = await changeRules(db, user, { values: current.values, reason, expectedVersion: current.version, documentAttachmentId: row.id });
+    const rules = await changeRules(db, user, {
+      values: current.values,
+      reason,
+      expectedVersion: current.version,
+      documentAttachmentId: row.id,
+    });
     return json({ rules }, 201);
   });
 }
@@ -45,10 +64,16 @@ export async function GET() {
     await requireUser();
     const db = await getDb();
     const rules = await requireRules(db);
-    if (!rules.document) throw new AppError("not_found", "rules_document", "The facility admin has not uploaded the rules document yet.");
+    if (!rules.document)
+      throw new AppError("not_found", "rules_document", "The facility admin has not uploaded the rules document yet.");
     const row = await getAttachment(db, { id: rules.document.id });
     const bytes = row ? await fileStore(env().RIMELOG_STORAGE_DIR).get(row.storageKey) : null;
-    if (!row || !bytes) throw new AppError("not_found", "rules_document", "The rules document is missing from storage; ask the facility admin to upload it again.");
+    if (!row || !bytes)
+      throw new AppError(
+        "not_found",
+        "rules_document",
+        "The rules document is missing from storage; ask the facility admin to upload it again.",
+      );
     const ascii = row.fileName.replace(/[^\x20-\x7e]/g, "_").replace(/["\\]/g, "_");
     return new Response(bytes as unknown as BodyInit, {
       headers: {

@@ -6,11 +6,11 @@ import { listCryostats } from "@/db/queries/cryostats";
 import { getRules } from "@/db/queries/rules";
 import { listPublicUsers } from "@/db/queries/users";
 import { procedureTemplates } from "@/db/schema";
-import type { ReferenceData } from "@/lib/sync/protocol";
 import { canonicalJson, sha256Hex } from "@/lib/sync/hash";
+import type { ReferenceData } from "@/lib/sync/protocol";
 
 type Row = { id: string } & Record<string, unknown>;
-const plain = <T,>(rows: T[]): Row[] => JSON.parse(JSON.stringify(rows)) as Row[];
+const plain = <T>(rows: T[]): Row[] => JSON.parse(JSON.stringify(rows)) as Row[];
 
 export async function loadReference(db: Db): Promise<ReferenceData> {
   const [cryostats, templates, rules, users] = await Promise.all([

@@ -2,8 +2,8 @@
 // entries and bytes (413), each entry validated and role-checked, the batch applied in one
 // transaction, idempotent by entry id. Answers accepted (id, seq, hash) and rejected (id, code, message).
 import { getDb } from "@/db";
-import { requireUser } from "@/lib/auth/require";
 import { ensureServerTick, kickServerTick } from "@/lib/audit/server-tick";
+import { requireUser } from "@/lib/auth/require";
 import { handle, json, readJson } from "@/lib/http/respond";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
 import { applyPush } from "@/lib/sync/server";
@@ -24,7 +24,10 @@ export async function POST(req: Request) {
     if (reply.accepted.length) kickServerTick();
     const res = json(reply);
     // Where the server's time went (Server-Timing, read by bench/sync and the browser's devtools).
-    res.headers.set("Server-Timing", `auth;dur=${(t1 - t0).toFixed(1)}, read;dur=${(t2 - t1).toFixed(1)}, apply;dur=${(t3 - t2).toFixed(1)}`);
+    res.headers.set(
+      "Server-Timing",
+      `auth;dur=${(t1 - t0).toFixed(1)}, read;dur=${(t2 - t1).toFixed(1)}, apply;dur=${(t3 - t2).toFixed(1)}`,
+    );
     return res;
   });
 }

@@ -9,7 +9,10 @@ import { formatIssues } from "@/lib/schemas/entry";
 export const dynamic = "force-dynamic";
 
 const body = z
-  .object({ role: z.enum(["technician", "researcher", "safety_officer", "facility_admin"]).optional(), active: z.boolean().optional() })
+  .object({
+    role: z.enum(["technician", "researcher", "safety_officer", "facility_admin"]).optional(),
+    active: z.boolean().optional(),
+  })
   .refine((b) => b.role !== undefined || b.active !== undefined, "Say what to change: role or active.");
 
 const REASONS = {

@@ -8,7 +8,10 @@ import { handle, json } from "@/lib/http/respond";
 
 export const dynamic = "force-dynamic";
 
-const query = z.object({ cursor: z.coerce.number().int().positive().optional(), limit: z.coerce.number().int().min(1).max(100).default(30) });
+const query = z.object({
+  cursor: z.coerce.number().int().positive().optional(),
+  limit: z.coerce.number().int().min(1).max(100).default(30),
+});
 
 export async function GET(req: Request, ctx: { params: Promise<{ id: string }> }) {
   return handle(async () => {
