@@ -18,12 +18,12 @@ import { openDb } from "@/db/client";
 import { toColumns } from "@/db/queries/entries";
 import { entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie } from "@/lib/local/db";
 import { buildEntry, confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
+import type { SessionUser } from "@/lib/schemas/user";
 import { syncOnce, type Transport } from "@/lib/sync/client";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
-import { applyPush } from "@/lib/sync/server";
+import { applyPush } from "@/server/sync/apply";
 
 const N = Number(process.env.BENCH_N) || 10_000;
 const tomasz: SessionUser = {

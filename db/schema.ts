@@ -14,12 +14,12 @@ import {
   uniqueIndex,
   uuid,
 } from "drizzle-orm/pg-core";
-import type { CryostatConfig } from "@/lib/schemas/cryostat";
+import type { CryostatConfig, CryostatKind } from "@/lib/schemas/cryostat";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import type { TemplateStep } from "@/lib/schemas/template";
+import type { Role } from "@/lib/schemas/user";
 
-export const ROLES = ["technician", "researcher", "safety_officer", "facility_admin"] as const;
-export type Role = (typeof ROLES)[number];
+export { ROLES, type Role } from "@/lib/schemas/user";
 
 export const users = pgTable("users", {
   id: text("id").primaryKey(),
@@ -35,8 +35,7 @@ export const users = pgTable("users", {
 });
 export type User = typeof users.$inferSelect;
 
-export const CRYOSTAT_KINDS = ["dry_dilution", "wet_bath", "test_dewar"] as const;
-export type CryostatKind = (typeof CRYOSTAT_KINDS)[number];
+export { CRYOSTAT_KINDS, type CryostatKind } from "@/lib/schemas/cryostat";
 
 export const cryostats = pgTable("cryostats", {
   id: text("id").primaryKey(),

@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // `npm test`: the one command that checks everything on a fresh machine, in order, stopping at
 // the first failure. Installs dependencies when node_modules is missing or older than the lock
-// file, then: type-check, import cycles, unit + integration tests, production build, browser tests.
+// file, then: type-check, lint and format, import direction and cycles, unit + integration tests, production build, browser tests.
 // Ends with the line "N passed, N failed" (tests counted from both vitest runs; a stage that fails
 // without running tests counts as one failure) and a non-zero exit code on any failure.
 // Plain Node ESM with built-ins only: it must run before `npm ci`.
@@ -129,7 +129,8 @@ mkdirSync(RESULTS_DIR, { recursive: true });
 const vitestReporters = (file) => ["--reporter=default", "--reporter=json", `--outputFile.json=${file}`];
 
 await stage("type-check (tsc --noEmit)", bin("tsc"), ["--noEmit"]);
-await stage("import cycles (madge)", npm, ["run", "--silent", "cycles"]);
+await stage("lint + format (biome check)", bin("biome"), ["check", "."]);
+await stage("import direction and cycles (dependency-cruiser)", npm, ["run", "--silent", "layers"]);
 const unitReport = join(RESULTS_DIR, "unit.json");
 await stage("unit + integration tests (vitest)", bin("vitest"), ["run", ...vitestReporters(unitReport)], {
   report: unitReport,

@@ -1,4 +1,4 @@
-import type { Role } from "@/db/schema";
+import type { Role } from "@/lib/schemas/user";
 
 declare module "next-auth" {
   interface User {

@@ -7,8 +7,8 @@ import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { OptionList, TableHead } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
-import type { AdminUser } from "@/db/queries/users";
 import { ROLE_LABEL } from "@/lib/auth/permissions";
+import type { AdminUser } from "@/lib/schemas/user";
 import { type NewUser, newUserSchema } from "@/lib/schemas/user";
 
 const ROLE_OPTIONS = Object.entries(ROLE_LABEL).map(([value, label]) => ({ value, label }));

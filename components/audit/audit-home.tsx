@@ -7,9 +7,9 @@ import { Button, buttonClass } from "@/components/ui/button";
 import { type Choice, OptionList, TableHead } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { getJson, useJson } from "@/components/ui/use-json";
-import type { AuditItem } from "@/db/queries/audit";
-import type { ChainReport } from "@/db/queries/chain";
+import type { ChainReport } from "@/lib/audit/chain";
 import { FLAG_CODES, FLAG_LABEL } from "@/lib/audit/flags";
+import type { AuditItem } from "@/lib/audit/types";
 import { formatDate, kindLabel, trim } from "@/lib/format";
 import { FlagTags } from "./flag-tags";
 

@@ -12,11 +12,11 @@ import { type Confirmation, SignDialog } from "@/components/signature/sign-dialo
 import { Button, buttonClass } from "@/components/ui/button";
 import { ChoiceButtons } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
-import type { AuditItem, SignatureView } from "@/db/queries/audit";
 import type { QuenchFigures, TransferFigures } from "@/lib/audit/figures";
-import type { SessionUser } from "@/lib/auth/session-user";
+import type { AuditItem, SignatureView } from "@/lib/audit/types";
 import { formatDate, kindLabel, trim } from "@/lib/format";
 import type { EntryInput } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 import { signatureEntry, signingSubject } from "@/lib/signing/sign";
 import { FlagTags } from "./flag-tags";
 

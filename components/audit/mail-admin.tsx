@@ -3,8 +3,8 @@
 // went out, and its text. With the local fake transport this is where the messages are read.
 import { useEffect, useState } from "react";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
-import type { MailRow } from "@/db/queries/mail";
 import { formatDate } from "@/lib/format";
+import type { MailRow } from "@/lib/mail/messages";
 
 export function MailAdmin() {
   const [data, setData] = useState<{

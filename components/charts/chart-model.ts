@@ -2,7 +2,6 @@
 // series has no point), the boil-off fit since the last fill and its forecast to the minimum level.
 
 import { sinceLastFill } from "@/components/cryo/derive";
-import type { CryostatSeries } from "@/db/queries/series";
 import {
   type BoilOffRate,
   boilOffRate,
@@ -11,6 +10,7 @@ import {
   type MinimumLevelForecast,
 } from "@/lib/cryo";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
+import type { CryostatSeries } from "@/lib/series";
 
 export type Column = (number | null)[];
 

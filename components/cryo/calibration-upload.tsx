@@ -17,7 +17,7 @@ import {
   MAX_CALIBRATION_BYTES,
   SENSOR_KIND_LABEL,
   SENSOR_KIND_VALUES,
-} from "./calibration-schema";
+} from "@/lib/schemas/calibration";
 import { figure, readNumber, temperatureText } from "./derive";
 import { refreshCryoData, useCalibrations, useCryostatList } from "./use-cryo-data";
 

@@ -4,9 +4,9 @@
 // localStorage so the reading forms keep their derived values with no network. The last good copy
 // is shown at once; a fetch refreshes it when the server answers.
 import { useEffect, useState } from "react";
-import type { CalibrationRecord } from "@/db/queries/calibrations";
-import type { CryostatSeries } from "@/db/queries/series";
 import { useCryostats } from "@/lib/local/hooks";
+import type { CalibrationRecord } from "@/lib/schemas/calibration";
+import type { CryostatSeries } from "@/lib/series";
 
 export type { CalibrationRecord, CryostatSeries };
 

@@ -5,10 +5,9 @@ import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { FieldGroup, INPUT_CLASS, ProblemNotice, FieldRow as Row } from "@/components/ui/form";
 import { Loading, Notice, Panel } from "@/components/ui/panel";
-import type { RulesInForce } from "@/db/queries/rules";
 import { formatDate } from "@/lib/format";
 import { RULES_DOCUMENT_MAX_BYTES } from "@/lib/safety/rules-document";
-import type { FacilityRulesValues } from "@/lib/schemas/rules";
+import type { FacilityRulesValues, RulesInForce } from "@/lib/schemas/rules";
 import { rememberRules } from "./use-facility-rules";
 
 type Cryo = { id: string; name: string; config: { reservoir?: unknown; magnet?: unknown } };

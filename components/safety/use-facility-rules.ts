@@ -3,7 +3,7 @@
 // localStorage, so the cautions keep showing the facility's own values with no network.
 import { useEffect, useState } from "react";
 import { recall, remember } from "@/components/ui/remembered";
-import type { RulesInForce } from "@/db/queries/rules";
+import type { RulesInForce } from "@/lib/schemas/rules";
 
 const KEY = "rimelog-rules";
 

@@ -3,7 +3,7 @@
 // worker can cache it); who is signed in comes from /api/me, remembered for offline use.
 import { useEffect, useState } from "react";
 import { forget, recall } from "@/components/ui/remembered";
-import type { SessionUser } from "@/lib/auth/session-user";
+import type { SessionUser } from "@/lib/schemas/user";
 import { forgetPin } from "@/lib/signing/tablet";
 
 const KEY = "rimelog-me";

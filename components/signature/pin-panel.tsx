@@ -4,8 +4,8 @@
 import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice, Panel } from "@/components/ui/panel";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { formatDate } from "@/lib/format";
+import type { SessionUser } from "@/lib/schemas/user";
 import { type CachedPin, cachedPin, storePin } from "@/lib/signing/tablet";
 
 type Verifier = { saltB64: string; iterations: number; verifier: string; expiresAt: string };

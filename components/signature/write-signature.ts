@@ -1,9 +1,9 @@
 "use client";
-import type { SessionUser } from "@/lib/auth/session-user";
 // Writing a signature through the tablet store: bound to the exact stored record (recordHash of
 // what the store wrote), with the identity proof made for that record and meaning.
 import { recordEntry, type StoredLocalEntry } from "@/lib/local/record";
 import type { SignatureMeaning } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 import { signaturePayload, signingSubject } from "@/lib/signing/sign";
 import type { Confirmation } from "./sign-dialog";
 

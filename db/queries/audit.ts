@@ -74,40 +74,10 @@ export const auditChecks: LogCheck[] = [
   { when: ofKind("signature"), check: auditSignatureCheck },
 ];
 
-export type SignatureView = {
-  entryId: string;
-  signedEntryId: string;
-  meaning: string;
-  signerId: string;
-  signerName: string;
-  signerRole: string;
-  signedAt: string;
-  signedHash: string;
-  confirmedBy: string | null;
-  image: string | null;
-};
-export type FindingView = {
-  id: string;
-  verdict: "acceptable" | "needs_action";
-  findings: string;
-  flags: string[];
-  authorName: string;
-  recordedAt: string;
-  signatures: SignatureView[];
-};
+import type { CheckpointKeys } from "@/lib/audit/checkpoint";
+import type { AuditItem, FindingView, SignatureView } from "@/lib/audit/types";
 
-export type AuditItem = {
-  entry: StoredEntry;
-  cryostatName: string;
-  authorName: string;
-  peopleNames: string[];
-  flags: Flag[];
-  signatures: SignatureView[];
-  findings: FindingView[];
-  /** The latest signed finding decides: null when not yet audited (no finding with an `audited` signature). */
-  verdict: "acceptable" | "needs_action" | null;
-  figures: TransferFigures | QuenchFigures | null;
-};
+export type { AuditItem, FindingView, SignatureView };
 
 async function rulesValues(db: Db): Promise<FacilityRulesValues | null> {
   const [r] = await db.select().from(facilityRules).orderBy(desc(facilityRules.version)).limit(1);
@@ -115,7 +85,7 @@ async function rulesValues(db: Db): Promise<FacilityRulesValues | null> {
 }
 
 /** Everything about a set of auditable entries: names, signatures, findings, flags, figures. */
-async function describeRecords(db: Db, rows: EntryRow[], { keyDir }: { keyDir: string }): Promise<AuditItem[]> {
+async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: CheckpointKeys }): Promise<AuditItem[]> {
   if (!rows.length) return [];
   const rules = await rulesValues(db);
   const ids = rows.map((r) => r.id);
@@ -169,7 +139,7 @@ async function describeRecords(db: Db, rows: EntryRow[], { keyDir }: { keyDir: s
     });
     findingsBy.set(p.targetEntryId, list);
   }
-  const breaks = await chainBreaks(db, { keyDir });
+  const breaks = await chainBreaks(db, { keys });
   // Previous transfer per cryostat, for the boil-off in between.
   const transfers = await db
     .select({
@@ -245,7 +215,7 @@ function latestOnly(rows: EntryRow[]): EntryRow[] {
   return rows.filter((r) => !superseded.has(r.id));
 }
 
-export async function auditQueue(db: Db, { keyDir }: { keyDir: string }): Promise<AuditItem[]> {
+export async function auditQueue(db: Db, { keys }: { keys: CheckpointKeys }): Promise<AuditItem[]> {
   const rows = latestOnly(
     await db
       .select()
@@ -253,17 +223,20 @@ export async function auditQueue(db: Db, { keyDir }: { keyDir: string }): Promis
       .where(inArray(entries.kind, [...AUDITED_KINDS]))
       .orderBy(desc(entries.recordedAt)),
   );
-  const items = await describeRecords(db, rows, { keyDir });
+  const items = await describeRecords(db, rows, { keys });
   return items.filter((i) => i.verdict === null);
 }
 
-export async function auditRecord(db: Db, { id, keyDir }: { id: string; keyDir: string }): Promise<AuditItem | null> {
+export async function auditRecord(
+  db: Db,
+  { id, keys }: { id: string; keys: CheckpointKeys },
+): Promise<AuditItem | null> {
   const [row] = await db
     .select()
     .from(entries)
     .where(and(eq(entries.id, id), inArray(entries.kind, [...AUDITED_KINDS])));
   if (!row) return null;
-  const [item] = await describeRecords(db, [row], { keyDir });
+  const [item] = await describeRecords(db, [row], { keys });
   return item ?? null;
 }
 
@@ -279,7 +252,7 @@ export type TransferFilter = {
 };
 
 /** All records of the given kinds (transfers by default) matching the filters, with their flags. */
-export async function auditTable(db: Db, f: TransferFilter & { keyDir: string }): Promise<AuditItem[]> {
+export async function auditTable(db: Db, f: TransferFilter & { keys: CheckpointKeys }): Promise<AuditItem[]> {
   const kinds = f.kinds?.length ? f.kinds : ["transfer"];
   const rows = latestOnly(
     await db
@@ -295,7 +268,7 @@ export async function auditTable(db: Db, f: TransferFilter & { keyDir: string })
       )
       .orderBy(asc(entries.recordedAt)),
   );
-  let items = await describeRecords(db, rows, { keyDir: f.keyDir });
+  let items = await describeRecords(db, rows, { keys: f.keys });
   if (f.personId) {
     const pid = f.personId;
     items = items.filter(

@@ -2,25 +2,13 @@
 // the table in force per stage (the newest accepted for that cryostat and stage).
 import { randomUUID } from "node:crypto";
 import { and, desc, eq } from "drizzle-orm";
-import type { CalibrationUpload } from "@/components/cryo/calibration-schema";
 import type { Db } from "@/db/client";
 import { type CalibrationRow, calibrations, cryostats, users } from "@/db/schema";
 import { type CalibrationTable, CryoInputError, parseCalibration } from "@/lib/cryo";
 import { AppError } from "@/lib/errors";
+import type { CalibrationRecord, CalibrationUpload } from "@/lib/schemas/calibration";
 
-export interface CalibrationRecord {
-  id: string;
-  cryostatId: string;
-  stage: string;
-  sensorKind: CalibrationTable["sensorKind"];
-  sensorLabel: string;
-  attachmentId: string | null;
-  fileName: string;
-  table: CalibrationTable;
-  acceptedBy: string;
-  acceptedByName: string;
-  acceptedAt: string;
-}
+export type { CalibrationRecord };
 
 function toRecord(row: CalibrationRow, name: string | null): CalibrationRecord {
   return {

@@ -1,19 +1,12 @@
 // Chain check and signed checkpoints against the database: load a chain, its head and its
-// checkpoints (database copy plus the copy in the key directory), check each checkpoint's Ed25519
+// checkpoints (database copy plus the server's file copy), check each checkpoint's Ed25519
 // signature against the server's own key, and verify (lib/audit/chain.ts).
 import "server-only";
 import { desc, eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { chainCheckpoints, chainHeads, entries } from "@/db/schema";
-import { type ChainVerdict, type TrustedCheckpoint, verifyChain } from "@/lib/audit/chain";
-import {
-  appendCheckpointLog,
-  type Checkpoint,
-  loadOrCreateKey,
-  readCheckpointLog,
-  signCheckpoint,
-  verifyCheckpoint,
-} from "@/lib/audit/checkpoint";
+import { type ChainReport, type TrustedCheckpoint, verifyChain } from "@/lib/audit/chain";
+import type { Checkpoint, CheckpointKeys } from "@/lib/audit/checkpoint";
 import { toStoredRow } from "./stored";
 
 /** How often a chain head is signed while the chain grows. */
@@ -41,9 +34,8 @@ async function dbCheckpoints(db: Db, chain: string): Promise<Checkpoint[]> {
  */
 export async function signChainHeads(
   db: Db,
-  { keyDir, now = new Date(), minAgeMs = 0 }: { keyDir: string; now?: Date; minAgeMs?: number },
+  { keys, now = new Date(), minAgeMs = 0 }: { keys: CheckpointKeys; now?: Date; minAgeMs?: number },
 ): Promise<Checkpoint[]> {
-  const key = loadOrCreateKey(keyDir);
   const out: Checkpoint[] = [];
   for (const head of await listChains(db)) {
     const [last] = await db
@@ -54,7 +46,7 @@ export async function signChainHeads(
       .limit(1);
     if (last && last.seq === head.seq && last.hash === head.hash) continue;
     if (last && now.getTime() - last.signedAt.getTime() < minAgeMs) continue;
-    const cp = signCheckpoint(key, head, now.toISOString());
+    const cp = keys.sign(head, now.toISOString());
     await db.insert(chainCheckpoints).values({
       chain: cp.chain,
       seq: cp.seq,
@@ -63,30 +55,29 @@ export async function signChainHeads(
       publicKey: cp.publicKey,
       signedAt: now,
     });
-    appendCheckpointLog(keyDir, cp);
+    keys.appendLog(cp);
     out.push(cp);
   }
   return out;
 }
 
-export type ChainReport = ChainVerdict & { untrustedCheckpoints: number; checkedAt: string };
+export type { ChainReport };
 
 /** Verify one chain as stored now. */
-export async function checkChain(db: Db, { chain, keyDir }: { chain: string; keyDir: string }): Promise<ChainReport> {
-  const key = loadOrCreateKey(keyDir);
+export async function checkChain(
+  db: Db,
+  { chain, keys }: { chain: string; keys: CheckpointKeys },
+): Promise<ChainReport> {
   const rows = (await db.select().from(entries).where(eq(entries.chain, chain))).map(toStoredRow);
   const [head] = await db.select().from(chainHeads).where(eq(chainHeads.chain, chain));
   const seen = new Map<string, Checkpoint>();
-  for (const cp of [
-    ...(await dbCheckpoints(db, chain)),
-    ...readCheckpointLog(keyDir).filter((c) => c.chain === chain),
-  ]) {
+  for (const cp of [...(await dbCheckpoints(db, chain)), ...keys.readLog().filter((c) => c.chain === chain)]) {
     seen.set(`${cp.seq}:${cp.hash}:${cp.signature}`, cp);
   }
   const trusted: TrustedCheckpoint[] = [];
   let untrusted = 0;
   for (const cp of seen.values()) {
-    if (verifyCheckpoint(cp, [key.publicKeyHex])) trusted.push({ seq: cp.seq, hash: cp.hash, signedAt: cp.signedAt });
+    if (keys.verify(cp)) trusted.push({ seq: cp.seq, hash: cp.hash, signedAt: cp.signedAt });
     else untrusted++;
   }
   const verdict = verifyChain(chain, rows, {
@@ -97,10 +88,10 @@ export async function checkChain(db: Db, { chain, keyDir }: { chain: string; key
 }
 
 /** The first break of each chain (null when it verifies), for the audit flag. */
-export async function chainBreaks(db: Db, { keyDir }: { keyDir: string }): Promise<Map<string, number | null>> {
+export async function chainBreaks(db: Db, { keys }: { keys: CheckpointKeys }): Promise<Map<string, number | null>> {
   const out = new Map<string, number | null>();
   for (const { chain } of await listChains(db)) {
-    const r = await checkChain(db, { chain, keyDir });
+    const r = await checkChain(db, { chain, keys });
     // Nothing left to point at when the end was cut off: the whole chain is in doubt.
     out.set(chain, r.ok ? null : (r.firstBad?.seq ?? 0));
   }

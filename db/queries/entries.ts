@@ -5,16 +5,14 @@ import { and, desc, eq, getTableColumns, gt, inArray, lt, notInArray, sql } from
 import type { Db } from "@/db/client";
 import { chainHeads, cryostats, devices, entries, users } from "@/db/schema";
 import { mayRead, maySign, mayWrite, readableKindsExcluded } from "@/lib/auth/permissions";
-import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 import { chainOf, genesisHash, linkText, recordHash } from "@/lib/sync/hash";
+import type { Accepted, PushReply as PushResult, Rejected } from "@/lib/sync/protocol";
 import { checkedAgainstLog, runProjectors, validateAgainstLog } from "./projections";
 import { toStoredRow } from "./stored";
 
-/** An entry the server holds: its place in the log (seq, chain link) and when it arrived. */
-export type Accepted = { id: string; seq: number; hash: string; prevHash: string; receivedAt: string };
-export type Rejected = { id: string; code: string; message: string };
-export type PushResult = { accepted: Accepted[]; rejected: Rejected[] };
+export type { Accepted, PushResult, Rejected };
 
 const entryColumns = Object.entries(getTableColumns(entries));
 

@@ -3,8 +3,8 @@
 // entry no check looks at (a reading, a note: most of a long push) is accepted without a query.
 // Types only: the checks live with their feature (runs.ts, audit.ts, projections.ts).
 import type { Db } from "@/db/client";
-import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 
 export type Problem = { code: string; message: string };
 

@@ -13,9 +13,10 @@ import {
   handoverWaitingMail,
   heliumForecastMail,
   type MailMessage,
+  type MailRow,
+  type MailTransport,
   quenchMail,
 } from "@/lib/mail/messages";
-import type { MailTransport } from "@/lib/mail/transport";
 
 /** Queue a message; false when that event's message was already queued. */
 export async function enqueueMail(db: Db, m: MailMessage): Promise<boolean> {
@@ -252,7 +253,7 @@ export async function deliverPending(
   return { sent, failed };
 }
 
-export type MailRow = typeof mailOutbox.$inferSelect;
+export type { MailRow };
 
 export async function listMail(db: Db, { limit = 200 } = {}): Promise<MailRow[]> {
   return db.select().from(mailOutbox).orderBy(desc(mailOutbox.createdAt)).limit(limit);

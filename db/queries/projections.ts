@@ -5,8 +5,8 @@
 import { eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { type EntryRow, entries, signatures } from "@/db/schema";
-import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 import { recordHash } from "@/lib/sync/hash";
 import { auditChecks } from "./audit";
 import { type LogCheck, ofKind, type Problem } from "./log-check";

@@ -6,21 +6,18 @@ import { randomUUID } from "node:crypto";
 import { desc, eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { attachments, facilityRules, users } from "@/db/schema";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { AppError } from "@/lib/errors";
 import { diffRules } from "@/lib/safety/rules-diff";
-import { type FacilityRulesValues, facilityRulesValuesSchema } from "@/lib/schemas/rules";
+import {
+  type FacilityRulesValues,
+  facilityRulesValuesSchema,
+  type RulesDocument,
+  type RulesInForce,
+} from "@/lib/schemas/rules";
+import type { SessionUser } from "@/lib/schemas/user";
 import { appendEntries } from "./entries";
 
-export type RulesDocument = { id: string; fileName: string; bytes: number; sha256: string; uploadedAt: string };
-export type RulesInForce = {
-  version: number;
-  values: FacilityRulesValues;
-  document: RulesDocument | null;
-  changedBy: string;
-  changedByName: string;
-  changedAt: string;
-};
+export type { RulesDocument, RulesInForce };
 
 export async function getRules(db: Db): Promise<RulesInForce | null> {
   const [row] = await db

@@ -4,11 +4,11 @@
 import { and, desc, eq, inArray, or } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { cryostats, entries, procedureTemplates, type Run, runs, users } from "@/db/schema";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { readingOutOfRange } from "@/lib/procedures/state";
 import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
 import type { RunStartPayload, RunStepPayload } from "@/lib/schemas/run";
 import type { TemplateStep } from "@/lib/schemas/template";
+import type { SessionUser } from "@/lib/schemas/user";
 import { verifyConfirmation } from "@/lib/signing/proof";
 import { type LogCheck, ofKind, type Problem } from "./log-check";
 import { toStoredRow } from "./stored";

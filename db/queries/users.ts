@@ -4,11 +4,10 @@ import { randomUUID } from "node:crypto";
 import { and, asc, count, eq, gt } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { type Role, signInAttempts, type User, users } from "@/db/schema";
-import type { SessionUser } from "@/lib/auth/session-user";
+import type { AdminUser, PublicUser, SessionUser } from "@/lib/schemas/user";
 import { appendEntries } from "./entries";
 
-export type PublicUser = Pick<User, "id" | "name" | "role" | "active">;
-export type AdminUser = PublicUser & Pick<User, "email" | "createdAt">;
+export type { AdminUser, PublicUser };
 
 export async function findUserByEmail(db: Db, { email }: { email: string }): Promise<User | undefined> {
   const [u] = await db.select().from(users).where(eq(users.email, email.trim().toLowerCase()));

@@ -170,3 +170,6 @@ export function verifyChain(
     checkpointsChecked: cps.length,
   };
 }
+
+/** One chain's verdict as the server reports it, with the checkpoints it could not trust. */
+export type ChainReport = ChainVerdict & { untrustedCheckpoints: number; checkedAt: string };

@@ -1,6 +1,7 @@
 // Who may do what. One table of permissions, used by every route handler, server action and push.
-import type { Role } from "@/db/schema";
+
 import type { EntryKind, SignatureMeaning } from "@/lib/schemas/entry";
+import type { Role } from "@/lib/schemas/user";
 
 export type { Role };
 export const ALL_ROLES: readonly Role[] = ["technician", "researcher", "safety_officer", "facility_admin"];

@@ -1,7 +1,8 @@
 // From the audit view of a record (db/queries/audit.ts AuditItem) to the rows of the CSV and the
 // sections of the PDF report: the same fields, flags and signature manifestations in both.
-import type { AuditItem, SignatureView } from "@/db/queries/audit";
+
 import type { QuenchFigures, TransferFigures } from "@/lib/audit/figures";
+import type { AuditItem, SignatureView } from "@/lib/audit/types";
 import { kindLabel } from "@/lib/format";
 import type { CsvRecord } from "./csv";
 import type { ReportRecord, ReportSignature } from "./pdf";

@@ -4,8 +4,8 @@
 // yet written into their entries, photo blobs, and sync metadata (device id, pull cursor, last
 // success, the offline session) all live here.
 import Dexie, { type DexieOptions, type Table } from "dexie";
-import type { SessionUser } from "@/lib/auth/session-user";
 import type { EntryInput } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 import type { Accepted } from "@/lib/sync/protocol";
 
 export type SyncState = "pending" | "synced" | "rejected";

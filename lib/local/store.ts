@@ -3,8 +3,8 @@
 // Dexie instance first so tests can run several simulated tablets side by side.
 import type { z } from "zod";
 import { mayWrite } from "@/lib/auth/permissions";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { type EntryInput, type EntryKind, parseEntry, type payloadSchemas } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 import { canonicalJson } from "@/lib/sync/hash";
 import type { LocalSession, OutboxRow, RimelogDexie, StoredLocalEntry } from "./db";
 import { emitLocalWrite } from "./events";

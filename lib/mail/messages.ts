@@ -1,6 +1,12 @@
 // The e-mails Rimelog sends, one builder per event, each with the event key that makes it go out
 // once: a quench, an audit finding needing action, a handover waiting for acceptance, and the
 // helium forecast reaching the minimum. Pure text; figures that are computed say so.
+/** Where a message goes out: the server's nodemailer transport (SMTP or a local fake). */
+export type MailTransport = {
+  kind: "fake" | "smtp";
+  send(m: { from: string; to: string; subject: string; text: string }): Promise<{ messageId: string }>;
+};
+
 export type MailMessage = { eventKey: string; to: string[]; subject: string; body: string };
 
 const FOOTER =
@@ -102,3 +108,15 @@ export function heliumForecastMail(f: {
       FOOTER,
   };
 }
+
+/** A row of the mail outbox as the admin reads it (dates are strings over JSON). */
+export type MailRow = {
+  id: string;
+  eventKey: string;
+  to: string;
+  subject: string;
+  body: string;
+  createdAt: Date | string;
+  sentAt: Date | string | null;
+  error: string | null;
+};

@@ -2,6 +2,9 @@
 // calibration, magnet and mixture parameters. One schema for the server, the tablet and the admin form.
 import { z } from "zod";
 
+export const CRYOSTAT_KINDS = ["dry_dilution", "wet_bath", "test_dewar"] as const;
+export type CryostatKind = (typeof CRYOSTAT_KINDS)[number];
+
 export const stageSchema = z.object({
   key: z.string().min(1).max(40),
   label: z.string().min(1).max(60),

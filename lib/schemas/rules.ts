@@ -31,3 +31,14 @@ export const facilityRulesValuesSchema = z.object({
   contacts: z.array(contactSchema).max(20),
 });
 export type FacilityRulesValues = z.infer<typeof facilityRulesValuesSchema>;
+
+/** The rules document (PDF) the facility attached to its rules. */
+export type RulesDocument = { id: string; fileName: string; bytes: number; sha256: string; uploadedAt: string };
+export type RulesInForce = {
+  version: number;
+  values: FacilityRulesValues;
+  document: RulesDocument | null;
+  changedBy: string;
+  changedByName: string;
+  changedAt: string;
+};

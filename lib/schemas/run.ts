@@ -2,11 +2,11 @@
 // abort and completion. A run's state is never stored on the tablet: it is derived from these
 // entries (lib/procedures/state.ts), so two tablets writing to one run both keep their entries.
 import { z } from "zod";
+import { CRYOSTAT_KINDS } from "./cryostat";
 import { templateStepSchema } from "./template";
 import { UNITS } from "./units";
 
 // Kept here (not imported from db/schema) so lib/ stays free of the database layer.
-const CRYOSTAT_KINDS = ["dry_dilution", "wet_bath", "test_dewar"] as const;
 
 const finite = z.number().refine(Number.isFinite, "must be a finite number");
 const stepId = z.string().min(1).max(60);

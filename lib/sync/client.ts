@@ -2,10 +2,11 @@
 // order, apply the server's answer, pull what changed. The transport is injected, so the same
 // code runs in the browser (fetch) and in the reliability tests (a lossy in-process server).
 // The outbox is the truth: a row leaves it only when the server has answered for its entry (S3).
-import type { SessionUser } from "@/lib/auth/session-user";
+
 import type { OutboxRow, RimelogDexie, StoredLocalEntry } from "@/lib/local/db";
 import { pendingEntry } from "@/lib/local/store";
 import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 import { recordHash } from "./hash";
 import type { PullReply, PushReply, UploadReply } from "./protocol";
 import { PUSH_LIMITS } from "./protocol";

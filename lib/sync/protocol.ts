@@ -1,16 +1,18 @@
 // The sync protocol's shapes and bounds, shared by the tablet and the server: what a push sends
 // and gets back, what a pull returns, and how a push body is checked entry by entry.
-import type { Accepted, Rejected } from "@/db/queries/entries";
-import type { SessionUser } from "@/lib/auth/session-user";
+
 import { AppError } from "@/lib/errors";
 import { type EntryInput, parseEntry, type StoredEntry } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 
 /** A push carries at most this many entries and bytes; over it the server answers 413. */
 export const PUSH_LIMITS = { maxEntries: 2000, maxBytes: 4_000_000 } as const;
 /** Entries per pull page (the server may answer fewer). */
 export const PULL_PAGE = 500;
 
-export type { Accepted, Rejected };
+/** An entry the server holds: its place in the log (seq, chain link) and when it arrived. */
+export type Accepted = { id: string; seq: number; hash: string; prevHash: string; receivedAt: string };
+export type Rejected = { id: string; code: string; message: string };
 export type PushReply = { accepted: Accepted[]; rejected: Rejected[] };
 
 export type ReferenceData = {

@@ -15,6 +15,7 @@ import { users } from "@/db/schema";
 import type { EntryInput } from "@/lib/schemas/entry";
 import { hmacHex, passwordProofKey, signingMessage } from "@/lib/signing/proof";
 import { recordHash } from "@/lib/sync/hash";
+import { fileCheckpointKeys } from "@/server/audit/keys";
 import { freshDb } from "./fixture";
 
 const grace = {
@@ -23,7 +24,7 @@ const grace = {
   name: "Dr. Grace Oyelaran",
   role: "safety_officer" as const,
 };
-const keyDir = mkdtempSync(join(tmpdir(), "rimelog-audit-keys-"));
+const keys = fileCheckpointKeys(mkdtempSync(join(tmpdir(), "rimelog-audit-keys-")));
 
 function finding(
   target: { id: string; cryostatId: string | null },
@@ -109,7 +110,7 @@ describe("audit queue", () => {
       },
     };
     expect((await appendEntries(db, tomasz, [alone])).rejected).toEqual([]);
-    const queue = await auditQueue(db, { keyDir });
+    const queue = await auditQueue(db, { keys });
     const transfers = queue.filter((i) => i.entry.kind === "transfer");
     expect(transfers.length).toBeGreaterThan(4);
     const single = transfers.find((i) => i.entry.id === alone.id)!;
@@ -127,18 +128,18 @@ describe("audit queue", () => {
     const f = finding(single.entry, "needs_action");
     const res = await appendEntries(db, grace, [f, signature(f, g!.passwordHash)]);
     expect(res.rejected).toEqual([]);
-    const after = await auditQueue(db, { keyDir });
+    const after = await auditQueue(db, { keys });
     expect(after.some((i) => i.entry.id === single.entry.id)).toBe(false);
     expect(after.length).toBe(queue.length - 1);
 
     // A finding without its signature leaves the record in the queue.
     const f2 = finding(noOxygen.entry, "acceptable");
     expect((await appendEntries(db, grace, [f2])).rejected).toEqual([]);
-    const still = (await auditQueue(db, { keyDir })).find((i) => i.entry.id === noOxygen.entry.id);
+    const still = (await auditQueue(db, { keys })).find((i) => i.entry.id === noOxygen.entry.id);
     expect(still?.findings).toHaveLength(1);
     expect(still?.verdict).toBeNull();
 
-    const table = await auditTable(db, { keyDir, flag: "single_person" });
+    const table = await auditTable(db, { keys, flag: "single_person" });
     expect(table.map((i) => i.entry.id)).toContain(single.entry.id);
     expect(table.every((i) => i.flags.some((x) => x.code === "single_person"))).toBe(true);
     const signed = table.find((i) => i.entry.id === single.entry.id)!;
@@ -148,14 +149,14 @@ describe("audit queue", () => {
       signerName: grace.name,
       confirmedBy: "password",
     });
-    const byPriya = await auditTable(db, { keyDir, personId: "u-priya" });
+    const byPriya = await auditTable(db, { keys, personId: "u-priya" });
     expect(byPriya.length).toBeGreaterThan(0);
     expect(byPriya.some((i) => i.entry.id === alone.id)).toBe(false);
   });
 
   it("refuses an audit signature without PIN or password, and one on the record itself", async () => {
     const db = await freshDb({ seeded: true });
-    const [item] = (await auditQueue(db, { keyDir })).filter((i) => i.entry.kind === "transfer");
+    const [item] = (await auditQueue(db, { keys })).filter((i) => i.entry.kind === "transfer");
     const f = finding(item!.entry, "acceptable");
     const res = await appendEntries(db, grace, [f, signature(f, null)]);
     expect(res.rejected.map((r) => r.message)).toEqual([

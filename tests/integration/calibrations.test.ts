@@ -1,10 +1,10 @@
 // Accepting sensor calibration tables (db/queries/calibrations.ts): re-parsed on the server,
 // newest per stage in force, bad files refused with the line that is wrong.
 import { describe, expect, it } from "vitest";
-import { calibrationUploadSchema } from "@/components/cryo/calibration-schema";
 import { acceptCalibration, listCalibrations } from "@/db/queries/calibrations";
 import { convertReading } from "@/lib/cryo";
 import { AppError } from "@/lib/errors";
+import { calibrationUploadSchema } from "@/lib/schemas/calibration";
 import { freshDb } from "./fixture";
 
 const TABLE = "# T(K) R(Ohm)\nT R\n0.01 20000\n0.1 5000\n1 2000\n4.2 1200\n";

@@ -13,16 +13,17 @@ import { chainEntries } from "@/db/queries/entries";
 import { toStoredRow } from "@/db/queries/stored";
 import { chainCheckpoints, chainHeads, entries } from "@/db/schema";
 import { verifyChain } from "@/lib/audit/chain";
-import { loadOrCreateKey, signCheckpoint } from "@/lib/audit/checkpoint";
+import type { CheckpointKeys } from "@/lib/audit/checkpoint";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
+import { fileCheckpointKeys, loadOrCreateKey, signCheckpoint } from "@/server/audit/keys";
 import { freshDb } from "./fixture";
 
 let db: Db;
-let keyDir: string;
+let keys: CheckpointKeys;
 
 beforeEach(async () => {
   db = await freshDb({ seeded: true });
-  keyDir = mkdtempSync(join(tmpdir(), "rimelog-keys-"));
+  keys = fileCheckpointKeys(mkdtempSync(join(tmpdir(), "rimelog-keys-")));
   await db.$client.exec("ALTER TABLE entries DISABLE TRIGGER USER");
 });
 afterEach(async () => {
@@ -40,8 +41,8 @@ async function wren(): Promise<Row[]> {
 
 describe("chain check", () => {
   it("verifies an untouched chain, with its signed checkpoint", async () => {
-    await signChainHeads(db, { keyDir });
-    const r = await checkChain(db, { chain: "wren", keyDir });
+    await signChainHeads(db, { keys });
+    const r = await checkChain(db, { chain: "wren", keys });
     expect(r.ok).toBe(true);
     expect(r.count).toBe((await wren()).length);
     expect(r.checkpointsChecked).toBe(1);
@@ -53,7 +54,7 @@ describe("chain check", () => {
     await db.$client.query(`UPDATE entries SET payload = jsonb_set(payload, '{percent}', '99') WHERE id = $1`, [
       target.id,
     ]);
-    const r = await checkChain(db, { chain: "wren", keyDir });
+    const r = await checkChain(db, { chain: "wren", keys });
     expect(r.ok).toBe(false);
     if (r.ok) return;
     expect(r.kind).toBe("changed");
@@ -77,7 +78,7 @@ describe("chain check", () => {
     await db
       .insert(entries)
       .values({ ...src!, id: forgedId, seq: free, payload: { percent: 77 }, prevHash: prev, hash });
-    const r = await checkChain(db, { chain: "wren", keyDir });
+    const r = await checkChain(db, { chain: "wren", keys });
     expect(r.ok).toBe(false);
     if (r.ok) return;
     expect(r.kind).toBe("inserted");
@@ -87,7 +88,7 @@ describe("chain check", () => {
   it("names the entry after a deleted row", async () => {
     const rows = await wren();
     await db.$client.query("DELETE FROM entries WHERE id = $1", [rows[6]!.id]);
-    const r = await checkChain(db, { chain: "wren", keyDir });
+    const r = await checkChain(db, { chain: "wren", keys });
     expect(r.ok).toBe(false);
     if (r.ok) return;
     expect(r.kind).toBe("deleted");
@@ -103,7 +104,7 @@ describe("chain check", () => {
     await db.$client.exec(
       `UPDATE entries SET seq = -1 WHERE id = '${a.id}'; UPDATE entries SET seq = ${a.seq} WHERE id = '${b.id}'; UPDATE entries SET seq = ${b.seq} WHERE id = '${a.id}';`,
     );
-    const r = await checkChain(db, { chain: "wren", keyDir });
+    const r = await checkChain(db, { chain: "wren", keys });
     expect(r.ok).toBe(false);
     if (r.ok) return;
     expect(r.kind).toBe("reordered");
@@ -114,7 +115,7 @@ describe("chain check", () => {
     const rows = await wren();
     const last = rows.at(-1)!;
     await db.$client.query("DELETE FROM entries WHERE id = $1", [last.id]);
-    const r = await checkChain(db, { chain: "wren", keyDir });
+    const r = await checkChain(db, { chain: "wren", keys });
     expect(r.ok).toBe(false);
     if (r.ok) return;
     expect(r.kind).toBe("truncated");
@@ -123,13 +124,13 @@ describe("chain check", () => {
   });
 
   it("catches a truncation hidden by moving the head back, through the signed checkpoint", async () => {
-    await signChainHeads(db, { keyDir });
+    await signChainHeads(db, { keys });
     const rows = await wren();
     const last = rows.at(-1)!;
     const prev = rows.at(-2)!;
     await db.$client.query("DELETE FROM entries WHERE id = $1", [last.id]);
     await db.$client.query("UPDATE chain_heads SET seq = $1, hash = $2 WHERE chain = 'wren'", [prev.seq, prev.hash]);
-    const r = await checkChain(db, { chain: "wren", keyDir });
+    const r = await checkChain(db, { chain: "wren", keys });
     expect(r.ok).toBe(false);
     if (r.ok) return;
     expect(r.kind).toBe("truncated");
@@ -137,7 +138,7 @@ describe("chain check", () => {
   });
 
   it("catches a wholly recomputed chain only with the signed checkpoint, even when the checkpoint rows are deleted", async () => {
-    await signChainHeads(db, { keyDir });
+    await signChainHeads(db, { keys });
     const rows = await wren();
     const target = rows[4]!;
     await db.$client.query(`UPDATE entries SET payload = jsonb_set(payload, '{percent}', '99') WHERE id = $1`, [
@@ -183,7 +184,7 @@ describe("chain check", () => {
     await db.$client.query("UPDATE chain_heads SET hash = $1 WHERE chain = 'wren'", [prevHash]);
     await db.delete(chainCheckpoints);
 
-    const r = await checkChain(db, { chain: "wren", keyDir });
+    const r = await checkChain(db, { chain: "wren", keys });
     expect(r.ok).toBe(false);
     if (r.ok) return;
     expect(r.kind).toBe("recomputed");
@@ -205,13 +206,13 @@ describe("chain check", () => {
       publicKey: forged.publicKey,
       signedAt: new Date(forged.signedAt),
     });
-    const r = await checkChain(db, { chain: "wren", keyDir });
+    const r = await checkChain(db, { chain: "wren", keys });
     expect(r.ok).toBe(true);
     expect(r.untrustedCheckpoints).toBe(1);
   });
 
   it("signs a head again only after it moved", async () => {
-    expect((await signChainHeads(db, { keyDir })).length).toBeGreaterThan(0);
-    expect(await signChainHeads(db, { keyDir })).toEqual([]);
+    expect((await signChainHeads(db, { keys })).length).toBeGreaterThan(0);
+    expect(await signChainHeads(db, { keys })).toEqual([]);
   });
 });

@@ -12,8 +12,9 @@ import {
   queueWaitingHandovers,
 } from "@/db/queries/mail";
 import { mailOutbox } from "@/db/schema";
-import { fakeTransport, type MailTransport } from "@/lib/mail/transport";
+import type { MailTransport } from "@/lib/mail/messages";
 import type { EntryInput } from "@/lib/schemas/entry";
+import { fakeTransport } from "@/server/mail/transport";
 import { DEMO_NOW, freshDb } from "./fixture";
 
 const tomasz = {

@@ -8,12 +8,12 @@ import { join } from "node:path";
 import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { afterAll, beforeEach, describe, expect, it, vi } from "vitest";
 import type { Db } from "@/db/client";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { AppError } from "@/lib/errors";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, putAttachmentIn, recordEntriesIn } from "@/lib/local/store";
-import { sniffType } from "@/lib/storage/objects";
+import type { SessionUser } from "@/lib/schemas/user";
 import { syncOnce, type Transport } from "@/lib/sync/client";
+import { sniffType } from "@/server/storage/objects";
 import { freshDb } from "./fixture";
 
 const dir = mkdtempSync(join(tmpdir(), "rimelog-files-"));
@@ -22,7 +22,7 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const state: { db?: Db; user: SessionUser | null } = { user: null };
 vi.mock("@/db", () => ({ getDb: async () => state.db }));
-vi.mock("@/lib/auth/require", () => ({
+vi.mock("@/server/auth/require", () => ({
   requireUser: async () => {
     if (!state.user) throw new AppError("unauthorized", "session", "Sign in first.");
     return state.user;

@@ -10,13 +10,13 @@ import { beforeEach, describe, expect, it } from "vitest";
 import type { Db } from "@/db/client";
 import { toStoredRow } from "@/db/queries/stored";
 import { entries } from "@/db/schema";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie, SCHEMA_VERSIONS } from "@/lib/local/db";
 import { queryEntries, queryEntry } from "@/lib/local/queries";
 import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import type { EntryInput } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 import { applyPushReply, syncOnce, type Transport, TransportError, toInput } from "@/lib/sync/client";
-import { applyPush, pullPage } from "@/lib/sync/server";
+import { applyPush, pullPage } from "@/server/sync/apply";
 import { freshDb } from "./fixture";
 
 const tomasz: SessionUser = {

@@ -3,7 +3,7 @@
 // so the parent can SIGKILL it in the middle of one.
 import { readFileSync } from "node:fs";
 import { openDb } from "@/db/client";
-import { applyPush } from "@/lib/sync/server";
+import { applyPush } from "@/server/sync/apply";
 
 const [dir, batchFile] = process.argv.slice(2);
 if (!dir || !batchFile) throw new Error("usage: sync-kill.child.ts <data dir> <batch file>");

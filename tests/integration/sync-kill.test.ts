@@ -11,13 +11,13 @@ import { openDb } from "@/db/client";
 import { toStoredRow } from "@/db/queries/stored";
 import { entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
+import type { SessionUser } from "@/lib/schemas/user";
 import { syncOnce, type Transport, toInput } from "@/lib/sync/client";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
-import { applyPush, pullPage } from "@/lib/sync/server";
+import { applyPush, pullPage } from "@/server/sync/apply";
 
 const tomasz: SessionUser = {
   id: "u-tomasz",

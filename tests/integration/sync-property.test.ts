@@ -15,12 +15,12 @@ import { type Db, openDb } from "@/db/client";
 import { toStoredRow } from "@/db/queries/stored";
 import { chainHeads, entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
+import type { SessionUser } from "@/lib/schemas/user";
 import { syncOnce, type Transport, TransportError } from "@/lib/sync/client";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
-import { applyPush, pullPage } from "@/lib/sync/server";
+import { applyPush, pullPage } from "@/server/sync/apply";
 import { freshDb } from "./fixture";
 
 const USERS: SessionUser[] = [

@@ -6,10 +6,10 @@ import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import type { Db } from "@/db/client";
 import { entries } from "@/db/schema";
-import type { SessionUser } from "@/lib/auth/session-user";
 import { AppError } from "@/lib/errors";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, recordEntriesIn } from "@/lib/local/store";
+import type { SessionUser } from "@/lib/schemas/user";
 import { syncOnce, type Transport, TransportError } from "@/lib/sync/client";
 import { PUSH_LIMITS, type PullReply, type PushReply } from "@/lib/sync/protocol";
 import { freshDb } from "./fixture";
@@ -17,8 +17,8 @@ import { freshDb } from "./fixture";
 const state: { db?: Db; user: SessionUser | null } = { user: null };
 vi.mock("@/db", () => ({ getDb: async () => state.db }));
 // The server's background tick (chain signing, mail) is not part of these tests.
-vi.mock("@/lib/audit/server-tick", () => ({ ensureServerTick: () => undefined, kickServerTick: () => undefined }));
-vi.mock("@/lib/auth/require", () => ({
+vi.mock("@/server/tick", () => ({ ensureServerTick: () => undefined, kickServerTick: () => undefined }));
+vi.mock("@/server/auth/require", () => ({
   requireUser: async () => {
     if (!state.user) throw new AppError("unauthorized", "session", "Sign in first.");
     return state.user;

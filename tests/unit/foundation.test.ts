@@ -5,12 +5,12 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { DataDirLockedError, lockDataDir } from "@/db/lock";
-import { throttleDelayMs } from "@/lib/auth/credentials";
 import { mayRead, maySign, mayWrite } from "@/lib/auth/permissions";
 import type { AppError } from "@/lib/errors";
-import { readJson } from "@/lib/http/respond";
 import { parseEntry } from "@/lib/schemas/entry";
 import { canonicalJson, recordHash } from "@/lib/sync/hash";
+import { throttleDelayMs } from "@/server/auth/credentials";
+import { readJson } from "@/server/http/respond";
 
 describe("data directory lock", () => {
   it("refuses a second holder while the first is alive, and frees on release", () => {

@@ -1,4 +1,4 @@
-import { rolePage } from "@/components/admin/role-page";
+import { rolePage } from "@/app/(app)/_components/role-page";
 import { AuditHome } from "@/components/audit/audit-home";
 
 export const metadata = { title: "Audit" };

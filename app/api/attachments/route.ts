@@ -5,12 +5,12 @@ import { createHash } from "node:crypto";
 import { z } from "zod";
 import { getDb } from "@/db";
 import { getAttachment, saveAttachment } from "@/db/queries/attachments";
-import { requireUser } from "@/lib/auth/require";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
-import { handle, json } from "@/lib/http/respond";
-import { readUploadBytes, requireByteUpload, uploadHeader } from "@/lib/http/upload";
-import { cleanFileName, fileStore, MAX_ATTACHMENT_BYTES, newStorageKey, sniffType } from "@/lib/storage/objects";
+import { requireUser } from "@/server/auth/require";
+import { handle, json } from "@/server/http/respond";
+import { readUploadBytes, requireByteUpload, uploadHeader } from "@/server/http/upload";
+import { cleanFileName, fileStore, MAX_ATTACHMENT_BYTES, newStorageKey, sniffType } from "@/server/storage/objects";
 
 export const dynamic = "force-dynamic";
 

@@ -1,13 +1,13 @@
 // Sensor calibration tables: GET the tables in force (any signed-in user; the tablet remembers
 // them for offline conversion), POST to accept a previewed table (facility admin or technician).
 import { z } from "zod";
-import { calibrationUploadSchema } from "@/components/cryo/calibration-schema";
 import { getDb } from "@/db";
 import { acceptCalibration, listCalibrations } from "@/db/queries/calibrations";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json, readJson } from "@/lib/http/respond";
+import { calibrationUploadSchema } from "@/lib/schemas/calibration";
 import { formatIssues } from "@/lib/schemas/entry";
+import { requireUser } from "@/server/auth/require";
+import { handle, json, readJson } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

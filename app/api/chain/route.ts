@@ -2,9 +2,9 @@
 // POST signs the chain heads at once (otherwise the server does it at intervals).
 import { getDb } from "@/db";
 import { checkChain, listChains, signChainHeads } from "@/db/queries/chain";
-import { keyDir } from "@/lib/audit/server-tick";
-import { requireUser } from "@/lib/auth/require";
-import { handle, json, readJson } from "@/lib/http/respond";
+import { checkpointKeys } from "@/server/audit/keys";
+import { requireUser } from "@/server/auth/require";
+import { handle, json, readJson } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 
@@ -15,7 +15,7 @@ export async function GET(req: Request) {
     const only = new URL(req.url).searchParams.get("chain");
     const chains = (await listChains(db)).filter((c) => !only || c.chain === only);
     const reports = [];
-    for (const c of chains) reports.push(await checkChain(db, { chain: c.chain, keyDir: keyDir() }));
+    for (const c of chains) reports.push(await checkChain(db, { chain: c.chain, keys: checkpointKeys() }));
     return json({ reports });
   });
 }
@@ -24,7 +24,7 @@ export async function POST(req: Request) {
   return handle(async () => {
     await requireUser("safety_officer", "facility_admin");
     await readJson(req, 1000);
-    const signed = await signChainHeads(await getDb(), { keyDir: keyDir() });
+    const signed = await signChainHeads(await getDb(), { keys: checkpointKeys() });
     return json({ signed: signed.map((c) => ({ chain: c.chain, seq: c.seq, signedAt: c.signedAt })) });
   });
 }

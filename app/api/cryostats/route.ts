@@ -1,7 +1,7 @@
 import { getDb } from "@/db";
 import { roomOverview } from "@/db/queries/cryostats";
-import { requireUser } from "@/lib/auth/require";
-import { handle, json } from "@/lib/http/respond";
+import { requireUser } from "@/server/auth/require";
+import { handle, json } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

@@ -1,5 +1,5 @@
 import { getDb } from "@/db";
-import { handle, json } from "@/lib/http/respond";
+import { handle, json } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

@@ -2,11 +2,11 @@
 // is the message). GET runs the mail checks and delivery first so the list is current.
 import { getDb } from "@/db";
 import { listMail, mailTick } from "@/db/queries/mail";
-import { ensureServerTick } from "@/lib/audit/server-tick";
-import { requireUser } from "@/lib/auth/require";
 import { env } from "@/lib/env";
-import { handle, json } from "@/lib/http/respond";
-import { mailTransport } from "@/lib/mail/transport";
+import { requireUser } from "@/server/auth/require";
+import { handle, json } from "@/server/http/respond";
+import { mailTransport } from "@/server/mail/transport";
+import { ensureServerTick } from "@/server/tick";
 
 export const dynamic = "force-dynamic";
 

@@ -1,5 +1,5 @@
-import { requireUser } from "@/lib/auth/require";
-import { handle, json } from "@/lib/http/respond";
+import { requireUser } from "@/server/auth/require";
+import { handle, json } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

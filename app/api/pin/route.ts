@@ -2,10 +2,7 @@ import { randomBytes } from "node:crypto";
 import { z } from "zod";
 import { getDb } from "@/db";
 import { setPinRecord, signingSecrets } from "@/db/queries/runs";
-import { SignInError, verifySignIn } from "@/lib/auth/credentials";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json, readJson } from "@/lib/http/respond";
 import {
   derivePinKey,
   formatPinRecord,
@@ -15,6 +12,9 @@ import {
   parsePinRecord,
   verifierOf,
 } from "@/lib/signing/proof";
+import { SignInError, verifySignIn } from "@/server/auth/credentials";
+import { requireUser } from "@/server/auth/require";
+import { handle, json, readJson } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

@@ -2,11 +2,11 @@
 // only the facility admin changes them, and each change is an audited log entry.
 import { getDb } from "@/db";
 import { changeRules, getRules } from "@/db/queries/rules";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json, readJson } from "@/lib/http/respond";
 import { rulesChangeInputSchema } from "@/lib/safety/rules-input";
 import { formatIssues } from "@/lib/schemas/entry";
+import { requireUser } from "@/server/auth/require";
+import { handle, json, readJson } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

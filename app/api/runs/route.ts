@@ -1,9 +1,9 @@
 import { z } from "zod";
 import { getDb } from "@/db";
 import { getRunRecord, listRuns } from "@/db/queries/runs";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json } from "@/lib/http/respond";
+import { requireUser } from "@/server/auth/require";
+import { handle, json } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

@@ -1,11 +1,11 @@
 import { z } from "zod";
 import { getDb } from "@/db";
 import { listTemplates, saveTemplateVersion } from "@/db/queries/templates";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json, readJson } from "@/lib/http/respond";
 import { formatIssues } from "@/lib/schemas/entry";
 import { templateInputSchema } from "@/lib/schemas/run";
+import { requireUser } from "@/server/auth/require";
+import { handle, json, readJson } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

@@ -2,11 +2,11 @@ import { randomUUID } from "node:crypto";
 import bcrypt from "bcryptjs";
 import { getDb } from "@/db";
 import { createUser, listUsersForAdmin } from "@/db/queries/users";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json, readJson } from "@/lib/http/respond";
 import { formatIssues } from "@/lib/schemas/entry";
 import { newUserSchema } from "@/lib/schemas/user";
+import { requireUser } from "@/server/auth/require";
+import { handle, json, readJson } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

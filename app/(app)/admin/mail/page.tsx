@@ -1,4 +1,4 @@
-import { rolePage } from "@/components/admin/role-page";
+import { rolePage } from "@/app/(app)/_components/role-page";
 import { MailAdmin } from "@/components/audit/mail-admin";
 
 export const metadata = { title: "Mail outbox" };

@@ -1,4 +1,4 @@
-import { rolePage } from "@/components/admin/role-page";
+import { rolePage } from "@/app/(app)/_components/role-page";
 import { RulesAdmin } from "@/components/safety/rules-admin";
 
 export const metadata = { title: "Facility rules" };

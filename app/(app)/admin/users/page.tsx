@@ -1,6 +1,6 @@
 import { UsersAdmin } from "@/components/admin/users-admin";
 import { NotAllowed } from "@/components/shell/not-allowed";
-import { currentUser } from "@/lib/auth/require";
+import { currentUser } from "@/server/auth/require";
 
 export const metadata = { title: "People and roles" };
 export const dynamic = "force-dynamic";

@@ -1,4 +1,4 @@
-import { RolePage } from "@/components/admin/role-page";
+import { RolePage } from "@/app/(app)/_components/role-page";
 import { AuditRecord } from "@/components/audit/audit-record";
 
 export const metadata = { title: "Audit a record" };

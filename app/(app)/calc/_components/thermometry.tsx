@@ -3,7 +3,6 @@
 // pasted sensor calibration table.
 import Link from "next/link";
 import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS } from "@/components/cryo/calc-kit";
-import { COLUMN_ORDER_OPTIONS, SENSOR_KIND_LABEL } from "@/components/cryo/calibration-schema";
 import { figure, temperatureText } from "@/components/cryo/derive";
 import {
   convertReading,
@@ -19,6 +18,7 @@ import {
   ptToleranceC,
   type SensorKind,
 } from "@/lib/cryo";
+import { COLUMN_ORDER_OPTIONS, SENSOR_KIND_LABEL } from "@/lib/schemas/calibration";
 
 const ISOTOPES = [
   { value: "he4", label: "⁴He (1.25–5.0 K)" },

@@ -3,11 +3,11 @@
 import { z } from "zod";
 import { getDb } from "@/db";
 import { getAttachment } from "@/db/queries/attachments";
-import { requireUser } from "@/lib/auth/require";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
-import { handle } from "@/lib/http/respond";
-import { fileStore } from "@/lib/storage/objects";
+import { requireUser } from "@/server/auth/require";
+import { handle } from "@/server/http/respond";
+import { fileStore } from "@/server/storage/objects";
 
 export const dynamic = "force-dynamic";
 

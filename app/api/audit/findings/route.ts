@@ -4,11 +4,11 @@
 import { z } from "zod";
 import { getDb } from "@/db";
 import { appendEntries } from "@/db/queries/entries";
-import { kickServerTick } from "@/lib/audit/server-tick";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json, readJson } from "@/lib/http/respond";
 import { parseEntry } from "@/lib/schemas/entry";
+import { requireUser } from "@/server/auth/require";
+import { handle, json, readJson } from "@/server/http/respond";
+import { kickServerTick } from "@/server/tick";
 
 export const dynamic = "force-dynamic";
 

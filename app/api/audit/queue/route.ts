@@ -1,9 +1,10 @@
 // The safety officer's queue: transfers, quenches and incidents not yet audited, with flags.
 import { getDb } from "@/db";
 import { auditQueue } from "@/db/queries/audit";
-import { ensureServerTick, keyDir } from "@/lib/audit/server-tick";
-import { requireUser } from "@/lib/auth/require";
-import { handle, json } from "@/lib/http/respond";
+import { checkpointKeys } from "@/server/audit/keys";
+import { requireUser } from "@/server/auth/require";
+import { handle, json } from "@/server/http/respond";
+import { ensureServerTick } from "@/server/tick";
 
 export const dynamic = "force-dynamic";
 
@@ -11,6 +12,6 @@ export async function GET() {
   return handle(async () => {
     await requireUser("safety_officer", "facility_admin");
     ensureServerTick();
-    return json({ items: await auditQueue(await getDb(), { keyDir: keyDir() }) });
+    return json({ items: await auditQueue(await getDb(), { keys: checkpointKeys() }) });
   });
 }

@@ -2,15 +2,17 @@
 import { getDb } from "@/db";
 import { auditTable } from "@/db/queries/audit";
 import { filterFromUrl } from "@/lib/audit/filter-params";
-import { keyDir } from "@/lib/audit/server-tick";
-import { requireUser } from "@/lib/auth/require";
-import { handle, json } from "@/lib/http/respond";
+import { checkpointKeys } from "@/server/audit/keys";
+import { requireUser } from "@/server/auth/require";
+import { handle, json } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 
 export async function GET(req: Request) {
   return handle(async () => {
     await requireUser("safety_officer", "facility_admin");
-    return json({ items: await auditTable(await getDb(), { ...filterFromUrl(req.url, "audit"), keyDir: keyDir() }) });
+    return json({
+      items: await auditTable(await getDb(), { ...filterFromUrl(req.url, "audit"), keys: checkpointKeys() }),
+    });
   });
 }

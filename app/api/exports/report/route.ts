@@ -5,12 +5,12 @@ import { auditTable } from "@/db/queries/audit";
 import { checkChain, listChains } from "@/db/queries/chain";
 import { getRules } from "@/db/queries/rules";
 import { filterFromUrl } from "@/lib/audit/filter-params";
-import { keyDir } from "@/lib/audit/server-tick";
-import { requireUser } from "@/lib/auth/require";
 import { auditReportPdf } from "@/lib/export/pdf";
 import { toReportRecord } from "@/lib/export/records";
-import { handle } from "@/lib/http/respond";
 import { deferral } from "@/lib/safety/cautions";
+import { checkpointKeys } from "@/server/audit/keys";
+import { requireUser } from "@/server/auth/require";
+import { handle } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 
@@ -28,11 +28,11 @@ export async function GET(req: Request) {
       kinds: f.kinds ?? ["transfer", "quench", "incident"],
       sort: "date",
       dir: "asc",
-      keyDir: keyDir(),
+      keys: checkpointKeys(),
     });
     const chains = [];
     for (const c of await listChains(db)) {
-      const r = await checkChain(db, { chain: c.chain, keyDir: keyDir() });
+      const r = await checkChain(db, { chain: c.chain, keys: checkpointKeys() });
       chains.push({
         chain: c.chain,
         ok: r.ok,

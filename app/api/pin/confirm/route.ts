@@ -1,12 +1,12 @@
 import { z } from "zod";
 import { getDb } from "@/db";
 import { signingSecrets } from "@/db/queries/runs";
-import { SignInError, verifySignIn } from "@/lib/auth/credentials";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json, readJson } from "@/lib/http/respond";
 import { SIGNATURE_MEANINGS } from "@/lib/schemas/entry";
 import { hmacHex, passwordProofKey, signingMessage } from "@/lib/signing/proof";
+import { SignInError, verifySignIn } from "@/server/auth/credentials";
+import { requireUser } from "@/server/auth/require";
+import { handle, json, readJson } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

@@ -5,13 +5,13 @@ import { createHash, randomUUID } from "node:crypto";
 import { getDb } from "@/db";
 import { getAttachment, saveAttachment } from "@/db/queries/attachments";
 import { changeRules, requireRules } from "@/db/queries/rules";
-import { requireUser } from "@/lib/auth/require";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
-import { handle, json } from "@/lib/http/respond";
-import { readUploadBytes, requireByteUpload, uploadHeader } from "@/lib/http/upload";
 import { checkRulesDocument, RULES_DOCUMENT_MAX_BYTES } from "@/lib/safety/rules-document";
-import { cleanFileName, fileStore, newStorageKey } from "@/lib/storage/objects";
+import { requireUser } from "@/server/auth/require";
+import { handle, json } from "@/server/http/respond";
+import { readUploadBytes, requireByteUpload, uploadHeader } from "@/server/http/upload";
+import { cleanFileName, fileStore, newStorageKey } from "@/server/storage/objects";
 
 export const dynamic = "force-dynamic";
 

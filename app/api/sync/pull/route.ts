@@ -2,12 +2,12 @@
 // role may read) and, when the tablet's copy is stale, the reference data. Never cached.
 import { z } from "zod";
 import { getDb } from "@/db";
-import { ensureServerTick } from "@/lib/audit/server-tick";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json } from "@/lib/http/respond";
 import { PULL_PAGE, type PullReply } from "@/lib/sync/protocol";
-import { pullPage } from "@/lib/sync/server";
+import { requireUser } from "@/server/auth/require";
+import { handle, json } from "@/server/http/respond";
+import { pullPage } from "@/server/sync/apply";
+import { ensureServerTick } from "@/server/tick";
 import { loadReference } from "./reference";
 
 export const dynamic = "force-dynamic";

@@ -2,11 +2,11 @@
 // entries and bytes (413), each entry validated and role-checked, the batch applied in one
 // transaction, idempotent by entry id. Answers accepted (id, seq, hash) and rejected (id, code, message).
 import { getDb } from "@/db";
-import { ensureServerTick, kickServerTick } from "@/lib/audit/server-tick";
-import { requireUser } from "@/lib/auth/require";
-import { handle, json, readJson } from "@/lib/http/respond";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
-import { applyPush } from "@/lib/sync/server";
+import { requireUser } from "@/server/auth/require";
+import { handle, json, readJson } from "@/server/http/respond";
+import { applyPush } from "@/server/sync/apply";
+import { ensureServerTick, kickServerTick } from "@/server/tick";
 
 export const dynamic = "force-dynamic";
 

@@ -1,10 +1,10 @@
 import { z } from "zod";
 import { getDb } from "@/db";
 import { changeUserAccess } from "@/db/queries/users";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json, readJson } from "@/lib/http/respond";
 import { formatIssues } from "@/lib/schemas/entry";
+import { requireUser } from "@/server/auth/require";
+import { handle, json, readJson } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

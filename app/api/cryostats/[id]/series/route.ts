@@ -2,9 +2,9 @@
 import { getDb } from "@/db";
 import { getCryostat } from "@/db/queries/cryostats";
 import { cryostatSeries } from "@/db/queries/series";
-import { requireUser } from "@/lib/auth/require";
 import { AppError } from "@/lib/errors";
-import { handle, json } from "@/lib/http/respond";
+import { requireUser } from "@/server/auth/require";
+import { handle, json } from "@/server/http/respond";
 
 export const dynamic = "force-dynamic";
 

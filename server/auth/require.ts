@@ -1,13 +1,13 @@
 // The one role check every route handler and server action makes first:
 // 401 when not signed in (or the session was ended), 403 when the role may not.
+import "server-only";
 import { getServerSession } from "next-auth";
 import { cache } from "react";
 import { getDb } from "@/db";
 import { getUser } from "@/db/queries/users";
-import type { Role } from "@/db/schema";
 import { AppError } from "@/lib/errors";
+import type { Role, SessionUser } from "@/lib/schemas/user";
 import { authOptions } from "./options";
-import type { SessionUser } from "./session-user";
 
 /** The signed-in user, looked up once per request; null when there is none or it was revoked. */
 export const currentUser = cache(async (): Promise<SessionUser | null> => {

@@ -1,5 +1,6 @@
 // Mapping typed results and AppErrors to HTTP responses (Web Response, no framework import),
 // and the checks every state-changing route handler makes on its request.
+import "server-only";
 import { AppError } from "@/lib/errors";
 
 const NO_STORE = { "Cache-Control": "no-store" };

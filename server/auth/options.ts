@@ -1,5 +1,6 @@
 // next-auth configuration: credentials sign-in (bcrypt), JWT sessions carrying id, role and the
 // user's session version. The session lasts one long shift so a tablet can work offline through it.
+import "server-only";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import { z } from "zod";

@@ -2,16 +2,11 @@
 // run the mail checks and delivery. Started lazily by the audit, rules and mail routes and nudged
 // after a sync (`kickServerTick`); each step is idempotent, so an extra run costs nothing.
 import "server-only";
-import { resolve } from "node:path";
 import { getDb } from "@/db";
 import { CHECKPOINT_INTERVAL_MS, signChainHeads } from "@/db/queries/chain";
 import { mailTick } from "@/db/queries/mail";
-import { env } from "@/lib/env";
-import { mailTransport } from "@/lib/mail/transport";
-
-export function keyDir(): string {
-  return resolve(env().RIMELOG_KEY_DIR);
-}
+import { checkpointKeys } from "@/server/audit/keys";
+import { mailTransport } from "@/server/mail/transport";
 
 type TickState = {
   timer?: ReturnType<typeof setInterval>;
@@ -26,7 +21,7 @@ export async function runServerTick(): Promise<void> {
   state.running = (async () => {
     try {
       const db = await getDb();
-      await signChainHeads(db, { keyDir: keyDir(), minAgeMs: CHECKPOINT_INTERVAL_MS });
+      await signChainHeads(db, { keys: checkpointKeys(), minAgeMs: CHECKPOINT_INTERVAL_MS });
       await mailTick(db, mailTransport());
     } catch (e) {
       console.error("[rimelog] server tick failed", e);

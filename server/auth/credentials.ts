@@ -1,9 +1,10 @@
 // Checking a sign-in. Repeated failures slow further attempts for that account (a growing delay,
 // never a lock-out that a stranger could impose on a colleague), and every attempt is recorded.
+import "server-only";
 import bcrypt from "bcryptjs";
 import type { Db } from "@/db/client";
 import { findUserByEmail, recentFailures, recordSignInAttempt } from "@/db/queries/users";
-import type { SessionUser } from "./session-user";
+import type { SessionUser } from "@/lib/schemas/user";
 
 export const FAILURE_WINDOW_MS = 15 * 60_000;
 export const FREE_FAILURES = 5;

@@ -1,9 +1,10 @@
 // Server side of sync, without HTTP: apply a pushed body for a user, and read a pull page.
 // Route handlers (app/api/sync) and the reliability tests call exactly these functions.
+import "server-only";
 import type { Db } from "@/db/client";
 import { appendEntries, pullEntries } from "@/db/queries/entries";
-import type { SessionUser } from "@/lib/auth/session-user";
-import { PULL_PAGE, type PushReply, parsePushBody } from "./protocol";
+import type { SessionUser } from "@/lib/schemas/user";
+import { PULL_PAGE, type PushReply, parsePushBody } from "@/lib/sync/protocol";
 
 export async function applyPush(db: Db, user: SessionUser, body: unknown): Promise<PushReply> {
   const { entries, rejected } = parsePushBody(body);

@@ -2,7 +2,7 @@
 // stage). One zod schema for the upload page and the route handler; the file's text travels
 // with it and is parsed again on the server with the same lib/cryo parser the preview used.
 import { z } from "zod";
-import type { SensorKind } from "@/lib/cryo";
+import type { CalibrationTable, SensorKind } from "@/lib/cryo";
 
 export const SENSOR_KIND_VALUES = ["ruthenium-oxide", "germanium", "silicon-diode", "carbon"] as const;
 
@@ -39,3 +39,18 @@ export const calibrationUploadSchema = z.object({
   attachmentId: z.uuid().optional(),
 });
 export type CalibrationUpload = z.infer<typeof calibrationUploadSchema>;
+
+/** An accepted calibration table as the server lists it. */
+export interface CalibrationRecord {
+  id: string;
+  cryostatId: string;
+  stage: string;
+  sensorKind: CalibrationTable["sensorKind"];
+  sensorLabel: string;
+  attachmentId: string | null;
+  fileName: string;
+  table: CalibrationTable;
+  acceptedBy: string;
+  acceptedByName: string;
+  acceptedAt: string;
+}

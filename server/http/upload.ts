@@ -2,6 +2,7 @@
 // the same-origin check (an Origin header is required: a cross-site form cannot send raw bytes
 // with it), the content type, text headers sent URI-encoded, and an early refusal on the declared
 // length before the body is read. What the bytes must be is the caller's check.
+import "server-only";
 import { AppError } from "@/lib/errors";
 import { isSameOrigin } from "./respond";
 

@@ -2,12 +2,11 @@
 // that renders the full message with nodemailer and sends it nowhere — the mail_outbox row is the
 // stored copy, which the admin reads in the app.
 import nodemailer, { type Transporter } from "nodemailer";
+import "server-only";
 import { env } from "@/lib/env";
+import type { MailTransport } from "@/lib/mail/messages";
 
-export type MailTransport = {
-  kind: "fake" | "smtp";
-  send(m: { from: string; to: string; subject: string; text: string }): Promise<{ messageId: string }>;
-};
+export type { MailTransport };
 
 export function fakeTransport(): MailTransport {
   const t: Transporter = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: "unix" });

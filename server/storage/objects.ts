@@ -1,6 +1,7 @@
 // The attachment storage layer: a small object-store interface and its local filesystem
 // implementation under RIMELOG_STORAGE_DIR, plus what a stored file may be (type decided by its
 // magic bytes, never by the name or the client's word) and how large. Server only.
+import "server-only";
 import { randomUUID } from "node:crypto";
 import { mkdir, readFile, rename, writeFile } from "node:fs/promises";
 import { join, resolve } from "node:path";

@@ -3,7 +3,7 @@
 import type { ComponentType, ReactNode } from "react";
 import { NotAllowed } from "@/components/shell/not-allowed";
 import type { Role } from "@/lib/auth/permissions";
-import { currentUser } from "@/lib/auth/require";
+import { currentUser } from "@/server/auth/require";
 
 export async function RolePage({
   roles,
