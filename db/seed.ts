@@ -6,7 +6,13 @@ import bcrypt from "bcryptjs";
 import { count } from "drizzle-orm";
 import { he4PressureFromTemperature } from "@/lib/cryo";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
-import type { EntryInput, EntryKind } from "@/lib/schemas/entry";
+import {
+  type EntryInput,
+  type EntryKind,
+  type PayloadInput,
+  parseEntry,
+  type SignatureMeaning,
+} from "@/lib/schemas/entry";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import { recordHash } from "@/lib/sync/hash";
 import type { Db } from "./client";
@@ -117,14 +123,16 @@ function rng(seed: number) {
   };
 }
 
-type Draft = {
+/** One demo entry, its payload typed by its kind as a tablet hands it over (parsed in toEntry). */
+type DraftOf<K extends EntryKind> = {
   at: number;
   cryostatId: string | null;
-  kind: EntryKind;
-  payload: Record<string, unknown>;
+  kind: K;
+  payload: PayloadInput<K>;
   author: string;
   runId?: string;
 };
+type Draft = { [K in EntryKind]: DraftOf<K> }[EntryKind];
 
 const HOUR = 3_600_000;
 const DAY = 24 * HOUR;
@@ -439,8 +447,9 @@ function round(x: number, digits: number) {
   return Math.round(x * f) / f;
 }
 
+/** A draft as the entry a push would carry, parsed as a push is (defaults filled, bad demo data refused). */
 function toEntry(d: Draft): EntryInput {
-  return {
+  const parsed = parseEntry({
     id: randomUUID(),
     cryostatId: d.cryostatId,
     runId: d.runId ?? null,
@@ -451,7 +460,9 @@ function toEntry(d: Draft): EntryInput {
     recordedAt: new Date(Math.round(d.at)).toISOString(),
     supersedes: null,
     reason: null,
-  };
+  });
+  if (!parsed.ok) throw new Error(`Demo ${d.kind} entry is not valid: ${parsed.problems.join("; ")}`);
+  return parsed.entry;
 }
 
 /** Signatures: handovers handed over by the author and accepted by the recipient; transfers signed as performed. */
@@ -459,12 +470,11 @@ function withSignatures(list: EntryInput[]): EntryInput[] {
   const out: EntryInput[] = [];
   for (const e of list) {
     out.push(e);
-    const to = (e.payload as { toUserId?: string }).toUserId;
-    const signers: (readonly [string | undefined, string, number])[] =
+    const signers: (readonly [string | undefined, SignatureMeaning, number])[] =
       e.kind === "handover"
         ? [
             [e.authorId, "handed_over", 60_000],
-            [to, "accepted", 300_000],
+            [e.payload.toUserId, "accepted", 300_000],
           ]
         : e.kind === "transfer"
           ? [[e.authorId, "performed", 120_000]]
@@ -472,16 +482,15 @@ function withSignatures(list: EntryInput[]): EntryInput[] {
     for (const [signer, meaning, delay] of signers) {
       const u = DEMO_USERS.find((x) => x.id === signer);
       if (!u) continue;
-      out.push({
-        ...toEntry({
+      out.push(
+        toEntry({
           at: Date.parse(e.recordedAt) + delay,
           cryostatId: e.cryostatId,
           kind: "signature",
           author: u.id,
-          payload: {},
+          payload: { signedEntryId: e.id, meaning, signerName: u.name, signerRole: u.role, signedHash: recordHash(e) },
         }),
-        payload: { signedEntryId: e.id, meaning, signerName: u.name, signerRole: u.role, signedHash: recordHash(e) },
-      });
+      );
     }
   }
   return out;

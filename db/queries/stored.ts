@@ -2,13 +2,18 @@
 import type { EntryRow } from "@/db/schema";
 import type { StoredEntry } from "@/lib/schemas/entry";
 
+/**
+ * A database row as the protocol's entry. Every row passed parseEntry (its kind's payload schema)
+ * before appendEntries wrote it, and the table refuses updates, so kind and payload agree: the one
+ * place the row's untyped JSON is taken as its kind's payload.
+ */
 export function toStoredRow(row: EntryRow): StoredEntry {
   return {
     id: row.id,
     chain: row.chain,
     cryostatId: row.cryostatId,
     runId: row.runId,
-    kind: row.kind as StoredEntry["kind"],
+    kind: row.kind,
     payload: row.payload,
     authorId: row.authorId,
     deviceId: row.deviceId,
@@ -19,5 +24,5 @@ export function toStoredRow(row: EntryRow): StoredEntry {
     receivedAt: row.receivedAt.toISOString(),
     prevHash: row.prevHash,
     hash: row.hash,
-  };
+  } as StoredEntry;
 }

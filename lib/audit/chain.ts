@@ -3,10 +3,11 @@
 // inserted, deleted, reordered, truncated, or the whole tail recomputed after a change (which only
 // a signed checkpoint can catch). Pure: the rows come from the database, the checkpoints from the
 // database and the key directory, already checked against the server's public key.
-import type { StoredEntry } from "@/lib/schemas/entry";
+import type { ServerFields, UncheckedEntry } from "@/lib/schemas/entry";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
 
-export type ChainRow = Omit<StoredEntry, "chain"> & { chain?: string };
+/** A row as the database holds it: verified by its hashes here, not assumed to match its schema. */
+export type ChainRow = UncheckedEntry & Omit<ServerFields, "chain"> & { chain?: string };
 export type ChainHead = { seq: number; hash: string };
 export type TrustedCheckpoint = { seq: number; hash: string; signedAt: string };
 

@@ -183,16 +183,63 @@ export const entryInputSchema = z.object({
   supersedes: z.uuid().nullable().default(null),
   reason: z.string().max(1000).nullable().default(null),
 });
-export type EntryInput = z.infer<typeof entryInputSchema>;
 
-/** An entry as stored by the server. */
-export type StoredEntry = EntryInput & {
-  seq: number;
-  receivedAt: string;
-  prevHash: string;
-  hash: string;
-  chain: string;
-};
+/** A kind's payload as parsed and stored (defaults filled in). */
+export type Payload<K extends EntryKind> = z.output<(typeof payloadSchemas)[K]>;
+/** A kind's payload as a form hands it over (before defaults). */
+export type PayloadInput<K extends EntryKind> = z.input<(typeof payloadSchemas)[K]>;
+
+/** The envelope fields every entry carries, whatever its kind. */
+type Envelope = Omit<z.output<typeof entryInputSchema>, "kind" | "payload">;
+/** What the server adds once an entry is in the log. */
+export type ServerFields = { seq: number; receivedAt: string; prevHash: string; hash: string; chain: string };
+
+/**
+ * The envelope as checked before its payload: any payload object. What the hash reads
+ * (lib/sync/hash.ts) and what a raw database row or a forged test entry is; not yet known to
+ * match its kind's schema.
+ */
+export type UncheckedEntry = z.output<typeof entryInputSchema>;
+
+/**
+ * An entry of the given kind(s), its payload typed by that kind's schema: a union over the kinds,
+ * so testing `e.kind` narrows `e.payload`. (Written as a mapped type indexed by K so that generic
+ * code building `{ kind: k, payload: p }` for one K type-checks.)
+ */
+export type EntryInputOf<K extends EntryKind = EntryKind> = {
+  [P in K]: Envelope & { kind: P; payload: Payload<P> };
+}[K];
+/** What a tablet sends: the entry as it was written locally (a union over kinds). */
+export type EntryInput = EntryInputOf;
+
+/** An entry as stored by the server, of the given kind(s); a union over all kinds by default. */
+export type Entry<K extends EntryKind = EntryKind> = { [P in K]: EntryInputOf<P> & ServerFields }[K];
+/** An entry as stored by the server (any kind). */
+export type StoredEntry = Entry;
+
+/** Anything that carries a kind and the payload of that kind (input, stored or tablet entries). */
+type Kinded = { kind: EntryKind; payload: unknown };
+
+/** Type guard: `e` is an entry of `kind` (its payload typed accordingly). */
+export function isKind<E extends Kinded, K extends E["kind"]>(e: E, kind: K): e is Extract<E, { kind: K }> {
+  return e.kind === kind;
+}
+
+/** Type guard over several kinds. */
+export function isKindOf<E extends Kinded, K extends E["kind"]>(
+  e: E,
+  kinds: readonly K[],
+): e is Extract<E, { kind: K }> {
+  return (kinds as readonly string[]).includes(e.kind);
+}
+
+/** The payload of `e` if it is an entry of `kind`, else undefined (also for a missing entry). */
+export function payloadOf<E extends Kinded, K extends E["kind"]>(
+  e: E | null | undefined,
+  kind: K,
+): Extract<E, { kind: K }>["payload"] | undefined {
+  return e && isKind(e, kind) ? e.payload : undefined;
+}
 
 /**
  * Validate the envelope and the kind's payload together. Returns the parsed entry or a list of
@@ -205,7 +252,9 @@ export function parseEntry(raw: unknown): { ok: true; entry: EntryInput } | { ok
   const body = schema.safeParse(env.data.payload);
   if (!body.success) return { ok: false, problems: formatIssues(body.error, "payload") };
   if (env.data.supersedes && !env.data.reason) return { ok: false, problems: ["reason: a correction needs a reason"] };
-  return { ok: true, entry: { ...env.data, payload: body.data as Record<string, unknown> } };
+  // The payload was parsed by the schema of env.data.kind, so kind and payload agree (TypeScript
+  // cannot follow that through the lookup by a kind known only at run time).
+  return { ok: true, entry: { ...env.data, payload: body.data } as EntryInput };
 }
 
 export function formatIssues(error: z.ZodError, prefix?: string): string[] {

@@ -3,14 +3,14 @@
 // ordinary log entry through the outbox and is re-checked by the server.
 
 import type { Role } from "@/lib/auth/permissions";
-import type { EntryInput, SignatureMeaning } from "@/lib/schemas/entry";
+import type { EntryInputOf, Payload, SignatureMeaning, UncheckedEntry } from "@/lib/schemas/entry";
 import { recordHash } from "@/lib/sync/hash";
 import type { ConfirmedBy, SigningSubject } from "./proof";
 
 export type Signer = { id: string; name: string; role: Role };
 
 /** What a signature binds: the exact record (id + recordHash), the meaning and the signer. */
-export function signingSubject(target: EntryInput, signer: Signer, meaning: SignatureMeaning): SigningSubject {
+export function signingSubject(target: UncheckedEntry, signer: Signer, meaning: SignatureMeaning): SigningSubject {
   return { signedEntryId: target.id, signedHash: recordHash(target), meaning, signerId: signer.id };
 }
 
@@ -21,7 +21,7 @@ export function signaturePayload(
   confirmedBy: ConfirmedBy,
   proof: string,
   image?: string,
-) {
+): Payload<"signature"> {
   return {
     signedEntryId: subject.signedEntryId,
     meaning: subject.meaning,
@@ -35,7 +35,7 @@ export function signaturePayload(
 }
 
 export function signatureEntry(args: {
-  target: EntryInput;
+  target: UncheckedEntry;
   subject: SigningSubject;
   signer: Signer;
   deviceId: string;
@@ -43,7 +43,7 @@ export function signatureEntry(args: {
   confirmedBy: ConfirmedBy;
   proof: string;
   recordedAt?: string;
-}): EntryInput {
+}): EntryInputOf<"signature"> {
   const { target, subject, signer } = args;
   return {
     id: crypto.randomUUID(),

@@ -4,7 +4,7 @@
 import { sha256 } from "@noble/hashes/sha2.js";
 import { bytesToHex, utf8ToBytes } from "@noble/hashes/utils.js";
 import canonicalize from "canonicalize";
-import type { EntryInput } from "@/lib/schemas/entry";
+import type { UncheckedEntry } from "@/lib/schemas/entry";
 
 /** Strings normalised to NFC so that the same text typed on two tablets hashes the same. */
 export function normalise(value: unknown): unknown {
@@ -29,7 +29,7 @@ export function sha256Hex(text: string): string {
 }
 
 /** The content of an entry that its author wrote (what a signature binds to). */
-export function recordContent(e: EntryInput) {
+export function recordContent(e: UncheckedEntry) {
   return {
     id: e.id,
     cryostatId: e.cryostatId,
@@ -45,7 +45,7 @@ export function recordContent(e: EntryInput) {
 }
 
 /** recordHash: SHA-256 of the canonical JSON of the record content. */
-export function recordHash(e: EntryInput): string {
+export function recordHash(e: UncheckedEntry): string {
   return sha256Hex(canonicalJson(recordContent(e)));
 }
 
@@ -59,11 +59,11 @@ export function genesisHash(chain: string): string {
 }
 
 /** The text a chain link hashes: prevHash + canonical entry including its server sequence number. */
-export function linkText(prevHash: string, e: EntryInput, seq: number, receivedAt: string): string {
+export function linkText(prevHash: string, e: UncheckedEntry, seq: number, receivedAt: string): string {
   return prevHash + canonicalJson({ ...recordContent(e), seq, receivedAt });
 }
 
 /** Chain link: SHA-256 of linkText (the server computes the same with node's native SHA-256). */
-export function linkHash(prevHash: string, e: EntryInput, seq: number, receivedAt: string): string {
+export function linkHash(prevHash: string, e: UncheckedEntry, seq: number, receivedAt: string): string {
   return sha256Hex(linkText(prevHash, e, seq, receivedAt));
 }

@@ -3,13 +3,13 @@ import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { appendEntries, chainEntries, pullEntries } from "@/db/queries/entries";
 import { DEMO_USERS } from "@/db/seed";
-import type { EntryInput } from "@/lib/schemas/entry";
+import type { EntryInputOf, UncheckedEntry } from "@/lib/schemas/entry";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
 import { freshDb } from "./fixture";
 
 const tomasz = DEMO_USERS.find((u) => u.id === "u-tomasz")!;
 
-function note(text: string, over: Partial<EntryInput> = {}): EntryInput {
+function note(text: string, over: Partial<Omit<UncheckedEntry, "kind" | "payload">> = {}): EntryInputOf<"note"> {
   return {
     id: randomUUID(),
     cryostatId: "wren",

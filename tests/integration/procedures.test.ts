@@ -12,7 +12,7 @@ import { users } from "@/db/schema";
 import { DEMO_USERS } from "@/db/seed";
 import { DEFAULT_TEMPLATES } from "@/db/seed-templates";
 import { deriveRun } from "@/lib/procedures/state";
-import type { EntryInput } from "@/lib/schemas/entry";
+import type { EntryInput, EntryInputOf, EntryKind, Payload, UncheckedEntry } from "@/lib/schemas/entry";
 import { templateInputSchema } from "@/lib/schemas/run";
 import { derivePinKey, formatPinRecord, hmacHex, signingMessage } from "@/lib/signing/proof";
 import { signatureEntry, signingSubject } from "@/lib/signing/sign";
@@ -23,7 +23,8 @@ const priya = DEMO_USERS.find((u) => u.id === "u-priya")!;
 const ines = DEMO_USERS.find((u) => u.id === "u-ines")!;
 
 let clock = Date.parse("2026-12-01T08:00:00Z");
-function entry(over: Partial<EntryInput> & Pick<EntryInput, "kind" | "payload">): EntryInput {
+type Envelope = Partial<Omit<UncheckedEntry, "kind" | "payload">>;
+function entry<K extends EntryKind>(over: Envelope & { kind: K; payload: Payload<K> }): EntryInputOf<K> {
   clock += 60_000;
   return {
     id: randomUUID(),
@@ -37,7 +38,7 @@ function entry(over: Partial<EntryInput> & Pick<EntryInput, "kind" | "payload">)
     ...over,
   };
 }
-const step = (runId: string, payload: Record<string, unknown>, over: Partial<EntryInput> = {}) =>
+const step = (runId: string, payload: Payload<"run.step">, over: Envelope = {}) =>
   entry({ runId, kind: "run.step", payload, ...over });
 
 async function cooldown(db: Db) {
@@ -61,6 +62,7 @@ async function pinSign(db: Db, target: EntryInput, signer: typeof tomasz) {
     .set({ pinHash: formatPinRecord(1000, salt, key) })
     .where(eq(users.id, signer.id));
   const subject = signingSubject(target, signer, "verified");
+  clock += 60_000;
   return signatureEntry({
     target,
     subject,
@@ -68,7 +70,7 @@ async function pinSign(db: Db, target: EntryInput, signer: typeof tomasz) {
     deviceId: target.deviceId,
     confirmedBy: "pin",
     proof: hmacHex(key, signingMessage(subject)),
-    recordedAt: new Date((clock += 60_000)).toISOString(),
+    recordedAt: new Date(clock).toISOString(),
   });
 }
 
@@ -143,7 +145,7 @@ describe("procedure runs", () => {
       kind: "reading",
       quantity: "Mixture tank pressure before condensing",
       unit: "mbar",
-    };
+    } as const;
     const res = await appendEntries(db, tomasz, [
       step(id, { ...base, value: 640, outOfRange: false }),
       step(id, { ...base, value: 806, outOfRange: true, comment: "x" }),

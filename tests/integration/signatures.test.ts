@@ -10,7 +10,14 @@ import { appendEntries } from "@/db/queries/entries";
 import { latestTemplates } from "@/db/queries/templates";
 import { users } from "@/db/schema";
 import { DEMO_USERS } from "@/db/seed";
-import type { EntryInput, SignatureMeaning } from "@/lib/schemas/entry";
+import type {
+  EntryInput,
+  EntryInputOf,
+  EntryKind,
+  Payload,
+  SignatureMeaning,
+  UncheckedEntry,
+} from "@/lib/schemas/entry";
 import {
   derivePinKey,
   formatPinRecord,
@@ -28,7 +35,9 @@ const tomasz = DEMO_USERS.find((u) => u.id === "u-tomasz")!;
 const priya = DEMO_USERS.find((u) => u.id === "u-priya")!;
 const grace = DEMO_USERS.find((u) => u.id === "u-grace")!;
 
-function entry(over: Partial<EntryInput> & Pick<EntryInput, "kind" | "payload">): EntryInput {
+function entry<K extends EntryKind>(
+  over: Partial<Omit<UncheckedEntry, "kind" | "payload">> & { kind: K; payload: Payload<K> },
+): EntryInputOf<K> {
   return {
     id: randomUUID(),
     cryostatId: "heron",
@@ -93,7 +102,11 @@ async function pinSignature(
 
 describe("signatures", () => {
   it("recordHash is SHA-256 of the RFC 8785 canonical JSON (checked with canonicalize + node:crypto directly)", () => {
-    const e = entry({ kind: "note", payload: { text: "Cafe\u0301 ok", b: 1, a: [2, 1] } });
+    // Extra payload fields on purpose (hashing sees any JSON): not an entry the schema would pass.
+    const e: UncheckedEntry = {
+      ...entry({ kind: "note", payload: { text: "" } }),
+      payload: { text: "Cafe\u0301 ok", b: 1, a: [2, 1] },
+    };
     const content = {
       id: e.id,
       cryostatId: e.cryostatId,
@@ -150,7 +163,7 @@ describe("signatures", () => {
       payload: { ...good.payload, confirmedBy: undefined, confirmProof: undefined },
     };
     // The proof covers the meaning too: the same proof under another meaning is refused.
-    const reused = { ...good, id: randomUUID(), payload: { ...good.payload, meaning: "performed" } };
+    const reused = { ...good, id: randomUUID(), payload: { ...good.payload, meaning: "performed" as const } };
     const res = await appendEntries(db, tomasz, [bare, reused]);
     expect(res.rejected.map((r) => r.code)).toEqual(["forbidden:signature", "forbidden:signature"]);
 
@@ -191,7 +204,7 @@ describe("signatures", () => {
     const sig = await pinSignature(db, hold, tomasz, "audited");
     expect((await appendEntries(db, tomasz, [sig])).rejected[0]?.code).toBe("forbidden:signature");
     const asGrace = await pinSignature(db, hold, grace, "verified");
-    const claimed = { ...asGrace, payload: { ...asGrace.payload, signerRole: "technician" } };
+    const claimed = { ...asGrace, payload: { ...asGrace.payload, signerRole: "technician" as const } };
     expect((await appendEntries(db, grace, [claimed])).rejected[0]?.code).toBe("forbidden:signature");
     // And nobody can push a signature in someone else's name.
     const forPriya = await pinSignature(db, hold, priya, "verified");
