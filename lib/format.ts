@@ -1,5 +1,13 @@
 // Display formatting shared by every screen: temperatures in the unit a fridge person reads,
 // times in the room's local time, entry kinds in plain words.
+import type { CryostatState } from "@/lib/schemas/cryostat";
+import type { EntryKind, SignatureMeaning } from "@/lib/schemas/entry";
+
+/** A label from a map with one entry per known key; a key the map lacks (or an inherited one) gives undefined. */
+function labelIn(map: Readonly<Record<string, string>>, key: string): string | undefined {
+  return Object.hasOwn(map, key) ? map[key] : undefined;
+}
+
 export function formatTemperature(value: number, unit: string): string {
   const k = unit === "mK" ? value / 1000 : value;
   if (unit !== "K" && unit !== "mK") return `${trim(value)} ${unit}`;
@@ -42,7 +50,7 @@ export function formatDate(iso: string): string {
   return DATE_TIME.format(new Date(iso));
 }
 
-const KIND_LABEL: Record<string, string> = {
+const KIND_LABEL: Record<EntryKind, string> = {
   note: "Note",
   reading: "Reading",
   "helium.level": "Helium level",
@@ -63,10 +71,10 @@ const KIND_LABEL: Record<string, string> = {
 };
 
 export function kindLabel(kind: string): string {
-  return KIND_LABEL[kind] ?? kind.replace(/[._]/g, " ").replace(/^\w/, (c) => c.toUpperCase());
+  return labelIn(KIND_LABEL, kind) ?? kind.replace(/[._]/g, " ").replace(/^\w/, (c) => c.toUpperCase());
 }
 
-const STATE_LABEL: Record<string, string> = {
+const STATE_LABEL: Record<CryostatState, string> = {
   warm: "Warm",
   cooling: "Cooling down",
   cold: "Cold",
@@ -74,10 +82,10 @@ const STATE_LABEL: Record<string, string> = {
   maintenance: "Open for work",
 };
 export function stateLabel(state: string | null): string {
-  return state ? (STATE_LABEL[state] ?? state) : "No state recorded";
+  return state ? (labelIn(STATE_LABEL, state) ?? state) : "No state recorded";
 }
 
-const MEANING_LABEL: Record<string, string> = {
+const MEANING_LABEL: Record<SignatureMeaning, string> = {
   performed: "Performed",
   verified: "Verified",
   handed_over: "Handed over",
@@ -85,5 +93,5 @@ const MEANING_LABEL: Record<string, string> = {
   audited: "Audited",
 };
 export function meaningLabel(meaning: string): string {
-  return MEANING_LABEL[meaning] ?? meaning;
+  return labelIn(MEANING_LABEL, meaning) ?? meaning;
 }

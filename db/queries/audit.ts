@@ -6,24 +6,20 @@ import "server-only";
 import { and, asc, desc, eq, gte, inArray, lte, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { cryostats, type EntryRow, entries, facilityRules, signatures, users } from "@/db/schema";
-import { type QuenchFigures, quenchFigures, type TransferFigures, transferFigures } from "@/lib/audit/figures";
-import { type AuditRecord, type Flag, type FlagCode, flagsFor } from "@/lib/audit/flags";
-import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
+import { quenchFigures, transferFigures } from "@/lib/audit/figures";
+import { type AuditRecord, type FlagCode, flagsFor } from "@/lib/audit/flags";
+import { type EntryInput, isKind, payloadOf } from "@/lib/schemas/entry";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import { chainOf } from "@/lib/sync/hash";
 import { chainBreaks } from "./chain";
-import { type LogCheck, ofKind, type Problem } from "./log-check";
+import { type Check, forKinds, type LogCheck } from "./log-check";
 import { toStoredRow } from "./stored";
 
 export const AUDITED_KINDS = ["transfer", "quench", "incident"] as const;
 
 /** A finding must name a stored transfer, quench or incident of the same cryostat. */
-export async function auditFindingCheck(
-  db: Db,
-  e: EntryInput,
-  batch: Map<string, EntryInput>,
-): Promise<Problem | null> {
-  const targetId = (e.payload as { targetEntryId: string }).targetEntryId;
+export const auditFindingCheck: Check<EntryInput<"audit.finding">> = async (db, e, batch) => {
+  const targetId = e.payload.targetEntryId;
   const inBatch = batch.get(targetId);
   const [row] = inBatch
     ? []
@@ -41,15 +37,11 @@ export async function auditFindingCheck(
   if (target.cryostatId !== e.cryostatId)
     return { code: "bad_request:audit", message: "A finding belongs to the same cryostat as the record it audits." };
   return null;
-}
+};
 
 /** An "audited" signature signs a finding, and only with the officer's PIN or password (R5). */
-export async function auditSignatureCheck(
-  db: Db,
-  e: EntryInput,
-  batch: Map<string, EntryInput>,
-): Promise<Problem | null> {
-  const p = e.payload as { signedEntryId: string; meaning: string; confirmedBy?: string; confirmProof?: string };
+export const auditSignatureCheck: Check<EntryInput<"signature">> = async (db, e, batch) => {
+  const p = e.payload;
   if (p.meaning !== "audited") return null;
   const inBatch = batch.get(p.signedEntryId);
   const [row] = inBatch
@@ -67,11 +59,11 @@ export async function auditSignatureCheck(
       message: "An audit signature must be confirmed with the officer's PIN or password.",
     };
   return null;
-}
+};
 
 export const auditChecks: LogCheck[] = [
-  { when: ofKind("audit.finding"), check: auditFindingCheck },
-  { when: ofKind("signature"), check: auditSignatureCheck },
+  forKinds(["audit.finding"], auditFindingCheck),
+  forKinds(["signature"], auditSignatureCheck),
 ];
 
 import type { CheckpointKeys } from "@/lib/audit/checkpoint";
@@ -92,22 +84,25 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
   const people = new Map((await db.select({ id: users.id, name: users.name }).from(users)).map((u) => [u.id, u.name]));
   const cryos = new Map((await db.select().from(cryostats)).map((c) => [c.id, c]));
   const sigRows = await db
-    .select({ s: signatures, role: users.role, name: users.name, payload: entries.payload })
+    .select({ s: signatures, role: users.role, name: users.name, entry: entries })
     .from(signatures)
     .leftJoin(users, eq(users.id, signatures.signerId))
     .leftJoin(entries, eq(entries.id, signatures.entryId));
-  const sigView = (x: (typeof sigRows)[number]): SignatureView => ({
-    entryId: x.s.entryId,
-    signedEntryId: x.s.signedEntryId,
-    meaning: x.s.meaning,
-    signerId: x.s.signerId,
-    signerName: (x.payload as { signerName?: string } | null)?.signerName ?? x.name ?? x.s.signerId,
-    signerRole: (x.payload as { signerRole?: string } | null)?.signerRole ?? x.role ?? "",
-    signedAt: x.s.signedAt,
-    signedHash: x.s.signedHash,
-    confirmedBy: (x.payload as { confirmedBy?: string } | null)?.confirmedBy ?? null,
-    image: (x.payload as { image?: string } | null)?.image ?? null,
-  });
+  const sigView = (x: (typeof sigRows)[number]): SignatureView => {
+    const p = x.entry ? payloadOf(toStoredRow(x.entry), "signature") : undefined;
+    return {
+      entryId: x.s.entryId,
+      signedEntryId: x.s.signedEntryId,
+      meaning: x.s.meaning,
+      signerId: x.s.signerId,
+      signerName: p?.signerName ?? x.name ?? x.s.signerId,
+      signerRole: p?.signerRole ?? x.role ?? "",
+      signedAt: x.s.signedAt,
+      signedHash: x.s.signedHash,
+      confirmedBy: p?.confirmedBy ?? null,
+      image: p?.image ?? null,
+    };
+  };
   const sigsBy = new Map<string, SignatureView[]>();
   for (const x of sigRows) {
     const list = sigsBy.get(x.s.signedEntryId) ?? [];
@@ -120,13 +115,9 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
     .where(and(eq(entries.kind, "audit.finding"), inArray(sql`${entries.payload}->>'targetEntryId'`, ids)))
     .orderBy(asc(entries.seq));
   const findingsBy = new Map<string, FindingView[]>();
-  for (const f of findingRows) {
-    const p = f.payload as {
-      targetEntryId: string;
-      verdict: "acceptable" | "needs_action";
-      findings: string;
-      flags: string[];
-    };
+  for (const f of findingRows.map(toStoredRow)) {
+    if (!isKind(f, "audit.finding")) continue;
+    const p = f.payload;
     const list = findingsBy.get(p.targetEntryId) ?? [];
     list.push({
       id: f.id,
@@ -134,57 +125,40 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
       findings: p.findings,
       flags: p.flags,
       authorName: people.get(f.authorId) ?? f.authorId,
-      recordedAt: f.recordedAt.toISOString(),
+      recordedAt: f.recordedAt,
       signatures: sigsBy.get(f.id) ?? [],
     });
     findingsBy.set(p.targetEntryId, list);
   }
   const breaks = await chainBreaks(db, { keys });
   // Previous transfer per cryostat, for the boil-off in between.
-  const transfers = await db
-    .select({
-      id: entries.id,
-      cryostatId: entries.cryostatId,
-      recordedAt: entries.recordedAt,
-      payload: entries.payload,
-    })
-    .from(entries)
-    .where(eq(entries.kind, "transfer"))
-    .orderBy(asc(entries.recordedAt));
+  const transfers = (
+    await db.select().from(entries).where(eq(entries.kind, "transfer")).orderBy(asc(entries.recordedAt))
+  )
+    .map(toStoredRow)
+    .filter((t) => isKind(t, "transfer"));
 
   return rows.map((row) => {
     const entry = toStoredRow(row);
     const sigs = sigsBy.get(row.id) ?? [];
     const findings = findingsBy.get(row.id) ?? [];
     const signedFindings = findings.filter((f) => f.signatures.some((s) => s.meaning === "audited"));
-    const rec: AuditRecord = {
-      id: row.id,
-      kind: row.kind,
-      cryostatId: row.cryostatId,
-      seq: row.seq,
-      payload: row.payload,
-      signatures: sigs.filter((s) => s.meaning !== "audited"),
-    };
+    const rec: AuditRecord = { ...entry, signatures: sigs.filter((s) => s.meaning !== "audited") };
     const flags = rules ? flagsFor(rec, { rules, chainBreakSeq: breaks.get(chainOf(row.cryostatId)) ?? null }) : [];
     const c = row.cryostatId ? cryos.get(row.cryostatId) : undefined;
     let figures: AuditItem["figures"] = null;
     try {
-      if (row.kind === "transfer") {
+      if (entry.kind === "transfer") {
         const mine = transfers.filter((t) => t.cryostatId === row.cryostatId);
         const idx = mine.findIndex((t) => t.id === row.id);
         const prev = idx > 0 ? mine[idx - 1] : undefined;
-        figures = transferFigures(row.payload as never, {
+        figures = transferFigures(entry.payload, {
           calibration: c?.config.reservoir?.calibration,
-          previous: prev
-            ? {
-                levelAfterPercent: (prev.payload as { levelAfterPercent: number }).levelAfterPercent,
-                at: prev.recordedAt.toISOString(),
-              }
-            : null,
-          at: row.recordedAt.toISOString(),
+          previous: prev ? { levelAfterPercent: prev.payload.levelAfterPercent, at: prev.recordedAt } : null,
+          at: entry.recordedAt,
         });
-      } else if (row.kind === "quench") {
-        figures = quenchFigures(row.payload as never, {
+      } else if (entry.kind === "quench") {
+        figures = quenchFigures(entry.payload, {
           calibration: c?.config.reservoir?.calibration,
           inductanceH: c?.config.magnet?.inductanceH,
           roomFreeVolumeM3: rules?.roomFreeVolumeM3,
@@ -197,9 +171,7 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
       entry,
       cryostatName: c?.name ?? row.cryostatId ?? "Facility",
       authorName: people.get(row.authorId) ?? row.authorId,
-      peopleNames: ((row.payload as { peoplePresent?: string[] }).peoplePresent ?? []).map(
-        (id) => people.get(id) ?? id,
-      ),
+      peopleNames: (payloadOf(entry, "transfer")?.peoplePresent ?? []).map((id) => people.get(id) ?? id),
       flags,
       signatures: sigs,
       findings,
@@ -272,9 +244,7 @@ export async function auditTable(db: Db, f: TransferFilter & { keys: CheckpointK
   if (f.personId) {
     const pid = f.personId;
     items = items.filter(
-      (i) =>
-        i.entry.authorId === pid ||
-        ((i.entry.payload as { peoplePresent?: string[] }).peoplePresent ?? []).includes(pid),
+      (i) => i.entry.authorId === pid || (payloadOf(i.entry, "transfer")?.peoplePresent ?? []).includes(pid),
     );
   }
   if (f.flag) items = items.filter((i) => i.flags.some((x) => x.code === f.flag));

@@ -4,6 +4,8 @@ import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { type Cryostat, cryostats, entries, users } from "@/db/schema";
 import type { CryostatState } from "@/lib/schemas/cryostat";
+import { type EntryKind, isKindOf, payloadOf } from "@/lib/schemas/entry";
+import { toStoredRow } from "./stored";
 
 export async function listCryostats(db: Db): Promise<Cryostat[]> {
   return db.select().from(cryostats).orderBy(asc(cryostats.name));
@@ -24,29 +26,16 @@ export type CryostatOverview = Cryostat & {
   onShift: { name: string; since: string } | null;
 };
 
-type Latest = {
-  cryostatId: string | null;
-  kind: string;
-  payload: Record<string, unknown>;
-  recordedAt: Date;
-  authorId: string;
-};
-
 /** The latest entry per (cryostat, key) for the given kinds; `key` splits readings by stage. */
-async function latestBy(db: Db, kinds: string[], byStage: boolean): Promise<Latest[]> {
+async function latestBy<K extends EntryKind>(db: Db, kinds: readonly K[], byStage: boolean) {
   const stageKey = sql`${entries.payload}->>'stage'`;
   const on = byStage ? [entries.cryostatId, stageKey] : [entries.cryostatId];
-  return db
-    .selectDistinctOn(on, {
-      cryostatId: entries.cryostatId,
-      kind: entries.kind,
-      payload: entries.payload,
-      recordedAt: entries.recordedAt,
-      authorId: entries.authorId,
-    })
+  const rows = await db
+    .selectDistinctOn(on)
     .from(entries)
-    .where(and(inArray(entries.kind, kinds), byStage ? sql`${entries.payload} ? 'stage'` : undefined))
+    .where(and(inArray(entries.kind, [...kinds]), byStage ? sql`${entries.payload} ? 'stage'` : undefined))
     .orderBy(...on, desc(entries.recordedAt));
+  return rows.map(toStoredRow).filter((e) => isKindOf(e, kinds));
 }
 
 export async function roomOverview(db: Db): Promise<CryostatOverview[]> {
@@ -65,39 +54,32 @@ export async function roomOverview(db: Db): Promise<CryostatOverview[]> {
     db.select({ id: users.id, name: users.name }).from(users),
   ]);
   const nameOf = new Map(people.map((p) => [p.id, p.name]));
-  const of = (rows: Latest[], id: string) => rows.filter((r) => r.cryostatId === id);
+  const of = <T extends { cryostatId: string | null }>(rows: T[], id: string) =>
+    rows.filter((r) => r.cryostatId === id);
   return list.map((c) => {
     const s = of(states, c.id)[0];
     const h = of(helium, c.id)[0];
     const f = of(fields, c.id)[0];
     const l = of(last, c.id)[0];
     const ho = of(handovers, c.id)[0];
-    const hp = h?.payload as { percent?: number; levelAfterPercent?: number } | undefined;
-    const fp = f?.payload as { fieldT: number; currentA: number; persistent: boolean } | undefined;
     const order = c.config.stages.map((st) => st.key);
     return {
       ...c,
-      state: (s?.payload as { state?: CryostatState } | undefined)?.state ?? null,
+      state: s?.payload.state ?? null,
       stages: of(stages, c.id)
-        .map((r) => {
-          const p = r.payload as { stage: string; value: number; unit: string };
-          return { stage: p.stage, value: p.value, unit: p.unit, at: r.recordedAt.toISOString() };
-        })
+        .map((r) => ({ stage: r.payload.stage ?? "", value: r.payload.value, unit: r.payload.unit, at: r.recordedAt }))
         .sort((a, b) => order.indexOf(a.stage) - order.indexOf(b.stage)),
-      helium: h && hp ? { percent: hp.percent ?? hp.levelAfterPercent ?? 0, at: h.recordedAt.toISOString() } : null,
-      field:
-        f && fp
-          ? { fieldT: fp.fieldT, currentA: fp.currentA, persistent: fp.persistent, at: f.recordedAt.toISOString() }
-          : null,
-      lastEntry: l
-        ? { kind: l.kind, at: l.recordedAt.toISOString(), authorName: nameOf.get(l.authorId) ?? l.authorId }
-        : null,
-      onShift: ho
+      helium: h
         ? {
-            name: nameOf.get((ho.payload as { toUserId?: string }).toUserId ?? ho.authorId) ?? "",
-            since: ho.recordedAt.toISOString(),
+            percent: payloadOf(h, "helium.level")?.percent ?? payloadOf(h, "transfer")?.levelAfterPercent ?? 0,
+            at: h.recordedAt,
           }
         : null,
+      field: f
+        ? { fieldT: f.payload.fieldT, currentA: f.payload.currentA, persistent: f.payload.persistent, at: f.recordedAt }
+        : null,
+      lastEntry: l ? { kind: l.kind, at: l.recordedAt, authorName: nameOf.get(l.authorId) ?? l.authorId } : null,
+      onShift: ho ? { name: nameOf.get(ho.payload.toUserId ?? ho.authorId) ?? "", since: ho.recordedAt } : null,
     };
   });
 }

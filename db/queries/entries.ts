@@ -5,7 +5,7 @@ import { and, desc, eq, getTableColumns, gt, inArray, lt, notInArray, sql } from
 import type { Db } from "@/db/client";
 import { chainHeads, cryostats, devices, entries, users } from "@/db/schema";
 import { mayRead, maySign, mayWrite, readableKindsExcluded } from "@/lib/auth/permissions";
-import type { EntryInput } from "@/lib/schemas/entry";
+import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
 import { chainOf, genesisHash, linkText, recordHash } from "@/lib/sync/hash";
 import type { Accepted, PushReply as PushResult, Rejected } from "@/lib/sync/protocol";
@@ -72,6 +72,7 @@ export async function appendEntries(
     const heads = new Map((await t.select().from(chainHeads)).map((h) => [h.chain, h.hash]));
     const touched = new Map<string, { seq: number; hash: string }>();
     const rows: (typeof entries.$inferInsert)[] = [];
+    const written: StoredEntry[] = []; // the same rows as the projectors read them
     const seenInBatch = new Map<string, EntryInput>();
     const receivedAt = new Date();
 
@@ -120,7 +121,7 @@ export async function appendEntries(
         continue;
       }
       if (e.kind === "signature") {
-        const meaning = (e.payload as { meaning: Parameters<typeof maySign>[1] }).meaning;
+        const meaning = e.payload.meaning;
         if (!maySign(actor.role, meaning)) {
           reject("forbidden:signature", `A ${actor.role.replace("_", " ")} may not sign as "${meaning}".`);
           continue;
@@ -143,6 +144,7 @@ export async function appendEntries(
       touched.set(chain, { seq, hash });
       seenInBatch.set(e.id, e);
       rows.push({ ...e, recordedAt: new Date(e.recordedAt), chain, seq, receivedAt, prevHash, hash });
+      written.push({ ...e, chain, seq, receivedAt: at, prevHash, hash });
       accepted.push({ id: e.id, seq, hash, prevHash, receivedAt: at });
     }
 
@@ -160,7 +162,7 @@ export async function appendEntries(
         .values({ chain, ...head })
         .onConflictDoUpdate({ target: chainHeads.chain, set: head });
     }
-    if (rows.length) await runProjectors(t, rows);
+    if (written.length) await runProjectors(t, written);
     for (const d of deviceIds) {
       await t
         .insert(devices)

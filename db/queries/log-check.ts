@@ -1,20 +1,37 @@
 // The shape of a check a pushed entry must pass against the stored log (signature binding,
 // corrections, procedure runs, audit findings). Each check names the entries it looks at, so an
 // entry no check looks at (a reading, a note: most of a long push) is accepted without a query.
-// Types only: the checks live with their feature (runs.ts, audit.ts, projections.ts).
+// The checks live with their feature (runs.ts, audit.ts, projections.ts); here only their shape.
 import type { Db } from "@/db/client";
-import type { EntryInput } from "@/lib/schemas/entry";
+import { type EntryInput, type EntryKind, isKindOf, type StoredEntry } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
 
 export type Problem = { code: string; message: string };
 
+/** A check of the entries of some kinds: it is handed the entry typed by its kind. */
+export type Check<E extends EntryInput = EntryInput> = (
+  db: Db,
+  e: E,
+  batch: Map<string, EntryInput>,
+  user: SessionUser,
+) => Promise<Problem | null>;
+
 export type LogCheck = {
   /** True for the entries this check looks at; the others are not passed to it. */
   when: (e: EntryInput) => boolean;
-  check: (db: Db, e: EntryInput, batch: Map<string, EntryInput>, user: SessionUser) => Promise<Problem | null>;
+  check: Check;
 };
 
-export const ofKind =
-  (...kinds: string[]) =>
-  (e: EntryInput): boolean =>
-    kinds.includes(e.kind);
+/** A check that looks at the entries of the given kinds only (each typed by its kind). */
+export function forKinds<K extends EntryKind>(
+  kinds: readonly K[],
+  check: Check<Extract<EntryInput, { kind: K }>>,
+): LogCheck {
+  return {
+    when: (e) => isKindOf(e, kinds),
+    check: async (db, e, batch, user) => (isKindOf(e, kinds) ? check(db, e, batch, user) : null),
+  };
+}
+
+/** Updates a projection (runs, signatures, mail) in the transaction that writes the entries it is handed. */
+export type Projector = (db: Db, rows: StoredEntry[]) => Promise<void>;

@@ -17,6 +17,9 @@ import {
   type MailTransport,
   quenchMail,
 } from "@/lib/mail/messages";
+import { payloadOf } from "@/lib/schemas/entry";
+import type { Projector } from "./log-check";
+import { toStoredRow } from "./stored";
 
 /** Queue a message; false when that event's message was already queued. */
 export async function enqueueMail(db: Db, m: MailMessage): Promise<boolean> {
@@ -63,19 +66,11 @@ async function cryostatName(db: Db, id: string | null | undefined): Promise<stri
   return c?.name ?? id;
 }
 
-type Row = typeof entries.$inferInsert;
-
 /** Projector: mail for a quench (to the safety officers and admins) and for a needs-action finding. */
-export async function mailProjector(db: Db, rows: Row[]): Promise<void> {
+export const mailProjector: Projector = async (db, rows) => {
   for (const r of rows) {
     if (r.kind === "quench") {
-      const p = r.payload as {
-        at: string;
-        fieldT: number;
-        heliumLostLitres?: number;
-        oxygenLowestPercent?: number;
-        actions: string;
-      };
+      const p = r.payload;
       await enqueueMail(
         db,
         quenchMail({
@@ -90,8 +85,8 @@ export async function mailProjector(db: Db, rows: Row[]): Promise<void> {
           to: await emailsOf(db, { roles: ["safety_officer", "facility_admin"] }),
         }),
       );
-    } else if (r.kind === "audit.finding" && (r.payload as { verdict?: string }).verdict === "needs_action") {
-      const p = r.payload as { targetEntryId: string; findings: string; flags: string[] };
+    } else if (r.kind === "audit.finding" && r.payload.verdict === "needs_action") {
+      const p = r.payload;
       const [target] = await db.select().from(entries).where(eq(entries.id, p.targetEntryId));
       await enqueueMail(
         db,
@@ -99,7 +94,7 @@ export async function mailProjector(db: Db, rows: Row[]): Promise<void> {
           findingId: r.id,
           targetKind: target?.kind ?? "record",
           cryostatName: await cryostatName(db, target?.cryostatId ?? r.cryostatId),
-          targetAt: (target?.recordedAt ?? r.recordedAt).toISOString(),
+          targetAt: target ? target.recordedAt.toISOString() : r.recordedAt,
           officer: await nameOf(db, r.authorId),
           findings: p.findings,
           flags: p.flags,
@@ -108,7 +103,7 @@ export async function mailProjector(db: Db, rows: Row[]): Promise<void> {
       );
     }
   }
-}
+};
 
 /** Handovers to a named person that nobody has accepted yet (recent ones only). */
 export async function queueWaitingHandovers(
@@ -131,21 +126,22 @@ export async function queueWaitingHandovers(
     )
     .orderBy(asc(entries.seq));
   let queued = 0;
-  for (const h of list) {
+  for (const h of list.map(toStoredRow)) {
+    const p = payloadOf(h, "handover");
+    if (!p?.toUserId) continue;
     const [acc] = await db
       .select({ id: signatures.entryId })
       .from(signatures)
       .where(and(eq(signatures.signedEntryId, h.id), eq(signatures.meaning, "accepted")))
       .limit(1);
     if (acc) continue;
-    const p = h.payload as { toUserId: string; note: string };
     const ok = await enqueueMail(
       db,
       handoverWaitingMail({
         handoverId: h.id,
         cryostatName: await cryostatName(db, h.cryostatId),
         from: await nameOf(db, h.authorId),
-        at: h.recordedAt.toISOString(),
+        at: h.recordedAt,
         note: p.note,
         to: await emailsOf(db, { ids: [p.toUserId] }),
       }),
@@ -184,19 +180,20 @@ export async function queueHeliumForecasts(db: Db, { now = new Date() } = {}): P
     if (!levels.length) continue;
     const points: { timeMs: number; litres: number }[] = [];
     try {
-      if (lastTransfer)
+      const filled = lastTransfer ? payloadOf(toStoredRow(lastTransfer), "transfer") : undefined;
+      if (lastTransfer && filled)
         points.push({
           timeMs: lastTransfer.recordedAt.getTime(),
-          litres: litresFromLevel(
-            (lastTransfer.payload as { levelAfterPercent: number }).levelAfterPercent,
-            reservoir.calibration,
-          ),
+          litres: litresFromLevel(filled.levelAfterPercent, reservoir.calibration),
         });
-      for (const l of levels)
-        points.push({
-          timeMs: l.recordedAt.getTime(),
-          litres: litresFromLevel((l.payload as { percent: number }).percent, reservoir.calibration),
-        });
+      for (const l of levels) {
+        const level = payloadOf(toStoredRow(l), "helium.level");
+        if (level)
+          points.push({
+            timeMs: l.recordedAt.getTime(),
+            litres: litresFromLevel(level.percent, reservoir.calibration),
+          });
+      }
       const rate = boilOffRate(points);
       const minLitres = litresFromLevel(minimumPercent, reservoir.calibration);
       const f = forecastMinimumLevel(rate, minLitres, now.getTime());

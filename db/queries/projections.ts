@@ -4,31 +4,28 @@
 // looks at) and projectors.
 import { eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { type EntryRow, entries, signatures } from "@/db/schema";
-import type { EntryInput } from "@/lib/schemas/entry";
+import { entries, signatures } from "@/db/schema";
+import { type EntryInput, isKind, type StoredEntry } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
 import { recordHash } from "@/lib/sync/hash";
 import { auditChecks } from "./audit";
-import { type LogCheck, ofKind, type Problem } from "./log-check";
+import { type Check, forKinds, type LogCheck, type Problem, type Projector } from "./log-check";
 import { mailProjector } from "./mail";
 import { projectRuns, runChecks } from "./runs";
 import { toStoredRow } from "./stored";
 
 export type { Problem };
 
-type Check = LogCheck["check"];
-type Projector = (db: Db, rows: (typeof entries.$inferInsert)[]) => Promise<void>;
-
 async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Promise<EntryInput | undefined> {
   const inBatch = batch.get(id);
   if (inBatch) return inBatch;
   const [row] = await db.select().from(entries).where(eq(entries.id, id));
-  return row ? toStoredRow(row as EntryRow) : undefined;
+  return row ? toStoredRow(row) : undefined;
 }
 
 /** A signature must name a stored record and carry the hash of exactly that record's content. */
-const signatureBinding: Check = async (db, e, batch, user) => {
-  const p = e.payload as { signedEntryId: string; signedHash: string; signerRole: string };
+const signatureBinding: Check<EntryInput<"signature">> = async (db, e, batch, user) => {
+  const p = e.payload;
   if (p.signerRole !== user.role)
     return { code: "forbidden:signature", message: "The signer's role does not match the signed-in user's role." };
   const target = await findEntry(db, p.signedEntryId, batch);
@@ -59,16 +56,15 @@ const correctionTarget: Check = async (db, e, batch) => {
 };
 
 const checks: LogCheck[] = [
-  { when: ofKind("signature"), check: signatureBinding },
+  forKinds(["signature"], signatureBinding),
   { when: (e) => e.supersedes !== null, check: correctionTarget },
   ...runChecks,
   ...auditChecks,
 ];
 const projectors: Projector[] = [
   async (db, rows) => {
-    const sigs = rows.filter((r) => r.kind === "signature");
-    for (const r of sigs) {
-      const p = r.payload as { signedEntryId: string; meaning: string; signedHash: string };
+    for (const r of rows.filter((x) => isKind(x, "signature"))) {
+      const p = r.payload;
       await db
         .insert(signatures)
         .values({
@@ -77,7 +73,7 @@ const projectors: Projector[] = [
           signerId: r.authorId,
           meaning: p.meaning,
           signedHash: p.signedHash,
-          signedAt: r.recordedAt.toISOString(),
+          signedAt: r.recordedAt,
         })
         .onConflictDoNothing();
     }
@@ -106,6 +102,6 @@ export async function validateAgainstLog(
   return null;
 }
 
-export async function runProjectors(db: Db, rows: (typeof entries.$inferInsert)[]): Promise<void> {
+export async function runProjectors(db: Db, rows: StoredEntry[]): Promise<void> {
   for (const p of projectors) await p(db, rows);
 }

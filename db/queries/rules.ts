@@ -49,7 +49,7 @@ export async function getRules(db: Db): Promise<RulesInForce | null> {
   };
 }
 
-/** Values in force, or an error a screen can show when the admin has never set them. */
+/** Values in force, or an error a screen can show when the admin has not set them yet. */
 export async function requireRules(db: Db): Promise<RulesInForce> {
   const r = await getRules(db);
   if (!r) throw new AppError("not_found", "rules", "The facility admin has not set the facility rules yet.");

@@ -5,16 +5,11 @@ import { and, desc, eq, inArray, or } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { cryostats, entries, procedureTemplates, type Run, runs, users } from "@/db/schema";
 import { readingOutOfRange } from "@/lib/procedures/state";
-import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
-import type { RunStartPayload, RunStepPayload } from "@/lib/schemas/run";
+import { type EntryInput, isKind, payloadOf, type StoredEntry } from "@/lib/schemas/entry";
 import type { TemplateStep } from "@/lib/schemas/template";
-import type { SessionUser } from "@/lib/schemas/user";
 import { verifyConfirmation } from "@/lib/signing/proof";
-import { type LogCheck, ofKind, type Problem } from "./log-check";
+import { type Check, forKinds, type LogCheck, type Problem, type Projector } from "./log-check";
 import { toStoredRow } from "./stored";
-
-type Check = LogCheck["check"];
-type Row = typeof entries.$inferInsert;
 
 async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Promise<EntryInput | undefined> {
   const inBatch = batch.get(id);
@@ -26,8 +21,8 @@ async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Pr
 const bad = (message: string): Problem => ({ code: "bad_request:run", message });
 
 /** run.start pins an existing template version that fits the cryostat; its id is the run's id. */
-const runStartCheck: Check = async (db, e) => {
-  const p = e.payload as RunStartPayload;
+const runStartCheck: Check<EntryInput<"run.start">> = async (db, e) => {
+  const p = e.payload;
   // The start entry's own id is the run's id (the tablet store assigns ids on write, so runId may be left empty).
   if (e.runId !== null && e.runId !== e.id) return bad("A run's start entry carries no runId, or its own id.");
   if (!e.cryostatId) return bad("A run belongs to a cryostat.");
@@ -40,19 +35,19 @@ const runStartCheck: Check = async (db, e) => {
 };
 
 /** Step, abort and completion entries must name a started run of the same cryostat and a real step. */
-const runEntryCheck: Check = async (db, e, batch) => {
+const runEntryCheck: Check<EntryInput<"run.step" | "run.abort" | "run.complete">> = async (db, e, batch) => {
   if (!e.runId) return bad("A procedure entry must name its run.");
   const start = await findEntry(db, e.runId, batch);
-  if (!start || start.kind !== "run.start")
+  if (!start || !isKind(start, "run.start"))
     return bad("The run this entry belongs to has not reached the server; send its start first.");
   if (start.cryostatId !== e.cryostatId) return bad("A procedure entry must belong to the run's cryostat.");
   if (e.kind !== "run.step") return null;
-  const sp = start.payload as RunStartPayload;
+  const sp = start.payload;
   const [t] = await db
     .select({ steps: procedureTemplates.steps })
     .from(procedureTemplates)
     .where(eq(procedureTemplates.id, sp.templateId));
-  const p = e.payload as RunStepPayload;
+  const p = e.payload;
   const step = t?.steps.find((s: TemplateStep) => s.id === p.stepId);
   if (!step) return bad(`Step "${p.stepId}" is not in version ${sp.templateVersion} of this procedure.`);
   if (step.kind !== p.kind) return bad(`Step "${p.stepId}" is a ${step.kind} step, not ${p.kind}.`);
@@ -70,8 +65,7 @@ const runEntryCheck: Check = async (db, e, batch) => {
   }
   if (e.supersedes) {
     const original = await findEntry(db, e.supersedes, batch);
-    const op = original?.payload as { stepId?: string } | undefined;
-    if (original && (original.kind !== "run.step" || op?.stepId !== p.stepId))
+    if (original && payloadOf(original, "run.step")?.stepId !== p.stepId)
       return bad("A correction of a step must replace an entry of the same step.");
   }
   return null;
@@ -82,16 +76,10 @@ const runEntryCheck: Check = async (db, e, batch) => {
  * procedure records must say it (R5). Older records signed before PINs existed stay readable and
  * are shown as "identity not confirmed".
  */
-const signatureConfirmation: Check = async (db, e, batch) => {
-  const p = e.payload as {
-    signedEntryId: string;
-    signedHash: string;
-    meaning: "performed";
-    confirmedBy?: "pin" | "password";
-    confirmProof?: string;
-  };
+const signatureConfirmation: Check<EntryInput<"signature">> = async (db, e, batch) => {
+  const p = e.payload;
   const target = await findEntry(db, p.signedEntryId, batch);
-  const needsProof = Boolean(target && target.kind.startsWith("run."));
+  const needsProof = Boolean(target?.kind.startsWith("run."));
   if (!p.confirmedBy || !p.confirmProof) {
     return needsProof
       ? {
@@ -120,16 +108,16 @@ const signatureConfirmation: Check = async (db, e, batch) => {
 };
 
 export const runChecks: LogCheck[] = [
-  { when: ofKind("run.start"), check: runStartCheck },
-  { when: ofKind("run.step", "run.abort", "run.complete"), check: runEntryCheck },
-  { when: ofKind("signature"), check: signatureConfirmation },
+  forKinds(["run.start"], runStartCheck),
+  forKinds(["run.step", "run.abort", "run.complete"], runEntryCheck),
+  forKinds(["signature"], signatureConfirmation),
 ];
 
 /** The `runs` projection: one row per run, its end written by the first abort or completion. */
-export async function projectRuns(db: Db, rows: Row[]): Promise<void> {
+export const projectRuns: Projector = async (db, rows) => {
   for (const r of rows) {
     if (r.kind === "run.start" && r.cryostatId) {
-      const p = r.payload as RunStartPayload;
+      const p = r.payload;
       await db
         .insert(runs)
         .values({
@@ -139,17 +127,17 @@ export async function projectRuns(db: Db, rows: Row[]): Promise<void> {
           title: p.title,
           status: "open",
           startedBy: r.authorId,
-          startedAt: r.recordedAt.toISOString(),
+          startedAt: r.recordedAt,
         })
         .onConflictDoNothing();
     } else if ((r.kind === "run.abort" || r.kind === "run.complete") && r.runId) {
       await db
         .update(runs)
-        .set({ status: r.kind === "run.abort" ? "aborted" : "completed", endedAt: r.recordedAt.toISOString() })
+        .set({ status: r.kind === "run.abort" ? "aborted" : "completed", endedAt: r.recordedAt })
         .where(and(eq(runs.id, r.runId), eq(runs.status, "open")));
     }
   }
-}
+};
 
 export type RunListItem = Run & { templateKey: string; templateVersion: number; startedByName: string };
 

@@ -2,6 +2,7 @@
 // rules. A flag is raised (returned) or not (null); the audit queue, the transfer table, the CSV
 // and the PDF report all show the same flags, computed by `flagsFor`.
 import { transferEfficiency } from "@/lib/cryo";
+import type { EntryFields } from "@/lib/schemas/entry";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 
 export const FLAG_CODES = [
@@ -33,13 +34,12 @@ export type Flag = { code: FlagCode; label: string; detail: string };
 
 export type AuditKind = "transfer" | "quench" | "incident";
 
-/** What the flags look at: the record, the signatures on it, and the state of its chain. */
-export type AuditRecord = {
-  id: string;
-  kind: AuditKind | string;
-  cryostatId: string | null;
+/**
+ * What the flags look at: the record (kind and payload typed together, so testing the kind types
+ * the payload), the signatures on it, and the state of its chain.
+ */
+export type AuditRecord = EntryFields<"id" | "cryostatId"> & {
   seq: number;
-  payload: Record<string, unknown>;
   /** Signatures on this record (meaning, signer), not counting the officer's own audit signature. */
   signatures: { meaning: string; signerId: string }[];
 };
@@ -57,7 +57,6 @@ export type AuditContext = {
  */
 export const DEFAULT_EFFICIENCY_BAND = { minPercent: 40, maxPercent: 95 } as const;
 
-type P = Record<string, unknown>;
 const num = (v: unknown): number | undefined => (typeof v === "number" && Number.isFinite(v) ? v : undefined);
 const round = (x: number, d = 1) => Number(x.toFixed(d));
 const flag = (code: FlagCode, detail: string): Flag => ({ code, label: FLAG_LABEL[code], detail });
@@ -65,7 +64,7 @@ const flag = (code: FlagCode, detail: string): Flag => ({ code, label: FLAG_LABE
 /** Two-person rule on, and fewer than two distinct people recorded as present. */
 export function singlePersonFlag(r: AuditRecord, { rules }: AuditContext): Flag | null {
   if (r.kind !== "transfer" || !rules.twoPersonTransfer) return null;
-  const people = new Set(((r.payload as P).peoplePresent as string[] | undefined) ?? []);
+  const people = new Set(r.payload.peoplePresent);
   if (people.size >= 2) return null;
   return flag(
     "single_person",
@@ -75,15 +74,13 @@ export function singlePersonFlag(r: AuditRecord, { rules }: AuditContext): Flag 
 
 export function ppeFlag(r: AuditRecord): Flag | null {
   if (r.kind !== "transfer") return null;
-  return (r.payload as P).ppeConfirmed === true
-    ? null
-    : flag("ppe_not_confirmed", "Protective equipment was not confirmed.");
+  return r.payload.ppeConfirmed === true ? null : flag("ppe_not_confirmed", "Protective equipment was not confirmed.");
 }
 
 /** The oxygen monitor was not checked, or no lowest reading was written down. */
 export function oxygenCheckFlag(r: AuditRecord): Flag | null {
   if (r.kind !== "transfer") return null;
-  const p = r.payload as P;
+  const p = r.payload;
   const checked = p.oxygenMonitorChecked === true;
   const reading = num(p.oxygenLowestPercent);
   if (checked && reading !== undefined) return null;
@@ -96,7 +93,7 @@ export function oxygenCheckFlag(r: AuditRecord): Flag | null {
 /** A recorded oxygen reading (transfer or quench) below the facility's alarm level. */
 export function oxygenAlarmFlag(r: AuditRecord, { rules }: AuditContext): Flag | null {
   if (r.kind !== "transfer" && r.kind !== "quench") return null;
-  const reading = num((r.payload as P).oxygenLowestPercent);
+  const reading = num(r.payload.oxygenLowestPercent);
   if (reading === undefined || reading >= rules.oxygenAlarmPercent) return null;
   return flag(
     "oxygen_below_alarm",
@@ -106,7 +103,7 @@ export function oxygenAlarmFlag(r: AuditRecord, { rules }: AuditContext): Flag |
 
 export function gainedMoreThanTakenFlag(r: AuditRecord): Flag | null {
   if (r.kind !== "transfer") return null;
-  const p = r.payload as P;
+  const p = r.payload;
   const gained = num(p.gainedLitres);
   const taken = num(p.suppliedLitres);
   if (gained === undefined || taken === undefined || gained <= taken) return null;
@@ -116,7 +113,7 @@ export function gainedMoreThanTakenFlag(r: AuditRecord): Flag | null {
 /** Efficiency (gained / taken) outside the facility's plausible band. Not raised when gained > taken (its own flag). */
 export function efficiencyFlag(r: AuditRecord, { rules }: AuditContext): Flag | null {
   if (r.kind !== "transfer") return null;
-  const p = r.payload as P;
+  const p = r.payload;
   const gained = num(p.gainedLitres);
   const taken = num(p.suppliedLitres);
   if (gained === undefined || taken === undefined || gained > taken) return null;
@@ -136,7 +133,7 @@ export function levelBelowMinimumFlag(r: AuditRecord, { rules }: AuditContext): 
   if (r.kind !== "transfer" && r.kind !== "quench") return null;
   const min = r.cryostatId ? rules.minHeliumPercent[r.cryostatId] : undefined;
   if (min === undefined) return null;
-  const p = r.payload as P;
+  const p = r.payload;
   const levels = [num(p.levelBeforePercent), num(p.levelAfterPercent)].filter((x): x is number => x !== undefined);
   const lowest = levels.length ? Math.min(...levels) : undefined;
   if (lowest === undefined || lowest >= min) return null;

@@ -4,6 +4,7 @@
 import type { QuenchFigures, TransferFigures } from "@/lib/audit/figures";
 import type { AuditItem, SignatureView } from "@/lib/audit/types";
 import { kindLabel } from "@/lib/format";
+import { payloadOf } from "@/lib/schemas/entry";
 import type { CsvRecord } from "./csv";
 import type { ReportRecord, ReportSignature } from "./pdf";
 
@@ -41,10 +42,10 @@ export function toCsvRecord(i: AuditItem): CsvRecord {
 }
 
 export function toReportRecord(i: AuditItem): ReportRecord {
-  const p = i.entry.payload as Record<string, unknown>;
   const lines: string[] = [];
   const figures: string[] = [];
   if (i.entry.kind === "transfer") {
+    const p = i.entry.payload;
     lines.push(
       `Supply dewar ${String(p.supplyDewar)}; people present: ${i.peopleNames.join(", ") || "none recorded"}.`,
       `PPE confirmed: ${p.ppeConfirmed ? "yes" : "NO"}. Oxygen monitor checked: ${p.oxygenMonitorChecked ? "yes" : "NO"}; lowest reading ${num(p.oxygenLowestPercent, "%")}.`,
@@ -63,6 +64,7 @@ export function toReportRecord(i: AuditItem): ReportRecord {
         );
     }
   } else if (i.entry.kind === "quench") {
+    const p = i.entry.payload;
     lines.push(
       `Quench at ${String(p.at)} at ${num(p.fieldT, "T")}${typeof p.currentA === "number" ? `, ${p.currentA} A` : ""}; level ${num(p.levelBeforePercent, "%")} -> ${num(p.levelAfterPercent, "%")}; lowest oxygen ${num(p.oxygenLowestPercent, "%")}.`,
     );
@@ -77,7 +79,8 @@ export function toReportRecord(i: AuditItem): ReportRecord {
         `Estimate: room oxygen about ${(q.oxygenEstimateFraction * 100).toFixed(1)} % if the gas mixed into the room.`,
       );
   } else {
-    lines.push(`${String(p.title)}: ${String(p.description)}`, `Actions: ${String(p.actions || "none recorded")}`);
+    const p = payloadOf(i.entry, "incident");
+    lines.push(`${String(p?.title)}: ${String(p?.description)}`, `Actions: ${String(p?.actions || "none recorded")}`);
   }
   return {
     id: i.entry.id,

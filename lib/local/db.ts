@@ -4,15 +4,17 @@
 // yet written into their entries, photo blobs, and sync metadata (device id, pull cursor, last
 // success, the offline session) all live here.
 import Dexie, { type DexieOptions, type Table } from "dexie";
-import type { EntryInput } from "@/lib/schemas/entry";
-import type { SessionUser } from "@/lib/schemas/user";
+import type { CryostatConfig, CryostatKind } from "@/lib/schemas/cryostat";
+import type { EntryInput, EntryInputOf, EntryKind } from "@/lib/schemas/entry";
+import type { TemplateInput } from "@/lib/schemas/run";
+import type { PublicUser, SessionUser } from "@/lib/schemas/user";
 import type { Accepted } from "@/lib/sync/protocol";
 
 export type SyncState = "pending" | "synced" | "rejected";
 export type Rejection = { code: string; message: string; at: string };
 
-/** An entry on the tablet: what its author wrote, plus what the server added once it arrived. */
-export type StoredLocalEntry = EntryInput & {
+/** What the tablet keeps beside an entry: its send state and what the server added once it arrived. */
+export type LocalFields = {
   sync: SyncState;
   /** Server order and chain link, null until the server has acknowledged the entry. */
   seq: number | null;
@@ -22,6 +24,12 @@ export type StoredLocalEntry = EntryInput & {
   /** Why the server refused it (kept on the tablet and shown; never dropped silently). */
   rejection: Rejection | null;
 };
+
+/**
+ * An entry on the tablet: what its author wrote, plus what the server added once it arrived. Of
+ * the given kind(s), its payload typed by the kind's schema; a union over all kinds by default.
+ */
+export type StoredLocalEntry<K extends EntryKind = EntryKind> = EntryInputOf<K> & LocalFields;
 
 /** One unsent entry. Rows leave the outbox only when the server has answered for the entry (S3). */
 export type OutboxRow = {
@@ -58,8 +66,25 @@ export type LocalAttachment = {
   rejection: Rejection | null;
 };
 
-/** Reference data rows are stored as the server sent them (typed where they are read). */
+/** Reference data rows are written as the server sent them (lib/sync/protocol.ts ReferenceData)… */
 export type RefRow = { id: string } & Record<string, unknown>;
+
+/**
+ * … and read as the rows the server sends (app/api/sync/pull/reference.ts): a cryostats row over
+ * JSON (dates as ISO strings), its config typed by the shared schema.
+ */
+export type LocalCryostat = {
+  id: string;
+  name: string;
+  kind: CryostatKind;
+  location: string;
+  config: CryostatConfig;
+  updatedAt: string;
+};
+/** A procedure template version as pulled (every version: a run pins the one it started from). */
+export type LocalTemplate = TemplateInput & { id: string; version: number; createdBy: string; createdAt: string };
+/** A person this user may see (db/queries/users.ts listPublicUsers). */
+export type LocalUser = PublicUser;
 
 export type LocalSession = { user: SessionUser; confirmedAt: string };
 
@@ -123,9 +148,9 @@ export class RimelogDexie extends Dexie {
   outbox!: Table<OutboxRow, number>;
   receipts!: Table<ReceiptRow, number>;
   attachments!: Table<LocalAttachment, string>;
-  cryostats!: Table<RefRow, string>;
-  templates!: Table<RefRow, string>;
-  users!: Table<RefRow, string>;
+  cryostats!: Table<LocalCryostat, string, RefRow>;
+  templates!: Table<LocalTemplate, string, RefRow>;
+  users!: Table<LocalUser, string, RefRow>;
   meta!: Table<MetaRow, string>;
 
   constructor(name = LOCAL_DB_NAME, options: DexieOptions = {}) {

@@ -3,29 +3,10 @@
 // (a local write, a sync). `undefined` means "still loading"; the UI never waits for the network.
 import { useLiveQuery } from "dexie-react-hooks";
 import { useEffect, useMemo, useState } from "react";
-import type { CryostatConfig } from "@/lib/schemas/cryostat";
-import type { TemplateStep } from "@/lib/schemas/template";
-import { localDb, type StoredLocalEntry } from "./db";
+import { type LocalCryostat, type LocalTemplate, type LocalUser, localDb, type StoredLocalEntry } from "./db";
 import { type EntryFilter, queryEntries, queryEntry, type SyncSummary, syncSummary } from "./queries";
 
-export type LocalCryostat = {
-  id: string;
-  name: string;
-  kind: string;
-  location: string;
-  config: CryostatConfig;
-  updatedAt: string;
-};
-export type LocalTemplate = {
-  id: string;
-  key: string;
-  version: number;
-  title: string;
-  purpose: string;
-  cryostatKinds: string[];
-  steps: TemplateStep[];
-};
-export type LocalUser = { id: string; name: string; role: string; active: boolean };
+export type { LocalCryostat, LocalTemplate, LocalUser } from "./db";
 
 /** Pulled + local entries (each with `sync`: pending / synced / rejected), newest first. */
 export function useEntries(filter: EntryFilter = {}): StoredLocalEntry[] | undefined {
@@ -39,35 +20,33 @@ export function useEntry(id: string | undefined): StoredLocalEntry | null | unde
 
 export function useCryostats(): LocalCryostat[] | undefined {
   return useLiveQuery(
-    async () =>
-      ((await localDb().cryostats.toArray()) as unknown as LocalCryostat[]).sort((a, b) =>
-        a.name.localeCompare(b.name),
-      ),
+    async () => (await localDb().cryostats.toArray()).sort((a, b) => a.name.localeCompare(b.name)),
     [],
   );
 }
 
 export function useCryostat(id: string): LocalCryostat | null | undefined {
-  return useLiveQuery(
-    async () => ((await localDb().cryostats.get(id)) as unknown as LocalCryostat | undefined) ?? null,
-    [id],
-  );
+  return useLiveQuery(async () => (await localDb().cryostats.get(id)) ?? null, [id]);
 }
 
 export function useTemplates(): LocalTemplate[] | undefined {
-  return useLiveQuery(async () => (await localDb().templates.toArray()) as unknown as LocalTemplate[], []);
+  return useLiveQuery(async () => localDb().templates.toArray(), []);
 }
 
 /** Everyone this user may see (id → name), for "by whom" lines. */
 export function useUserNames(): Record<string, string> {
-  const rows = useLiveQuery(async () => (await localDb().users.toArray()) as unknown as LocalUser[], []);
+  const rows = useLiveQuery(async () => localDb().users.toArray(), []);
   // The same object while the people are the same, so rows drawn with it need not redraw.
   const key = (rows ?? []).map((u) => `${u.id}\u0000${u.name}`).join("\u0001");
-  return useMemo(() => Object.fromEntries((rows ?? []).map((u) => [u.id, u.name])), [key]);
+  // Built from the key alone, so it changes exactly when the key does.
+  return useMemo(
+    () => Object.fromEntries(key ? key.split("\u0001").map((row) => row.split("\u0000", 2) as [string, string]) : []),
+    [key],
+  );
 }
 
 export function useUsers(): LocalUser[] | undefined {
-  return useLiveQuery(async () => (await localDb().users.toArray()) as unknown as LocalUser[], []);
+  return useLiveQuery(async () => localDb().users.toArray(), []);
 }
 
 /** The facility rules in force, as last pulled (null: none set or not pulled yet). */

@@ -2,6 +2,7 @@
 // as the server's roomOverview: state, latest stage readings, helium level, field, last entry,
 // who holds the shift. Superseded entries do not count; refused ones neither.
 import type { CryostatState } from "@/lib/schemas/cryostat";
+import { type EntryKind, isKind, isKindOf, payloadOf } from "@/lib/schemas/entry";
 import type { StoredLocalEntry } from "./db";
 
 export type LocalOverview = {
@@ -14,7 +15,7 @@ export type LocalOverview = {
   pending: number;
 };
 
-const LAST_KINDS = new Set([
+const LAST_KINDS = new Set<EntryKind>([
   "note",
   "reading",
   "helium.level",
@@ -31,7 +32,7 @@ export function overviewOf(list: StoredLocalEntry[], stageOrder: string[]): Loca
   const live = list
     .filter((e) => e.sync !== "rejected" && !superseded.has(e.id))
     .sort((a, b) => b.recordedAt.localeCompare(a.recordedAt));
-  const latest = (kinds: string[]) => live.find((e) => kinds.includes(e.kind));
+  const latest = <K extends EntryKind>(kinds: readonly K[]) => live.find((e) => isKindOf(e, kinds));
   const s = latest(["state"]);
   const h = latest(["helium.level", "transfer"]);
   const f = latest(["field.setting"]);
@@ -39,22 +40,25 @@ export function overviewOf(list: StoredLocalEntry[], stageOrder: string[]): Loca
   const l = live.find((e) => LAST_KINDS.has(e.kind));
   const stages = new Map<string, { stage: string; value: number; unit: string; at: string }>();
   for (const e of live) {
-    if (e.kind !== "reading") continue;
-    const p = e.payload as { stage?: string; value: number; unit: string };
+    if (!isKind(e, "reading")) continue;
+    const p = e.payload;
     if (p.stage && !stages.has(p.stage))
       stages.set(p.stage, { stage: p.stage, value: p.value, unit: p.unit, at: e.recordedAt });
   }
-  const hp = h?.payload as { percent?: number; levelAfterPercent?: number } | undefined;
-  const fp = f?.payload as { fieldT: number; currentA: number; persistent: boolean } | undefined;
   return {
-    state: (s?.payload as { state?: CryostatState } | undefined)?.state ?? null,
+    state: s?.payload.state ?? null,
     stages: [...stages.values()].sort((a, b) => stageOrder.indexOf(a.stage) - stageOrder.indexOf(b.stage)),
-    helium: h && hp ? { percent: hp.percent ?? hp.levelAfterPercent ?? 0, at: h.recordedAt } : null,
-    field: f && fp ? { fieldT: fp.fieldT, currentA: fp.currentA, persistent: fp.persistent, at: f.recordedAt } : null,
-    lastEntry: l ? { kind: l.kind, at: l.recordedAt, authorId: l.authorId, sync: l.sync } : null,
-    onShift: ho
-      ? { userId: (ho.payload as { toUserId?: string }).toUserId ?? ho.authorId, since: ho.recordedAt }
+    helium: h
+      ? {
+          percent: payloadOf(h, "helium.level")?.percent ?? payloadOf(h, "transfer")?.levelAfterPercent ?? 0,
+          at: h.recordedAt,
+        }
       : null,
+    field: f
+      ? { fieldT: f.payload.fieldT, currentA: f.payload.currentA, persistent: f.payload.persistent, at: f.recordedAt }
+      : null,
+    lastEntry: l ? { kind: l.kind, at: l.recordedAt, authorId: l.authorId, sync: l.sync } : null,
+    onShift: ho ? { userId: ho.payload.toUserId ?? ho.authorId, since: ho.recordedAt } : null,
     pending: list.filter((e) => e.sync === "pending").length,
   };
 }

@@ -1,11 +1,12 @@
 // The public API other screens use to record on the tablet (procedures, safety forms, maths UI,
 // quick entries). Each call writes to the tablet store first and resolves only after the local
 // transaction has committed; the sync loop sends it later. See /work/notes/local-api.md.
+import type { EntryKind } from "@/lib/schemas/entry";
 import { localDb, type StoredLocalEntry } from "./db";
-import { type EntryDraft, putAttachmentIn, recordEntriesIn } from "./store";
+import { type EntryDraft, putAttachmentIn, type RecordedOf, recordDrafts, recordEntriesIn } from "./store";
 
 export type { Rejection, StoredLocalEntry, SyncState } from "./db";
-export type { EntryDraft, LocalWriteCode } from "./store";
+export type { DraftOf, EntryDraft, LocalWriteCode, RecordedOf } from "./store";
 export { LocalWriteError, MAX_ATTACHMENT_BYTES, OFFLINE_SESSION_MS } from "./store";
 
 /**
@@ -13,14 +14,14 @@ export { LocalWriteError, MAX_ATTACHMENT_BYTES, OFFLINE_SESSION_MS } from "./sto
  * with the shared schema, and writes the entry and its outbox row in one transaction.
  * Throws LocalWriteError (code + a message for the screen) when nothing was saved.
  */
-export async function recordEntry(draft: EntryDraft): Promise<StoredLocalEntry> {
-  const [stored] = await recordEntriesIn(localDb(), [draft]);
+export async function recordEntry<K extends EntryKind>(draft: EntryDraft<K>): Promise<StoredLocalEntry<K>> {
+  const [stored] = await recordDrafts(localDb(), [draft] as const);
   if (!stored) throw new Error("recordEntry: nothing was stored");
   return stored;
 }
 
-/** Record several entries atomically (all or none), in the given order. */
-export async function recordEntries(drafts: EntryDraft[]): Promise<StoredLocalEntry[]> {
+/** Record several entries atomically (all or none), in the given order; each comes back typed by its kind. */
+export async function recordEntries<const D extends readonly EntryDraft[]>(drafts: D): Promise<RecordedOf<D>> {
   return recordEntriesIn(localDb(), drafts);
 }
 

@@ -1,9 +1,8 @@
 // Writing on the tablet: an entry and its outbox row in one Dexie transaction (and a photo blob),
 // with the offline session and device id the entry is stamped with. Every function takes the
 // Dexie instance first so tests can run several simulated tablets side by side.
-import type { z } from "zod";
 import { mayWrite } from "@/lib/auth/permissions";
-import { type EntryInput, type EntryKind, parseEntry, type payloadSchemas } from "@/lib/schemas/entry";
+import { type EntryInput, type EntryKind, type PayloadInput, parseEntry } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
 import { canonicalJson } from "@/lib/sync/hash";
 import type { LocalSession, OutboxRow, RimelogDexie, StoredLocalEntry } from "./db";
@@ -20,16 +19,24 @@ export const OFFLINE_SESSION_MS = 14 * 60 * 60 * 1000;
 /** Largest photo or file kept on the tablet for upload (the server enforces its own bound too). */
 export const MAX_ATTACHMENT_BYTES = 15 * 1024 * 1024;
 
-type DraftOf<K extends EntryKind> = {
+/** A draft of one kind, its payload in the form that kind's schema takes (z.input: before defaults). */
+export type DraftOf<K extends EntryKind> = {
   cryostatId: string | null;
   runId?: string | null;
   kind: K;
-  payload: z.input<(typeof payloadSchemas)[K]>;
+  payload: PayloadInput<K>;
   supersedes?: string | null;
   reason?: string | null;
 };
-/** What a form hands over: the fields the user chose. Id, author, device and time are filled in. */
-export type EntryDraft = { [K in EntryKind]: DraftOf<K> }[EntryKind];
+/**
+ * What a form hands over: the fields the user chose. Id, author, device and time are filled in.
+ * A union over kinds (so `kind` decides what `payload` must be), or of the given kind(s).
+ */
+export type EntryDraft<K extends EntryKind = EntryKind> = { [P in K]: DraftOf<P> }[K];
+/** Any draft, as the write path handles it: the payload is checked by parseEntry, not by type. */
+type AnyDraft = Omit<DraftOf<EntryKind>, "payload"> & { payload: unknown };
+/** The entries a list of drafts becomes, each of its draft's kind. */
+export type RecordedOf<D extends readonly AnyDraft[]> = { [I in keyof D]: StoredLocalEntry<D[I]["kind"]> };
 
 export type LocalWriteCode =
   | "invalid"
@@ -100,7 +107,7 @@ function toLocalWriteError(e: unknown): LocalWriteError {
 }
 
 /** Build and validate one entry from a draft; throws LocalWriteError("invalid") with the problems. */
-export function buildEntry(draft: EntryDraft, authorId: string, deviceId: string, now = new Date()): EntryInput {
+export function buildEntry(draft: AnyDraft, authorId: string, deviceId: string, now = new Date()): EntryInput {
   const parsed = parseEntry({
     id: crypto.randomUUID(),
     cryostatId: draft.cryostatId,
@@ -131,7 +138,11 @@ type Signer = { user: SessionUser; deviceId: string };
 const lastSigner = new WeakMap<RimelogDexie, Signer>();
 
 /** The signature, role check, validation and rows of one write, made before its transaction. */
-function prepare(drafts: EntryDraft[], signer: Signer, now: Date): { stored: StoredLocalEntry[]; rows: OutboxRow[] } {
+function prepare(
+  drafts: readonly AnyDraft[],
+  signer: Signer,
+  now: Date,
+): { stored: StoredLocalEntry[]; rows: OutboxRow[] } {
   for (const d of drafts) {
     if (!mayWrite(signer.user.role, d.kind)) {
       throw new LocalWriteError(
@@ -190,7 +201,11 @@ async function writePrepared(
 }
 
 /** Read who is signed in (and the device id, made on the first write), then write for them. */
-async function writeAfterReading(db: RimelogDexie, drafts: EntryDraft[], now: Date): Promise<StoredLocalEntry[]> {
+async function writeAfterReading(
+  db: RimelogDexie,
+  drafts: readonly AnyDraft[],
+  now: Date,
+): Promise<StoredLocalEntry[]> {
   return db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
     const [session, knownDevice] = await db.getMetas("session", "deviceId");
     const problem = sessionProblem(session, now.getTime());
@@ -215,11 +230,25 @@ async function writeAfterReading(db: RimelogDexie, drafts: EntryDraft[], now: Da
  * (or another device id, or an expired session), nothing is written and the write is made again
  * for the person the store names. The first write on a store reads first, then writes.
  */
-export async function recordEntriesIn(
+export async function recordEntriesIn<const D extends readonly EntryDraft[]>(
   db: RimelogDexie,
-  drafts: EntryDraft[],
+  drafts: D,
   now = new Date(),
-): Promise<StoredLocalEntry[]> {
+): Promise<RecordedOf<D>> {
+  return recordDrafts(db, drafts, now);
+}
+
+/** recordEntriesIn for drafts already typed elsewhere (recordEntry's one draft of kind K). */
+export async function recordDrafts<const D extends readonly AnyDraft[]>(
+  db: RimelogDexie,
+  drafts: D,
+  now = new Date(),
+): Promise<RecordedOf<D>> {
+  // One stored entry per draft, in the drafts' order, each built from its draft (same kind).
+  return (await recordList(db, drafts, now)) as RecordedOf<D>;
+}
+
+async function recordList(db: RimelogDexie, drafts: readonly AnyDraft[], now: Date): Promise<StoredLocalEntry[]> {
   if (drafts.length === 0) return [];
   let stored: StoredLocalEntry[];
   try {

@@ -4,10 +4,9 @@
 // open runs. Pure: no network, so the outgoing person can hand over offline.
 import { boilOffRate, forecastMinimumLevel, litresFromLevel } from "@/lib/cryo/helium";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
-import type { EntryInput } from "@/lib/schemas/entry";
-import type { RunStartPayload } from "@/lib/schemas/run";
+import { type EntryFields, type EntryKind, isKind } from "@/lib/schemas/entry";
 
-type E = Pick<EntryInput, "id" | "kind" | "payload" | "recordedAt" | "runId" | "supersedes">;
+type E = EntryFields<"id" | "recordedAt" | "runId" | "supersedes">;
 
 export type HandoverSummary = {
   state?: "warm" | "cooling" | "cold" | "warming" | "maintenance";
@@ -26,32 +25,25 @@ const DAY = 86_400_000;
 export function handoverSummary(entries: E[], config: CryostatConfig, now = Date.now()): HandoverSummary {
   const replaced = new Set(entries.flatMap((e) => (e.supersedes ? [e.supersedes] : [])));
   const list = entries.filter((e) => !replaced.has(e.id)).sort((a, b) => a.recordedAt.localeCompare(b.recordedAt));
-  const last = (kind: string) => list.filter((e) => e.kind === kind).at(-1);
+  const last = <K extends EntryKind>(kind: K) => list.filter((e) => isKind(e, kind)).at(-1);
   const out: HandoverSummary = { stages: [], openRuns: [], openIssues: [] };
 
-  const st = last("state")?.payload as { state?: HandoverSummary["state"] } | undefined;
+  const st = last("state")?.payload;
   if (st?.state) out.state = st.state;
 
   for (const s of config.stages) {
-    const r = list.filter((e) => e.kind === "reading" && (e.payload as { stage?: string }).stage === s.key).at(-1);
+    const r = list.filter((e) => isKind(e, "reading")).findLast((e) => e.payload.stage === s.key);
     if (!r) continue;
-    const p = r.payload as { value: number; unit: string };
+    const p = r.payload;
     const valueK = p.unit === "mK" ? p.value / 1000 : p.unit === "K" ? p.value : NaN;
     if (Number.isFinite(valueK)) out.stages.push({ stage: s.label, valueK, at: r.recordedAt });
   }
 
   // Level history: helium.level readings and the level after each transfer; boil-off since the last fill.
   const levels = list.flatMap((e) => {
-    if (e.kind === "helium.level")
-      return [{ t: Date.parse(e.recordedAt), percent: (e.payload as { percent: number }).percent, fill: false }];
+    if (e.kind === "helium.level") return [{ t: Date.parse(e.recordedAt), percent: e.payload.percent, fill: false }];
     if (e.kind === "transfer")
-      return [
-        {
-          t: Date.parse(e.recordedAt),
-          percent: (e.payload as { levelAfterPercent: number }).levelAfterPercent,
-          fill: true,
-        },
-      ];
+      return [{ t: Date.parse(e.recordedAt), percent: e.payload.levelAfterPercent, fill: true }];
     return [];
   });
   const lastLevel = levels.at(-1);
@@ -75,7 +67,7 @@ export function handoverSummary(entries: E[], config: CryostatConfig, now = Date
     }
   }
 
-  const field = last("field.setting")?.payload as { fieldT: number; persistent: boolean } | undefined;
+  const field = last("field.setting")?.payload;
   if (field) {
     out.fieldT = field.fieldT;
     out.persistent = field.persistent;
@@ -83,10 +75,12 @@ export function handoverSummary(entries: E[], config: CryostatConfig, now = Date
 
   const ended = new Set(list.filter((e) => e.kind === "run.abort" || e.kind === "run.complete").map((e) => e.runId));
   out.openRuns = list
-    .filter((e) => e.kind === "run.start" && !ended.has(e.id))
-    .map((e) => (e.payload as RunStartPayload).title);
+    .filter((e) => isKind(e, "run.start"))
+    .filter((e) => !ended.has(e.id))
+    .map((e) => e.payload.title);
   out.openIssues = list
-    .filter((e) => e.kind === "incident" && Date.parse(e.recordedAt) > now - 14 * DAY)
-    .map((e) => (e.payload as { title: string }).title);
+    .filter((e) => isKind(e, "incident"))
+    .filter((e) => Date.parse(e.recordedAt) > now - 14 * DAY)
+    .map((e) => e.payload.title);
   return out;
 }

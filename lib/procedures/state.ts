@@ -2,15 +2,14 @@
 // are done, readings against the pinned template's range, hold points and who released them,
 // corrections, abort and completion. Pure: the tablet runs it on Dexie rows, the server on
 // PGlite rows, and two tablets writing to one run converge on the same answer.
-import type { EntryInput, SignatureMeaning } from "@/lib/schemas/entry";
+import { type EntryFields, isKind, payloadOf, type SignatureMeaning } from "@/lib/schemas/entry";
 import type { RunStartPayload, RunStepPayload } from "@/lib/schemas/run";
 import type { TemplateStep } from "@/lib/schemas/template";
 import { recordHash } from "@/lib/sync/hash";
 
 /** What the derivation needs of an entry (stored or still in the tablet's outbox). */
-export type RunEntry = Pick<
-  EntryInput,
-  "id" | "cryostatId" | "runId" | "kind" | "payload" | "authorId" | "deviceId" | "recordedAt" | "supersedes" | "reason"
+export type RunEntry = EntryFields<
+  "id" | "cryostatId" | "runId" | "authorId" | "deviceId" | "recordedAt" | "supersedes" | "reason"
 >;
 
 export type PinnedTemplate = { id: string; key: string; version: number; title: string; steps: TemplateStep[] };
@@ -94,17 +93,9 @@ export function describeRange(step: Pick<Extract<TemplateStep, { kind: "reading"
 export function signaturesOf(entries: RunEntry[]): SignatureView[] {
   const byId = new Map(entries.map((e) => [e.id, e]));
   return entries
-    .filter((e) => e.kind === "signature")
+    .filter((e) => isKind(e, "signature"))
     .map((e) => {
-      const p = e.payload as {
-        signedEntryId: string;
-        meaning: SignatureMeaning;
-        signerName: string;
-        signerRole: string;
-        signedHash: string;
-        image?: string;
-        confirmedBy?: "pin" | "password";
-      };
+      const p = e.payload;
       const target = byId.get(p.signedEntryId);
       return {
         entryId: e.id,
@@ -116,7 +107,7 @@ export function signaturesOf(entries: RunEntry[]): SignatureView[] {
         signedAt: e.recordedAt,
         confirmedBy: p.confirmedBy ?? null,
         image: p.image ?? null,
-        valid: Boolean(target && recordHash(target as EntryInput) === p.signedHash),
+        valid: Boolean(target && recordHash(target) === p.signedHash),
       };
     })
     .sort((a, b) => (a.signedAt < b.signedAt ? -1 : 1));
@@ -141,7 +132,7 @@ export function correctionsOf(entries: RunEntry[], signatures: SignatureView[]):
 }
 
 function stepOf(e: RunEntry): RunStepPayload | null {
-  return e.kind === "run.step" ? (e.payload as RunStepPayload) : null;
+  return payloadOf(e, "run.step") ?? null;
 }
 
 /** Derive a run's state from its entries (run.*, and signatures on them) and its pinned template. */
@@ -157,7 +148,7 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
   const sigsOn = (id: string) => validSigs.filter((s) => s.signedEntryId === id);
 
   const start = entries.find((e) => e.kind === "run.start" && e.id === runId) ?? null;
-  const abortEntry = inForce.find((e) => e.kind === "run.abort") ?? null;
+  const abortEntry = inForce.find((e) => isKind(e, "run.abort")) ?? null;
   const completeEntry = inForce.find((e) => e.kind === "run.complete") ?? null;
   const flags: string[] = [];
 
@@ -173,7 +164,10 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
         if (
           step.secondPerson &&
           current.length &&
-          !current.some((e) => (stepOf(e) as { secondPersonId?: string }).secondPersonId)
+          !current.some((e) => {
+            const p = stepOf(e);
+            return p?.kind === "check" && p.secondPersonId;
+          })
         ) {
           problems.push("Needs a second person, and none was named.");
           status = "flagged";
@@ -181,8 +175,8 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
         break;
       case "reading": {
         const last = current.at(-1);
-        if (last) {
-          const p = stepOf(last) as Extract<RunStepPayload, { kind: "reading" }>;
+        const p = last ? stepOf(last) : null;
+        if (p?.kind === "reading") {
           const out = readingOutOfRange(step, p.value);
           if (out) {
             status = "flagged";
@@ -243,7 +237,7 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
   return {
     runId,
     start,
-    startPayload: start ? (start.payload as RunStartPayload) : null,
+    startPayload: payloadOf(start, "run.start") ?? null,
     status,
     steps,
     progress: {
@@ -254,9 +248,7 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
     currentIndex: currentStep ? currentStep.index : null,
     blockingHold,
     canComplete: status === "open" && allDone,
-    aborted: abortEntry
-      ? { entry: abortEntry, reason: String((abortEntry.payload as { reason: string }).reason) }
-      : null,
+    aborted: abortEntry ? { entry: abortEntry, reason: abortEntry.payload.reason } : null,
     completed: completeEntry ? { entry: completeEntry } : null,
     signatures,
     corrections,

@@ -184,9 +184,9 @@ export const entryInputSchema = z.object({
   reason: z.string().max(1000).nullable().default(null),
 });
 
-/** A kind's payload as parsed and stored (defaults filled in). */
+/** A kind's payload, parsed and stored (defaults filled in). */
 export type Payload<K extends EntryKind> = z.output<(typeof payloadSchemas)[K]>;
-/** A kind's payload as a form hands it over (before defaults). */
+/** A kind's payload, the way a form hands it over (before defaults). */
 export type PayloadInput<K extends EntryKind> = z.input<(typeof payloadSchemas)[K]>;
 
 /** The envelope fields every entry carries, whatever its kind. */
@@ -209,13 +209,21 @@ export type UncheckedEntry = z.output<typeof entryInputSchema>;
 export type EntryInputOf<K extends EntryKind = EntryKind> = {
   [P in K]: Envelope & { kind: P; payload: Payload<P> };
 }[K];
-/** What a tablet sends: the entry as it was written locally (a union over kinds). */
-export type EntryInput = EntryInputOf;
+/** What a tablet sends: the entry as it was written locally (a union over kinds, or of the given kinds). */
+export type EntryInput<K extends EntryKind = EntryKind> = EntryInputOf<K>;
 
 /** An entry as stored by the server, of the given kind(s); a union over all kinds by default. */
 export type Entry<K extends EntryKind = EntryKind> = { [P in K]: EntryInputOf<P> & ServerFields }[K];
 /** An entry as stored by the server (any kind). */
 export type StoredEntry = Entry;
+
+/**
+ * Some envelope fields of an entry, with its kind and payload, kept per kind: `Pick` on the union
+ * would merge the kinds and lose which payload goes with which kind.
+ */
+export type EntryFields<F extends keyof UncheckedEntry> = {
+  [P in EntryKind]: Pick<EntryInputOf<P>, F | "kind" | "payload">;
+}[EntryKind];
 
 /** Anything that carries a kind and the payload of that kind (input, stored or tablet entries). */
 type Kinded = { kind: EntryKind; payload: unknown };

@@ -17,11 +17,15 @@ import {
   ppeFlag,
   singlePersonFlag,
 } from "@/lib/audit/flags";
+import type { Payload } from "@/lib/schemas/entry";
 
 const rules = DEMO_RULES;
 const ctx = { rules, chainBreakSeq: null };
 
-function transfer(over: Record<string, unknown> = {}, rec: Partial<AuditRecord> = {}): AuditRecord {
+function transfer(
+  over: Partial<Payload<"transfer">> = {},
+  rec: Partial<Omit<AuditRecord, "kind" | "payload">> = {},
+): AuditRecord {
   return {
     id: "t1",
     kind: "transfer",
@@ -47,7 +51,7 @@ function transfer(over: Record<string, unknown> = {}, rec: Partial<AuditRecord> 
   };
 }
 
-const quench = (over: Record<string, unknown> = {}): AuditRecord => ({
+const quench = (over: Partial<Payload<"quench">> = {}): AuditRecord => ({
   id: "q1",
   kind: "quench",
   cryostatId: "plover",

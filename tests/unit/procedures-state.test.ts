@@ -24,13 +24,14 @@ const template: PinnedTemplate = {
 };
 
 let clock = Date.parse("2026-12-01T08:00:00Z");
-function e(kind: string, payload: Record<string, unknown>, over: Partial<RunEntry> = {}): RunEntry {
+/** A fixture entry: only the payload fields a check reads (not a full entry the schema would pass). */
+function e(kind: string, payload: Record<string, unknown>, over: Partial<Omit<RunEntry, "kind" | "payload">> = {}) {
   clock += 60_000;
   return {
     id: randomUUID(),
     cryostatId: "heron",
     runId: null,
-    kind: kind as RunEntry["kind"],
+    kind,
     payload,
     authorId: "u-tomasz",
     deviceId: "tab-1",
@@ -38,7 +39,7 @@ function e(kind: string, payload: Record<string, unknown>, over: Partial<RunEntr
     supersedes: null,
     reason: null,
     ...over,
-  };
+  } as RunEntry;
 }
 function run() {
   const start = e("run.start", {
@@ -47,7 +48,7 @@ function run() {
     templateVersion: 1,
     title: "Cooldown",
   });
-  const step = (payload: Record<string, unknown>, over: Partial<RunEntry> = {}) =>
+  const step = (payload: Record<string, unknown>, over: Partial<Omit<RunEntry, "kind" | "payload">> = {}) =>
     e("run.step", payload, { runId: start.id, ...over });
   const sign = (target: RunEntry, meaning = "verified", role = "technician") =>
     e(
@@ -57,7 +58,7 @@ function run() {
         meaning,
         signerName: "Tomasz Okafor",
         signerRole: role,
-        signedHash: recordHash(target as never),
+        signedHash: recordHash(target),
         confirmedBy: "pin",
       },
       { runId: start.id },
@@ -115,7 +116,7 @@ describe("run state", () => {
     const wrongRole = sign(hold, "verified", "researcher");
     let s = deriveRun(start.id, template, [start, hold, wrongRole]);
     expect(s.steps.find((x) => x.step.id === "hold-precool")?.status).toBe("awaiting_signature");
-    const forged = { ...sign(hold), payload: { ...sign(hold).payload, signedHash: "0".repeat(64) } };
+    const forged = { ...sign(hold), payload: { ...sign(hold).payload, signedHash: "0".repeat(64) } } as RunEntry;
     s = deriveRun(start.id, template, [start, hold, forged]);
     expect(s.steps.find((x) => x.step.id === "hold-precool")?.status).toBe("awaiting_signature");
     expect(s.flags.join(" ")).toMatch(/does not match/);
