@@ -6,6 +6,7 @@
 import { type ReactNode, useId, useState } from "react";
 import { OptionList } from "@/components/ui/form";
 import { Panel } from "@/components/ui/panel";
+import { parseTypedNumber } from "@/lib/typed-number";
 import { readNumber } from "./derive";
 
 export type NumberSpec = {
@@ -80,11 +81,11 @@ export function Calculator({
     const raw = values[f.key] ?? "";
     s[f.key] = raw;
     if (f.kind === "select" || f.kind === "text") continue;
-    const v = readNumber(raw);
-    if (v === undefined) {
-      if (f.optional && raw.trim() === "") n[f.key] = NaN;
-      else fieldErrors[f.key] = raw.trim() === "" ? "Enter a number." : `"${raw}" is not a number.`;
-    } else n[f.key] = v;
+    const v = parseTypedNumber(raw);
+    if (!v.ok) fieldErrors[f.key] = v.message;
+    else if (v.value !== undefined) n[f.key] = v.value;
+    else if (f.optional) n[f.key] = NaN;
+    else fieldErrors[f.key] = "Enter a number.";
   }
   let rows: ResultRow[] = [];
   let general: string | null = null;

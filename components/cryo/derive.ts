@@ -16,6 +16,7 @@ import {
   rampTime,
 } from "@/lib/cryo";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
+import { readTypedNumber } from "@/lib/typed-number";
 
 /** What the derivation needs to know about a cryostat (a row from the server or the tablet store). */
 export interface CryostatLike {
@@ -99,9 +100,7 @@ export function durationText(minutes: number): string {
 export function readNumber(value: DeriveInput["value"]): number | undefined {
   if (value === null || value === undefined) return undefined;
   if (typeof value === "number") return Number.isFinite(value) ? value : undefined;
-  const t = value.trim().replace(/\s/g, "").replace(",", ".");
-  if (t === "" || !/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) return undefined;
-  return Number(t);
+  return readTypedNumber(value);
 }
 
 const PRESSURE_TO_PA: Record<string, number> = { Pa: 1, mbar: 100, bar: 1e5, kPa: 1000 };

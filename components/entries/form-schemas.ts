@@ -3,13 +3,10 @@
 // validates again with the shared schema.
 import { z } from "zod";
 import { fieldSettingPayload, heliumLevelPayload, notePayload, readingPayload } from "@/lib/schemas/entry";
+import { typedNumber } from "@/lib/typed-number";
 
-function toNumber(v: unknown): unknown {
-  if (typeof v !== "string") return v;
-  const t = v.trim().replace(",", ".").replace(/\s/g, "");
-  if (t === "") return undefined;
-  return /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t) ? Number(t) : Number.NaN;
-}
+/** Typed text as a number (lib/typed-number.ts): undefined when empty, NaN when not a number. */
+const toNumber = (v: unknown): unknown => (typeof v === "string" ? typedNumber(v) : v);
 const num = (msg = "Enter a number") => z.preprocess(toNumber, z.number({ message: msg }).refine(Number.isFinite, msg));
 const optNum = () =>
   z.preprocess(toNumber, z.number({ message: "Enter a number" }).refine(Number.isFinite, "Enter a number").optional());

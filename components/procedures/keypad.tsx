@@ -2,6 +2,7 @@
 // A numeric keypad with keys big enough for a gloved finger: the tablet's own keyboard is small
 // and hides half the screen. Typing on a hardware keyboard works too (the field stays editable).
 import { Button } from "@/components/ui/button";
+import { readTypedNumber } from "@/lib/typed-number";
 
 const KEYS = ["7", "8", "9", "4", "5", "6", "1", "2", "3", "−", "0", "."] as const;
 
@@ -14,15 +15,20 @@ export function applyKey(value: string, key: string): string {
   return value + key;
 }
 
-/** The typed text as a number, or null while it is empty or half-typed ("-", "3."). */
+/**
+ * The typed text as a number, or null while it is empty or half-typed ("-", "3."). The keypad's
+ * field holds digits, one point and a sign only (it filters out the rest), so anything else is not
+ * a keypad value either; what is left is read by the shared parser (lib/typed-number.ts).
+ */
 export function keypadNumber(value: string): number | null {
-  if (!/^-?\d+(\.\d+)?$/.test(value.trim())) return null;
-  const n = Number(value);
-  return Number.isFinite(n) ? n : null;
+  const t = value.trim();
+  if (!/^-?\d*\.?\d*$/.test(t) || /^-?\.?$/.test(t) || t.endsWith(".")) return null;
+  return readTypedNumber(t) ?? null;
 }
 
 export function Keypad({ value, onChange, label }: { value: string; onChange: (v: string) => void; label: string }) {
   return (
+    // biome-ignore lint/a11y/useSemanticElements: a grid of keys, not a form section (a fieldset would draw a border and a legend)
     <div role="group" aria-label={label} className="grid grid-cols-3 gap-2">
       {KEYS.map((k) => (
         <Button

@@ -13,6 +13,7 @@ import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
 import { templateInputSchema } from "@/lib/schemas/run";
 import { UNITS } from "@/lib/schemas/units";
+import { typedNumber } from "@/lib/typed-number";
 
 type Template = {
   id: string;
@@ -37,8 +38,9 @@ const STEP_KINDS = ["check", "reading", "hold", "note", "photo", "caution"] as c
 const ROLES = ["technician", "researcher", "safety_officer", "facility_admin"] as const;
 const TOPICS = ["cryogen", "oxygen", "pressure", "transfer_line", "magnet"] as const;
 const INPUT = "min-h-12 w-full rounded-xl border-2 border-line bg-bg px-3 text-lg";
+/** A typed limit (lib/typed-number.ts): undefined when empty, NaN (refused by the schema) when not a number. */
 const optionalNumber = (v: unknown) =>
-  v === "" || v === null || v === undefined || Number.isNaN(v) ? undefined : Number(v);
+  typeof v === "string" ? typedNumber(v) : v === null || v === undefined || Number.isNaN(v) ? undefined : Number(v);
 
 export function TemplateAdmin() {
   const { me } = useMe();

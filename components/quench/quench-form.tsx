@@ -6,21 +6,14 @@ import { useMemo, useState } from "react";
 import { Caution } from "@/components/safety/caution";
 import { useFacilityRules } from "@/components/safety/use-facility-rules";
 import { Button } from "@/components/ui/button";
-import {
-  ChoiceButtons,
-  FieldRow,
-  INPUT_CLASS,
-  NumberField,
-  OptionList,
-  ProblemNotice,
-  typedNumber,
-} from "@/components/ui/form";
+import { ChoiceButtons, FieldRow, INPUT_CLASS, NumberField, OptionList, ProblemNotice } from "@/components/ui/form";
 import { Panel } from "@/components/ui/panel";
 import { quenchFigures } from "@/lib/audit/figures";
 import { trim } from "@/lib/format";
 import { useCryostats } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry } from "@/lib/local/record";
 import { heliumLostText, oxygenEstimateText } from "@/lib/safety/estimates";
+import { typedNumber } from "@/lib/typed-number";
 
 const MODES = [
   { value: "quench", label: "Magnet quench" },
@@ -130,7 +123,14 @@ export function QuenchForm() {
           value={mode}
           onChange={setMode}
         />
-        <form className="flex flex-col gap-3" noValidate onSubmit={(e) => (e.preventDefault(), void save())}>
+        <form
+          className="flex flex-col gap-3"
+          noValidate
+          onSubmit={(e) => {
+            e.preventDefault();
+            void save();
+          }}
+        >
           <FieldRow id="q-cryostat" label="Cryostat">
             <select id="q-cryostat" className={INPUT_CLASS} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
               <OptionList options={list.map((c) => ({ value: c.id, label: c.name }))} />

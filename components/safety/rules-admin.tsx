@@ -8,6 +8,7 @@ import { Loading, Notice, Panel } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
 import { RULES_DOCUMENT_MAX_BYTES } from "@/lib/safety/rules-document";
 import type { FacilityRulesValues, RulesInForce } from "@/lib/schemas/rules";
+import { typedNumber } from "@/lib/typed-number";
 import { rememberRules } from "./use-facility-rules";
 
 type Cryo = { id: string; name: string; config: { reservoir?: unknown; magnet?: unknown } };
@@ -32,6 +33,7 @@ export function RulesAdmin() {
       contacts: r.values.contacts.map((c) => `${c.name} | ${c.role} | ${c.phone}`).join("\n"),
     });
   }
+  // biome-ignore lint/correctness/useExhaustiveDependencies: loads once on opening; adopt only sets state
   useEffect(() => {
     fetch("/api/rules", { cache: "no-store" })
       .then((r) => r.json())
@@ -46,7 +48,7 @@ export function RulesAdmin() {
   if (!v) return msg ? <Notice tone="danger" role="alert" title={msg.text} /> : <Loading />;
   const set = <K extends keyof FacilityRulesValues>(k: K, val: FacilityRulesValues[K]) =>
     setV((x) => (x ? { ...x, [k]: val } : x));
-  const optNum = (s: string) => (s.trim() === "" ? undefined : Number(s));
+  const optNum = typedNumber;
 
   async function save() {
     if (!v) return;
@@ -123,7 +125,14 @@ export function RulesAdmin() {
   return (
     <div className="grid gap-4 lg:grid-cols-[1fr_22rem]">
       <Panel>
-        <form className="flex flex-col gap-4" noValidate onSubmit={(e) => (e.preventDefault(), void save())}>
+        <form
+          className="flex flex-col gap-4"
+          noValidate
+          onSubmit={(e) => {
+            e.preventDefault();
+            void save();
+          }}
+        >
           <Row id="r-name" label="Facility name">
             <input
               id="r-name"
@@ -139,7 +148,7 @@ export function RulesAdmin() {
                 inputMode="decimal"
                 className={`${INPUT_CLASS} num`}
                 value={v.oxygenAlarmPercent}
-                onChange={(e) => set("oxygenAlarmPercent", Number(e.target.value))}
+                onChange={(e) => set("oxygenAlarmPercent", typedNumber(e.target.value) ?? 0)}
               />
             </Row>
             <Row id="r-evac" label="Oxygen level to leave the room (%)">
@@ -148,7 +157,7 @@ export function RulesAdmin() {
                 inputMode="decimal"
                 className={`${INPUT_CLASS} num`}
                 value={v.oxygenEvacuatePercent}
-                onChange={(e) => set("oxygenEvacuatePercent", Number(e.target.value))}
+                onChange={(e) => set("oxygenEvacuatePercent", typedNumber(e.target.value) ?? 0)}
               />
             </Row>
           </div>
@@ -230,7 +239,7 @@ export function RulesAdmin() {
                 inputMode="decimal"
                 className={`${INPUT_CLASS} num`}
                 value={v.controlledAreaMilliTesla}
-                onChange={(e) => set("controlledAreaMilliTesla", Number(e.target.value))}
+                onChange={(e) => set("controlledAreaMilliTesla", typedNumber(e.target.value) ?? 0)}
               />
             </Row>
             <Row id="r-days" label="Warn when helium reaches the minimum within (days)">
@@ -239,7 +248,7 @@ export function RulesAdmin() {
                 inputMode="numeric"
                 className={`${INPUT_CLASS} num`}
                 value={v.forecastWarnDays}
-                onChange={(e) => set("forecastWarnDays", Number(e.target.value))}
+                onChange={(e) => set("forecastWarnDays", typedNumber(e.target.value) ?? 0)}
               />
             </Row>
             <Row id="r-effmin" label="Plausible transfer efficiency, lowest (%)" hint="Default 40 % when empty.">

@@ -17,7 +17,6 @@ import {
   NumberField,
   OptionList,
   ProblemNotice,
-  typedNumber,
 } from "@/components/ui/form";
 import { Notice, Panel } from "@/components/ui/panel";
 import { transferFigures } from "@/lib/audit/figures";
@@ -25,6 +24,7 @@ import { litresFromLevel, litresFromMass } from "@/lib/cryo";
 import { trim } from "@/lib/format";
 import { useCryostats, useEntries, useUsers } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
+import { typedNumber } from "@/lib/typed-number";
 
 const SUPPLIED_BY = [
   { value: "level", label: "By level" },

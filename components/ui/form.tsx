@@ -4,10 +4,6 @@
 import type { ReactNode } from "react";
 import { Notice } from "./panel";
 
-/** A typed figure: undefined when empty, NaN when it is not a number (the save names the problem). A decimal comma is accepted. */
-export const typedNumber = (s: string): number | undefined =>
-  s.trim() === "" ? undefined : Number(s.replace(",", "."));
-
 /** The class of a text input, select or textarea on the entry forms. */
 export const INPUT_CLASS =
   "w-full rounded-xl border-2 border-line bg-bg px-4 py-2 text-lg text-ink focus:border-accent";
@@ -67,6 +63,7 @@ export function ChoiceButtons<T extends string>({
   return (
     <div className={className} role="radiogroup" aria-label={label}>
       {options.map((o) => (
+        // biome-ignore lint/a11y/useSemanticElements: a 48 px button acting as a radio, read as one by screen readers
         <button
           key={o.value}
           type="button"
