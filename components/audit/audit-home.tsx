@@ -11,6 +11,7 @@ import type { ChainReport } from "@/lib/audit/chain";
 import { FLAG_CODES, FLAG_LABEL } from "@/lib/audit/flags";
 import type { AuditItem } from "@/lib/audit/types";
 import { formatDate, kindLabel, trim } from "@/lib/format";
+import { payloadOf } from "@/lib/schemas/entry";
 import { FlagTags } from "./flag-tags";
 
 const TABS = [
@@ -26,6 +27,7 @@ export function AuditHome() {
       <div role="tablist" aria-label="Audit" className="mb-4 flex flex-wrap gap-2">
         {TABS.map((t) => (
           <button
+            type="button"
             key={t.key}
             role="tab"
             aria-selected={tab === t.key}
@@ -44,8 +46,8 @@ export function AuditHome() {
 }
 
 function Summary({ i }: { i: AuditItem }) {
-  const p = i.entry.payload as Record<string, unknown>;
   if (i.entry.kind === "transfer") {
+    const p = i.entry.payload;
     const eff = i.figures && "efficiencyPercent" in i.figures ? i.figures.efficiencyPercent : null;
     return (
       <span>
@@ -64,10 +66,10 @@ function Summary({ i }: { i: AuditItem }) {
   if (i.entry.kind === "quench")
     return (
       <span>
-        at <span className="num">{trim(Number(p.fieldT))}</span> T
+        at <span className="num">{trim(Number(i.entry.payload.fieldT))}</span> T
       </span>
     );
-  return <span>{String(p.title ?? "")}</span>;
+  return <span>{payloadOf(i.entry, "incident")?.title ?? ""}</span>;
 }
 
 function Queue() {
@@ -152,9 +154,8 @@ function TransferTable() {
     const people = new Map<string, string>();
     for (const i of items) {
       people.set(i.entry.authorId, i.authorName);
-      ((i.entry.payload as { peoplePresent?: string[] }).peoplePresent ?? []).forEach((id, k) =>
-        people.set(id, i.peopleNames[k] ?? id),
-      );
+      for (const [k, id] of (payloadOf(i.entry, "transfer")?.peoplePresent ?? []).entries())
+        people.set(id, i.peopleNames[k] ?? id);
     }
     setOptions((o) => ({
       ...o,
@@ -235,7 +236,7 @@ function TransferTable() {
             />
             <tbody>
               {items.map((i) => {
-                const p = i.entry.payload as Record<string, number>;
+                const p = payloadOf(i.entry, "transfer");
                 const eff = i.figures && "efficiencyPercent" in i.figures ? i.figures.efficiencyPercent : null;
                 return (
                   <tr key={i.entry.id} className="border-t border-line align-top">
@@ -250,7 +251,7 @@ function TransferTable() {
                     <td className="px-4 py-2">{i.cryostatName}</td>
                     <td className="px-4 py-2">{i.peopleNames.join(", ")}</td>
                     <td className="num px-4 py-2">
-                      {trim(p.gainedLitres ?? NaN)} / {trim(p.suppliedLitres ?? NaN)} L
+                      {trim(p?.gainedLitres ?? NaN)} / {trim(p?.suppliedLitres ?? NaN)} L
                     </td>
                     <td className="num px-4 py-2">{eff === null ? "—" : `${trim(eff)} %`}</td>
                     <td className="px-4 py-2">

@@ -32,9 +32,9 @@ function Manifest({ s }: { s: SignatureView }) {
         signerName: s.signerName,
         signerRole: s.signerRole,
         signedAt: s.signedAt,
-        meaning: s.meaning as never,
-        confirmedBy: (s.confirmedBy ?? undefined) as never,
-        image: s.image as never,
+        meaning: s.meaning,
+        confirmedBy: s.confirmedBy ?? undefined,
+        image: s.image,
         valid: true,
       }}
     />
@@ -190,12 +190,8 @@ export function AuditRecord({ id }: { id: string }) {
           </div>
           {item.entry.kind === "transfer" && (
             <p className="mt-2">
-              PPE confirmed:{" "}
-              <strong>{(item.entry.payload as { ppeConfirmed: boolean }).ppeConfirmed ? "yes" : "no"}</strong> · Oxygen
-              monitor checked:{" "}
-              <strong>
-                {(item.entry.payload as { oxygenMonitorChecked: boolean }).oxygenMonitorChecked ? "yes" : "no"}
-              </strong>
+              PPE confirmed: <strong>{item.entry.payload.ppeConfirmed ? "yes" : "no"}</strong> · Oxygen monitor checked:{" "}
+              <strong>{item.entry.payload.oxygenMonitorChecked ? "yes" : "no"}</strong>
             </p>
           )}
           <div className="mt-3">

@@ -5,13 +5,19 @@ import { z } from "zod";
 import { fieldSettingPayload, heliumLevelPayload, notePayload, readingPayload } from "@/lib/schemas/entry";
 import { typedNumber } from "@/lib/typed-number";
 
+// Each field's input is the text of its control (z.input: strings), its output what the shared
+// payload schema takes (z.output: numbers, undefined for an empty optional field).
+
 /** Typed text as a number (lib/typed-number.ts): undefined when empty, NaN when not a number. */
-const toNumber = (v: unknown): unknown => (typeof v === "string" ? typedNumber(v) : v);
-const num = (msg = "Enter a number") => z.preprocess(toNumber, z.number({ message: msg }).refine(Number.isFinite, msg));
+const typed = () => z.string().transform(typedNumber);
+const num = (msg = "Enter a number") => typed().pipe(z.number({ message: msg }).refine(Number.isFinite, msg));
 const optNum = () =>
-  z.preprocess(toNumber, z.number({ message: "Enter a number" }).refine(Number.isFinite, "Enter a number").optional());
+  typed().pipe(z.number({ message: "Enter a number" }).refine(Number.isFinite, "Enter a number").optional());
 const optText = (max: number) =>
-  z.preprocess((v) => (typeof v === "string" && v.trim() === "" ? undefined : v), z.string().max(max).optional());
+  z
+    .string()
+    .transform((v) => (v.trim() === "" ? undefined : v))
+    .pipe(z.string().max(max).optional());
 
 export const readingForm = readingPayload.extend({
   quantity: z.string().trim().min(1, "Say what was read").max(80),
@@ -31,4 +37,6 @@ export const fieldForm = fieldSettingPayload.extend({
   comment: optText(1000),
 });
 
+/** What a form's controls hold, and what its submit hands over. */
 export type FormIn<S extends z.ZodType> = z.input<S>;
+export type FormOut<S extends z.ZodType> = z.output<S>;

@@ -4,7 +4,8 @@
 // transaction has committed; a failed local write is shown as an error, never hidden.
 import { zodResolver } from "@hookform/resolvers/zod";
 import { type ReactNode, useState } from "react";
-import { type FieldValues, type Resolver, useForm } from "react-hook-form";
+import { type DefaultValues, type FieldValues, useForm } from "react-hook-form";
+import type { z } from "zod";
 import { DerivedValue } from "@/components/cryo/derived-value";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -38,13 +39,13 @@ export function QuickEntry({ cryostat, role }: { cryostat: LocalCryostat; role: 
   const active = tabs.includes(tab) ? tab : (tabs[0] ?? "note");
 
   /** Write locally; resolves true once committed. */
-  const save = async (draft: EntryDraft): Promise<boolean> => {
+  const save = async (draft: EntryDraft<Tab>): Promise<boolean> => {
     setOutcome(null);
     try {
       await recordEntry(draft);
       // Committed with strict durability: the moment bench/sync measures as "durable".
       performance.mark("rimelog:entry-durable");
-      setOutcome({ tone: "ok", text: `${TAB_LABEL[draft.kind as Tab] ?? "Entry"} saved on this tablet.` });
+      setOutcome({ tone: "ok", text: `${TAB_LABEL[draft.kind]} saved on this tablet.` });
       return true;
     } catch (e) {
       setOutcome({
@@ -94,14 +95,11 @@ export function QuickEntry({ cryostat, role }: { cryostat: LocalCryostat; role: 
   );
 }
 
-type Save = (d: EntryDraft) => Promise<boolean>;
+type Save = (d: EntryDraft<Tab>) => Promise<boolean>;
 
-// The form schemas take typed text and give numbers; react-hook-form sees them as plain values.
-function useEntryForm(schema: Parameters<typeof zodResolver>[0], defaults: FieldValues) {
-  return useForm<FieldValues>({
-    resolver: zodResolver(schema) as unknown as Resolver<FieldValues>,
-    defaultValues: defaults,
-  });
+/** A form over one of the form schemas: its controls hold the schema's input (typed text), its submit gets the output. */
+function useEntryForm<In extends FieldValues, Out>(schema: z.ZodType<Out, In>, defaults: DefaultValues<In>) {
+  return useForm<In, unknown, Out>({ resolver: zodResolver(schema), defaultValues: defaults });
 }
 
 function FormShell({
@@ -145,7 +143,7 @@ function ReadingForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }
   });
   const errors = f.formState.errors;
   const submit = f.handleSubmit(async (v) => {
-    const ok = await save({ cryostatId: cryostat.id, kind: "reading", payload: v as EntryDraft["payload"] as never });
+    const ok = await save({ cryostatId: cryostat.id, kind: "reading", payload: v });
     if (ok) f.reset({ ...v, value: "", comment: "" });
   });
   return (
@@ -198,7 +196,7 @@ function ReadingForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }
 function NoteForm({ cryostatId, save }: { cryostatId: string; save: Save }) {
   const f = useEntryForm(noteForm, { text: "" });
   const submit = f.handleSubmit(async (v) => {
-    if (await save({ cryostatId, kind: "note", payload: v as never })) f.reset({ text: "" });
+    if (await save({ cryostatId, kind: "note", payload: v })) f.reset({ text: "" });
   });
   const e = err(f.formState.errors.text);
   return (
@@ -230,7 +228,7 @@ function HeliumForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save })
   const f = useEntryForm(heliumForm, { percent: "", litres: "" });
   const errors = f.formState.errors;
   const submit = f.handleSubmit(async (v) => {
-    if (await save({ cryostatId, kind: "helium.level", payload: v as never })) f.reset({ percent: "", litres: "" });
+    if (await save({ cryostatId, kind: "helium.level", payload: v })) f.reset({ percent: "", litres: "" });
   });
   return (
     <FormShell onSubmit={() => void submit()} busy={f.formState.isSubmitting} label="Save helium level">
@@ -268,7 +266,7 @@ function FieldForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }) 
   const f = useEntryForm(fieldForm, { currentA: "", fieldT: "", persistent: false, rampRateTPerMin: "", comment: "" });
   const errors = f.formState.errors;
   const submit = f.handleSubmit(async (v) => {
-    if (await save({ cryostatId, kind: "field.setting", payload: v as never }))
+    if (await save({ cryostatId, kind: "field.setting", payload: v }))
       f.reset({ currentA: "", fieldT: "", persistent: false, rampRateTPerMin: "", comment: "" });
   });
   return (

@@ -17,6 +17,7 @@ import { useCryostat, useEntries, useUserNames, useUsers } from "@/lib/local/hoo
 import { LocalWriteError, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
 import { type HandoverSummary, handoverSummary } from "@/lib/procedures/handover";
 import { signaturesOf } from "@/lib/procedures/state";
+import { isKind } from "@/lib/schemas/entry";
 
 function errorText(e: unknown): string {
   return e instanceof LocalWriteError ? [e.message, ...e.problems].join(" ") : (e as Error).message;
@@ -116,7 +117,7 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
     if (!entries) return [];
     const sigs = signaturesOf(entries);
     return entries
-      .filter((e) => e.kind === "handover")
+      .filter((e) => isKind(e, "handover"))
       .slice(0, 6)
       .map((e) => ({ entry: e, sigs: sigs.filter((g) => g.signedEntryId === e.id) }));
   }, [entries]);
@@ -202,7 +203,7 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
         </h2>
         {past.length === 0 && <p className="text-muted">None on this tablet.</p>}
         {past.map(({ entry, sigs }) => {
-          const p = entry.payload as { note: string; toUserId?: string; summary: HandoverSummary };
+          const p = entry.payload;
           const accepted = sigs.some((g) => g.meaning === "accepted" && g.valid);
           const mayAccept =
             mayHand && me && me.id !== entry.authorId && (!p.toUserId || p.toUserId === me.id) && !accepted;
@@ -214,7 +215,8 @@ function HandoverScreen({ cryostatId }: { cryostatId: string }) {
                 {accepted ? <Tag tone="ok">Accepted</Tag> : <Tag tone="accent">Not yet accepted</Tag>}
               </p>
               <p className="whitespace-pre-wrap">{p.note}</p>
-              {/* Older handovers may carry a partial summary: fill the lists before showing it. */}
+              {/* Older handovers may carry a partial summary (written before the schema filled its
+                  defaults, whatever the type says): fill the lists before showing it. */}
               {(p.summary?.stages?.length ?? 0) > 0 && (
                 <SummaryView
                   s={{

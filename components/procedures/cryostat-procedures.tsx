@@ -6,14 +6,16 @@ import { buttonClass } from "@/components/ui/button";
 import { Panel } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
 import { useEntries } from "@/lib/local/hooks";
-import type { RunStartPayload } from "@/lib/schemas/run";
+import { isKind } from "@/lib/schemas/entry";
 
 export function CryostatProcedures({ cryostatId }: { cryostatId: string }) {
   const list = useEntries({ cryostatId, kinds: ["run.start", "run.abort", "run.complete"] });
   const ended = new Set(
     (list ?? []).filter((e) => e.kind !== "run.start" && e.sync !== "rejected").map((e) => e.runId),
   );
-  const open = (list ?? []).filter((e) => e.kind === "run.start" && e.sync !== "rejected" && !ended.has(e.id));
+  const open = (list ?? [])
+    .filter((e) => isKind(e, "run.start"))
+    .filter((e) => e.sync !== "rejected" && !ended.has(e.id));
   return (
     <Panel aria-labelledby={`procs-${cryostatId}`} className="flex flex-col gap-2">
       <h2 id={`procs-${cryostatId}`} className="text-xl font-bold">
@@ -29,7 +31,7 @@ export function CryostatProcedures({ cryostatId }: { cryostatId: string }) {
                 href={`/runs?id=${e.id}`}
                 className="flex min-h-12 items-center rounded-xl border-2 border-accent px-4 font-semibold hover:bg-sunk"
               >
-                {(e.payload as RunStartPayload).title}{" "}
+                {e.payload.title}{" "}
                 <span className="ml-2 text-sm font-normal text-muted">since {formatDate(e.recordedAt)}</span>
               </Link>
             </li>

@@ -8,11 +8,11 @@ import { useMe } from "@/components/shell/use-me";
 import { PinPanel } from "@/components/signature/pin-panel";
 import { Button, buttonClass } from "@/components/ui/button";
 import { ProblemNotice } from "@/components/ui/form";
-import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import { Loading, Panel, Tag } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
 import { type LocalTemplate, useCryostats, useEntries, useTemplates, useUserNames } from "@/lib/local/hooks";
 import { recordEntry } from "@/lib/local/record";
-import type { RunStartPayload } from "@/lib/schemas/run";
+import { isKind } from "@/lib/schemas/entry";
 import { errorText } from "./run-screen";
 
 /** Newest version of each template key. */
@@ -38,8 +38,9 @@ export function ProceduresHome() {
         .map((e) => [e.runId!, e.kind]),
     );
     return (runEntries ?? [])
-      .filter((e) => e.kind === "run.start" && e.sync !== "rejected")
-      .map((e) => ({ entry: e, payload: e.payload as RunStartPayload, ended: ended.get(e.id) ?? null }))
+      .filter((e) => isKind(e, "run.start"))
+      .filter((e) => e.sync !== "rejected")
+      .map((e) => ({ entry: e, payload: e.payload, ended: ended.get(e.id) ?? null }))
       .sort((a, b) => b.entry.recordedAt.localeCompare(a.entry.recordedAt));
   }, [runEntries]);
 

@@ -8,7 +8,6 @@ import { ROLE_LABEL } from "@/lib/auth/permissions";
 import { formatDate, kindLabel } from "@/lib/format";
 import { useCryostat } from "@/lib/local/hooks";
 import { describeRange } from "@/lib/procedures/state";
-import type { RunStepPayload } from "@/lib/schemas/run";
 import { describeEntry, Photo } from "./step-bits";
 import type { RunView } from "./use-run";
 
@@ -93,7 +92,7 @@ export function RunRecord({ view, names }: { view: RunView; names: Record<string
             ))}
             <ul className="mt-1 flex flex-col gap-1">
               {s.history.map((e) => {
-                const p = e.payload as RunStepPayload;
+                const p = e.payload;
                 const replaced = !s.current.includes(e);
                 return (
                   <li key={e.id} className="border-l-4 border-line pl-3">

@@ -4,14 +4,23 @@
 // already started keep the version they pinned.
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useCallback, useEffect, useState } from "react";
-import { type Control, type UseFormRegister, useFieldArray, useForm, useWatch } from "react-hook-form";
+import {
+  type Control,
+  type RegisterOptions,
+  type UseFormRegister,
+  useFieldArray,
+  useForm,
+  useWatch,
+} from "react-hook-form";
 import type { z } from "zod";
 import { NotAllowed } from "@/components/shell/not-allowed";
 import { useMe } from "@/components/shell/use-me";
 import { Button } from "@/components/ui/button";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
+import type { CryostatKind } from "@/lib/schemas/cryostat";
 import { templateInputSchema } from "@/lib/schemas/run";
+import type { TemplateStep } from "@/lib/schemas/template";
 import { UNITS } from "@/lib/schemas/units";
 import { typedNumber } from "@/lib/typed-number";
 
@@ -21,13 +30,16 @@ type Template = {
   version: number;
   title: string;
   purpose: string;
-  cryostatKinds: string[];
-  steps: unknown[];
+  cryostatKinds: CryostatKind[];
+  steps: TemplateStep[];
   createdAt: string;
   createdBy: string;
 };
 type FormIn = z.input<typeof templateInputSchema>;
 type FormOut = z.output<typeof templateInputSchema>;
+type StepInput = FormIn["steps"][number];
+/** Every field name some kind of step has. */
+type StepField = StepInput extends infer S ? (S extends unknown ? keyof S & string : never) : never;
 
 const KINDS = [
   ["dry_dilution", "Dry dilution refrigerator"],
@@ -132,7 +144,7 @@ function TemplateEditor({ base, onDone }: { base: Template | null; onDone: () =>
           purpose: base.purpose,
           cryostatKinds: base.cryostatKinds,
           steps: base.steps,
-        } as FormIn)
+        } satisfies FormIn)
       : {
           key: "",
           title: "",
@@ -231,14 +243,7 @@ function TemplateEditor({ base, onDone }: { base: Template | null; onDone: () =>
                   Remove
                 </Button>
               </div>
-              <StepFields
-                i={i}
-                register={register}
-                control={control}
-                errors={
-                  (errors.steps as unknown as Record<number, Record<string, { message?: string }>> | undefined)?.[i]
-                }
-              />
+              <StepFields i={i} register={register} control={control} errors={errors.steps?.[i]} />
             </Panel>
           </li>
         ))}
@@ -282,14 +287,14 @@ function StepFields({
   i: number;
   register: UseFormRegister<FormIn>;
   control: Control<FormIn>;
-  errors?: Record<string, { message?: string }>;
+  errors?: Partial<Record<StepField, { message?: string | undefined }>>;
 }) {
   const kind = useWatch({ control, name: `steps.${i}.kind` });
-  const err = (k: string) =>
+  const err = (k: StepField) =>
     errors?.[k]?.message ? <span className="text-sm text-danger">{errors[k]!.message}</span> : null;
-  // The step is a union by kind; field names are checked by the schema on save.
-  const r = (name: string, opts?: Record<string, unknown>) =>
-    register(`steps.${i}.${name}` as `steps.${number}.text`, opts as Parameters<UseFormRegister<FormIn>>[1] as never);
+  // The step is a union by kind: a field of any kind's step (the schema checks the kind's own on save).
+  const r = (name: StepField, opts?: RegisterOptions<FormIn, `steps.${number}.${StepField}`>) =>
+    register(`steps.${i}.${name}`, opts);
   return (
     <div className="grid gap-3 md:grid-cols-3">
       <label className="flex flex-col gap-1 font-semibold">

@@ -5,12 +5,11 @@ import { useMemo } from "react";
 import { type LocalTemplate, useEntries, useEntry, useTemplates } from "@/lib/local/hooks";
 import type { StoredLocalEntry } from "@/lib/local/record";
 import { deriveRun, type RunState } from "@/lib/procedures/state";
-import type { RunStartPayload } from "@/lib/schemas/run";
 
 export type RunView = {
   state: RunState;
   template: LocalTemplate;
-  start: StoredLocalEntry;
+  start: StoredLocalEntry<"run.start">;
   entries: StoredLocalEntry[];
   rejected: StoredLocalEntry[];
 };
@@ -23,9 +22,8 @@ export function useRun(runId: string | undefined): RunView | null | undefined {
   return useMemo(() => {
     if (!runId) return null;
     if (start === undefined || list === undefined || templates === undefined) return undefined;
-    if (!start || start.kind !== "run.start") return null;
-    const p = start.payload as RunStartPayload;
-    const template = templates.find((t) => t.id === p.templateId);
+    if (start?.kind !== "run.start") return null;
+    const template = templates.find((t) => t.id === start.payload.templateId);
     if (!template) return null;
     const all = [start, ...list.filter((e) => e.id !== start.id)];
     // A refused entry is shown with its reason but never counts as done.

@@ -91,7 +91,7 @@ export function QuenchForm() {
             ...(lost !== undefined ? { heliumLostLitres: lost } : {}),
             ...(n(f.oxygen) !== undefined ? { oxygenLowestPercent: n(f.oxygen) } : {}),
             actions: f.actions,
-          } as never,
+          },
         });
       } else {
         await recordEntry({

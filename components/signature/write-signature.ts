@@ -19,6 +19,6 @@ export async function writeSignature(
     cryostatId: target.cryostatId,
     runId: target.runId ?? undefined,
     kind: "signature",
-    payload: signaturePayload(subject, me, c.confirmedBy, proof, c.image) as never,
+    payload: signaturePayload(subject, me, c.confirmedBy, proof, c.image),
   });
 }

@@ -24,6 +24,7 @@ import { litresFromLevel, litresFromMass } from "@/lib/cryo";
 import { trim } from "@/lib/format";
 import { useCryostats, useEntries, useUsers } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
+import { type PayloadInput, payloadOf } from "@/lib/schemas/entry";
 import { typedNumber } from "@/lib/typed-number";
 
 const SUPPLIED_BY = [
@@ -91,6 +92,7 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
   const gainedLitres = typedNumber(f.gained) ?? gainedFromLevels;
 
   const prev = previous?.[0];
+  const prevFill = payloadOf(prev, "transfer");
   const figures = useMemo(() => {
     const b = typedNumber(f.levelBefore);
     const a = typedNumber(f.levelAfter);
@@ -100,25 +102,21 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
         { levelBeforePercent: b, levelAfterPercent: a, suppliedLitres, gainedLitres },
         {
           calibration: cryostat?.config.reservoir?.calibration,
-          previous: prev
-            ? {
-                levelAfterPercent: (prev.payload as { levelAfterPercent: number }).levelAfterPercent,
-                at: prev.recordedAt,
-              }
-            : null,
+          previous: prev && prevFill ? { levelAfterPercent: prevFill.levelAfterPercent, at: prev.recordedAt } : null,
           at: new Date().toISOString(),
         },
       );
     } catch {
       return null;
     }
-  }, [f.levelBefore, f.levelAfter, suppliedLitres, gainedLitres, cryostat, prev]);
+  }, [f.levelBefore, f.levelAfter, suppliedLitres, gainedLitres, cryostat, prev, prevFill]);
 
   async function save() {
     setError(null);
     setBusy(true);
     try {
-      const payload = {
+      // Empty or mistyped figures go as NaN: the shared schema refuses them with the field's name.
+      const payload: PayloadInput<"transfer"> = {
         supplyDewar: f.supplyDewar,
         peoplePresent: people,
         ppeConfirmed: f.ppeConfirmed,
@@ -137,7 +135,7 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
         durationMin: typedNumber(f.duration) ?? Number.NaN,
         anomalies: f.anomalies,
       };
-      const e = await recordEntry({ cryostatId: cid, kind: "transfer", payload: payload as never });
+      const e = await recordEntry({ cryostatId: cid, kind: "transfer", payload });
       setSaved(e);
     } catch (e) {
       if (e instanceof LocalWriteError) setError({ title: e.message, problems: e.problems });

@@ -3,7 +3,7 @@
 // corrections, abort and completion. Pure: the tablet runs it on Dexie rows, the server on
 // PGlite rows, and two tablets writing to one run converge on the same answer.
 import { type EntryFields, isKind, payloadOf, type SignatureMeaning } from "@/lib/schemas/entry";
-import type { RunStartPayload, RunStepPayload } from "@/lib/schemas/run";
+import type { RunStartPayload } from "@/lib/schemas/run";
 import type { TemplateStep } from "@/lib/schemas/template";
 import { recordHash } from "@/lib/sync/hash";
 
@@ -11,6 +11,9 @@ import { recordHash } from "@/lib/sync/hash";
 export type RunEntry = EntryFields<
   "id" | "cryostatId" | "runId" | "authorId" | "deviceId" | "recordedAt" | "supersedes" | "reason"
 >;
+
+/** A step entry of a run (its payload the step's kind and figures). */
+export type StepEntry = Extract<RunEntry, { kind: "run.step" }>;
 
 export type PinnedTemplate = { id: string; key: string; version: number; title: string; steps: TemplateStep[] };
 
@@ -36,9 +39,9 @@ export type StepState = {
   status: StepStatus;
   required: boolean;
   /** Entries for this step still in force, oldest first. */
-  current: RunEntry[];
+  current: StepEntry[];
   /** Every entry ever written for this step, superseded ones included, oldest first. */
-  history: RunEntry[];
+  history: StepEntry[];
   problems: string[];
   /** Hold points: when the required role signed, if it has. */
   releasedAt: string | null;
@@ -131,10 +134,6 @@ export function correctionsOf(entries: RunEntry[], signatures: SignatureView[]):
   return out;
 }
 
-function stepOf(e: RunEntry): RunStepPayload | null {
-  return payloadOf(e, "run.step") ?? null;
-}
-
 /** Derive a run's state from its entries (run.*, and signatures on them) and its pinned template. */
 export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: RunEntry[]): RunState {
   const entries = [...rawEntries].filter((e) => e.runId === runId || e.id === runId).sort(byTime);
@@ -154,7 +153,7 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
 
   // Hold points first: what each one releases and when.
   const steps: StepState[] = template.steps.map((step, index) => {
-    const history = entries.filter((e) => stepOf(e)?.stepId === step.id);
+    const history = entries.filter((e) => isKind(e, "run.step")).filter((e) => e.payload.stepId === step.id);
     const current = history.filter((e) => !replaced.has(e.id) && !pending.has(e.id));
     const problems: string[] = [];
     let status: StepStatus = current.length ? "done" : "todo";
@@ -164,10 +163,7 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
         if (
           step.secondPerson &&
           current.length &&
-          !current.some((e) => {
-            const p = stepOf(e);
-            return p?.kind === "check" && p.secondPersonId;
-          })
+          !current.some((e) => e.payload.kind === "check" && e.payload.secondPersonId)
         ) {
           problems.push("Needs a second person, and none was named.");
           status = "flagged";
@@ -175,7 +171,7 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
         break;
       case "reading": {
         const last = current.at(-1);
-        const p = last ? stepOf(last) : null;
+        const p = last?.payload;
         if (p?.kind === "reading") {
           const out = readingOutOfRange(step, p.value);
           if (out) {
