@@ -13,7 +13,7 @@ import { formatDate } from "@/lib/format";
 import { type LocalTemplate, useCryostats, useEntries, useTemplates, useUserNames } from "@/lib/local/hooks";
 import { recordEntry } from "@/lib/local/record";
 import { isKind } from "@/lib/schemas/entry";
-import { errorText } from "./run-screen";
+import { errorText } from "./run/context";
 
 /** Newest version of each template key. */
 export function latestOfEach(templates: LocalTemplate[]): LocalTemplate[] {

@@ -7,7 +7,7 @@ import type { StoredLocalEntry } from "@/lib/local/record";
 import { deriveRun, type RunState } from "@/lib/procedures/state";
 
 export type RunView = {
-  state: RunState;
+  state: RunState<StoredLocalEntry>;
   template: LocalTemplate;
   start: StoredLocalEntry<"run.start">;
   entries: StoredLocalEntry[];

@@ -12,8 +12,8 @@ export type RunEntry = EntryFields<
   "id" | "cryostatId" | "runId" | "authorId" | "deviceId" | "recordedAt" | "supersedes" | "reason"
 >;
 
-/** A step entry of a run (its payload the step's kind and figures). */
-export type StepEntry = Extract<RunEntry, { kind: "run.step" }>;
+/** A step entry of a run (its payload the step's kind and figures), of the caller's entry type. */
+export type StepEntry<E extends RunEntry = RunEntry> = Extract<E, { kind: "run.step" }>;
 
 export type PinnedTemplate = { id: string; key: string; version: number; title: string; steps: TemplateStep[] };
 
@@ -33,41 +33,42 @@ export type SignatureView = {
 
 export type StepStatus = "todo" | "done" | "flagged" | "awaiting_signature" | "blocked";
 
-export type StepState = {
+/** A step and its entries, of the entry type the run was derived from (tablet or server rows). */
+export type StepState<E extends RunEntry = RunEntry> = {
   step: TemplateStep;
   index: number;
   status: StepStatus;
   required: boolean;
   /** Entries for this step still in force, oldest first. */
-  current: StepEntry[];
+  current: StepEntry<E>[];
   /** Every entry ever written for this step, superseded ones included, oldest first. */
-  history: StepEntry[];
+  history: StepEntry<E>[];
   problems: string[];
   /** Hold points: when the required role signed, if it has. */
   releasedAt: string | null;
 };
 
-export type Correction = { original: RunEntry; correction: RunEntry; inForce: boolean };
+export type Correction<E extends RunEntry = RunEntry> = { original: E; correction: E; inForce: boolean };
 
-export type RunState = {
+export type RunState<E extends RunEntry = RunEntry> = {
   runId: string;
-  start: RunEntry | null;
+  start: E | null;
   startPayload: RunStartPayload | null;
   status: "open" | "completed" | "aborted";
-  steps: StepState[];
+  steps: StepState<E>[];
   progress: { done: number; required: number; percent: number };
   /** The first step still to do (the one a technician works on next), or null when all are done. */
   currentIndex: number | null;
   /** The first hold point not yet released: steps after it wait for it. */
   blockingHold: number | null;
   canComplete: boolean;
-  aborted: { entry: RunEntry; reason: string } | null;
-  completed: { entry: RunEntry } | null;
+  aborted: { entry: E; reason: string } | null;
+  completed: { entry: E } | null;
   signatures: SignatureView[];
-  corrections: Correction[];
+  corrections: Correction<E>[];
   flags: string[];
   /** Every entry of the run in order, for the printed record. */
-  timeline: RunEntry[];
+  timeline: E[];
 };
 
 const byTime = (a: RunEntry, b: RunEntry) =>
@@ -121,10 +122,10 @@ export function signaturesOf(entries: RunEntry[]): SignatureView[] {
  * once the correction carries a valid signature of its own; until then the signed original stays
  * in force and the correction is shown as waiting for its signature.
  */
-export function correctionsOf(entries: RunEntry[], signatures: SignatureView[]): Correction[] {
+export function correctionsOf<E extends RunEntry>(entries: E[], signatures: SignatureView[]): Correction<E>[] {
   const signed = new Set(signatures.filter((s) => s.valid).map((s) => s.signedEntryId));
   const byId = new Map(entries.map((e) => [e.id, e]));
-  const out: Correction[] = [];
+  const out: Correction<E>[] = [];
   for (const c of entries) {
     if (!c.supersedes) continue;
     const original = byId.get(c.supersedes);
@@ -134,8 +135,11 @@ export function correctionsOf(entries: RunEntry[], signatures: SignatureView[]):
   return out;
 }
 
-/** Derive a run's state from its entries (run.*, and signatures on them) and its pinned template. */
-export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: RunEntry[]): RunState {
+/**
+ * Derive a run's state from its entries (run.*, and signatures on them) and its pinned template.
+ * The entries come back in the state as the type they were passed in (tablet or server rows).
+ */
+export function deriveRun<E extends RunEntry>(runId: string, template: PinnedTemplate, rawEntries: E[]): RunState<E> {
   const entries = [...rawEntries].filter((e) => e.runId === runId || e.id === runId).sort(byTime);
   const signatures = signaturesOf(entries);
   const corrections = correctionsOf(entries, signatures);
@@ -152,7 +156,7 @@ export function deriveRun(runId: string, template: PinnedTemplate, rawEntries: R
   const flags: string[] = [];
 
   // Hold points first: what each one releases and when.
-  const steps: StepState[] = template.steps.map((step, index) => {
+  const steps: StepState<E>[] = template.steps.map((step, index) => {
     const history = entries.filter((e) => isKind(e, "run.step")).filter((e) => e.payload.stepId === step.id);
     const current = history.filter((e) => !replaced.has(e.id) && !pending.has(e.id));
     const problems: string[] = [];
