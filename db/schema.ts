@@ -14,6 +14,7 @@ import {
   uniqueIndex,
   uuid,
 } from "drizzle-orm/pg-core";
+import type { CalibrationTable } from "@/lib/cryo";
 import type { CryostatConfig, CryostatKind } from "@/lib/schemas/cryostat";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import type { TemplateStep } from "@/lib/schemas/template";
@@ -224,7 +225,7 @@ export const calibrations = pgTable(
     attachmentId: uuid("attachment_id"),
     fileName: text("file_name").notNull(),
     sourceText: text("source_text").notNull(),
-    table: jsonb("table").$type<Record<string, unknown>>().notNull(),
+    table: jsonb("table").$type<CalibrationTable>().notNull(),
     acceptedBy: text("accepted_by")
       .notNull()
       .references(() => users.id),

@@ -19,7 +19,7 @@ function toRecord(row: CalibrationRow, name: string | null): CalibrationRecord {
     sensorLabel: row.sensorLabel,
     attachmentId: row.attachmentId,
     fileName: row.fileName,
-    table: row.table as unknown as CalibrationTable,
+    table: row.table,
     acceptedBy: row.acceptedBy,
     acceptedByName: name ?? row.acceptedBy,
     acceptedAt: row.acceptedAt.toISOString(),
@@ -58,7 +58,7 @@ export async function acceptCalibration(
       attachmentId: upload.attachmentId ?? null,
       fileName: upload.fileName,
       sourceText: upload.text,
-      table: table as unknown as Record<string, unknown>,
+      table,
       acceptedBy: userId,
     })
     .returning();
