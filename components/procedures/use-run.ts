@@ -17,7 +17,7 @@ export type RunView = {
 /** undefined: loading; null: this tablet does not know the run (or its template) yet. */
 export function useRun(runId: string | undefined): RunView | null | undefined {
   const start = useEntry(runId);
-  const list = useEntries(runId ? { runId } : { kinds: ["__none__"] });
+  const list = useEntries(runId ? { runId } : { kinds: [] });
   const templates = useTemplates();
   return useMemo(() => {
     if (!runId) return null;

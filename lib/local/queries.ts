@@ -1,8 +1,10 @@
 // Reads from the tablet store, shared by the live-query hooks and tests: entries (pulled + local,
 // newest first), reference data and the sync summary.
+import type { EntryKind } from "@/lib/schemas/entry";
 import type { RimelogDexie, StoredLocalEntry } from "./db";
 
-export type EntryFilter = { cryostatId?: string | null; runId?: string; kinds?: string[]; limit?: number };
+/** Which entries to read; `kinds: []` reads none. */
+export type EntryFilter = { cryostatId?: string | null; runId?: string; kinds?: EntryKind[]; limit?: number };
 
 /** Unsent and refused entries first (newest first), then the server's order, newest first. */
 export function newestFirst(a: StoredLocalEntry, b: StoredLocalEntry): number {
