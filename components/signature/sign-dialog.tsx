@@ -1,7 +1,7 @@
 "use client";
 // Signing: who is signing and what it means are shown first, then the mark on the pad and the
 // signer's secret (PIN on the tablet, or the password while online). Only after the secret checks
-// out does the caller write the record and its signature (R5: the image alone never signs).
+// out does the caller write the record and its signature (the image alone never signs).
 import { type ReactNode, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/panel";

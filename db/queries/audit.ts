@@ -43,7 +43,7 @@ export async function auditFindingCheck(
   return null;
 }
 
-/** An "audited" signature signs a finding, and only with the officer's PIN or password (R5). */
+/** An "audited" signature signs a finding, and only with the officer's PIN or password. */
 export async function auditSignatureCheck(
   db: Db,
   e: EntryInput,

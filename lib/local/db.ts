@@ -23,7 +23,7 @@ export type StoredLocalEntry = EntryInput & {
   rejection: Rejection | null;
 };
 
-/** One unsent entry. Rows leave the outbox only when the server has answered for the entry (S3). */
+/** One unsent entry. Rows leave the outbox only when the server has answered for the entry. */
 export type OutboxRow = {
   n?: number; // auto-increment: the order of writing on this tablet, which is also the push order
   entryId: string;

@@ -1,7 +1,7 @@
-// Chain check (R6) against a real database: rows changed, inserted, deleted, reordered or cut off
-// directly in SQL (with the append-only trigger disabled for the test) are named as the break; a
-// chain wholly recomputed after a change is caught by the server's signed checkpoints; checkpoints
-// signed with another key are not trusted.
+// Chain check (tamper evidence) against a real database: rows changed, inserted, deleted, reordered
+// or cut off directly in SQL (with the append-only trigger disabled for the test) are named as the
+// break; a chain wholly recomputed after a change is caught by the server's signed checkpoints;
+// checkpoints signed with another key are not trusted.
 import { mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";

@@ -1,4 +1,4 @@
-// Signatures on the server (R3–R5): bound to the exact record by recordHash (RFC 8785 canonical
+// Signatures on the server: bound to the exact record by recordHash (RFC 8785 canonical
 // JSON, SHA-256), refused when the record changed after signing, refused for a role that may not
 // sign that meaning, and refused on procedure records without a checked PIN/password proof.
 import { createHash, randomBytes, randomUUID } from "node:crypto";

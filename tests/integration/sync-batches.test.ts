@@ -1,7 +1,7 @@
 // The tablet's push loop against the real server code: batches leave in order of writing while the
 // previous answer is still being written, a 413 halves the batch from the same place, another
 // person's queued rows in between are left alone, a failure half-way keeps every unanswered row
-// queued (S3), an answer kept as a receipt survives a crash before it reaches its entries, and rows
+// queued, an answer kept as a receipt survives a crash before it reaches its entries, and rows
 // queued by the schema-v2 app (no entry in the row) are still sent.
 import Dexie from "dexie";
 import { asc, eq } from "drizzle-orm";

@@ -1,5 +1,6 @@
-// S2: a server process killed (SIGKILL) in the middle of a large push leaves no half-applied
-// batch; after a restart the tablet's retry completes it and every entry is stored exactly once.
+// A pushed batch commits as a whole: a server process killed (SIGKILL) in the middle of a large
+// push leaves no half-applied batch; after a restart the tablet's retry completes it and every
+// entry is stored exactly once.
 import { spawn } from "node:child_process";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";

@@ -1,8 +1,11 @@
-// Seeded random simulation of several tablets against the real server code (S1, S3, S5):
-// offline writes, pushes that are lost before or after the server applied them, delivered twice
-// or late, pulls that fail, tablet reloads, and (second property) server restarts on a data dir.
+// Seeded random simulation of several tablets against the real server code: retried, duplicated
+// and reordered pushes must end as one clean push would, and an outbox row may leave only once
+// answered. It throws at them offline writes, pushes that are lost before or after the server
+// applied them, delivered twice or late, pulls that fail, tablet reloads, and (second property)
+// server restarts on a data dir.
 // Afterwards every tablet and the server hold exactly the same entries, none lost, none
-// duplicated, each tablet's entries in the order it wrote them, and the hash chains are valid.
+// duplicated, each tablet's entries in the order it wrote them, every outbox empty, every pull
+// cursor at the server's last entry, and the hash chains are valid.
 // The tablets run the real store (lib/local, on fake-indexeddb) and sync client (lib/sync).
 import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";

@@ -1,4 +1,5 @@
-// The demo lab's accounts as the app seeds them (see shared/SCENARIO.md); one password for all.
+// The demo lab's accounts as the app seeds them (db/seed.ts DEMO_USERS, listed in README.md); one
+// password for all.
 export const DEMO_PASSWORD = "cold-hall-demo";
 
 export type Role = "facility_admin" | "technician" | "researcher" | "safety_officer";

@@ -1,4 +1,4 @@
-// Gas accounting against CODATA 2018 molar volumes [pub], the REFERENCES.md [calc] example, mathjs
+// Gas accounting against CODATA 2018 molar volumes [pub], the lib/cryo/README.md [calc] example, mathjs
 // (gasConstant, molarVolume and unit conversions) and the CoolProp Z table (cryogens-eos.json).
 import Decimal from "decimal.js";
 import * as math from "mathjs";

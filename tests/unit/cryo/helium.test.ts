@@ -1,5 +1,5 @@
 // Liquid-helium bookkeeping against the CoolProp values in cryogens-eos.json ([eos]), the
-// REFERENCES.md table, simple-statistics (linear regression) and mathjs (matrix inverse for the
+// table in lib/cryo/README.md, simple-statistics (linear regression) and mathjs (matrix inverse for the
 // slope's standard error). Rules of thumb are marked as common practice.
 import * as math from "mathjs";
 import * as ss from "simple-statistics";

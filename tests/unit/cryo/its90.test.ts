@@ -1,5 +1,5 @@
 // ITS-90 helium vapour-pressure scale against Metrologia 27, 3 (1990) / Donnelly & Barenghi,
-// J. Phys. Chem. Ref. Data 27, 1217 (1998), the [calc] values of REFERENCES.md, and the
+// J. Phys. Chem. Ref. Data 27, 1217 (1998), the [calc] values of lib/cryo/README.md, and the
 // independent CoolProp equation of state in cryogens-eos.json.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";

@@ -1,4 +1,4 @@
-// Magnet arithmetic against REFERENCES.md [calc] values (½LI², quench bound with the eos density and
+// Magnet arithmetic against lib/cryo/README.md [calc] values (½LI², quench bound with the eos density and
 // latent heat, dipole contour distances) and mathjs (μ0 and unit conversions).
 import * as math from "mathjs";
 import { describe, expect, it } from "vitest";

@@ -1,4 +1,4 @@
-// Oxygen-deficiency estimates against the FESHM 4240-style forms of REFERENCES.md ([calc] check
+// Oxygen-deficiency estimates against the FESHM 4240-style forms of lib/cryo/README.md ([calc] check
 // values; the manual's own text from memory) and the OSHA 29 CFR 1910.146 thresholds [pub].
 import { describe, expect, it } from "vitest";
 import {

@@ -1,4 +1,4 @@
-// IEC 60751 Callendar–Van Dusen against the standard's table values [pub] and REFERENCES.md [calc].
+// IEC 60751 Callendar–Van Dusen against the standard's table values [pub] and lib/cryo/README.md [calc].
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { ptResistance, ptTemperature, ptToleranceC } from "@/lib/cryo";

@@ -1,5 +1,5 @@
 // Transport arithmetic against the CODATA 2018 exact constants (2019 SI) [pub], mathjs physical
-// constants, REFERENCES.md [calc] values, and ml-levenberg-marquardt on synthetic Kondo data.
+// constants, lib/cryo/README.md [calc] values, and ml-levenberg-marquardt on synthetic Kondo data.
 // The empirical Kondo form (Goldhaber-Gordon et al., Phys. Rev. Lett. 81, 5225 (1998)) is quoted
 // from memory for its exact printed form.
 import * as math from "mathjs";
