@@ -71,7 +71,7 @@ describe("gasLitresFromLiquid", () => {
   it.each([
     ["15C_1atm", 736.8],
     ["20C_1atm", 749.6],
-  ] as const)("1 L liquid → gas at %s 1 : %d (REFERENCES.md table [eos])", (ref, ratio) => {
+  ] as const)("1 L liquid → gas at %s 1 : %d (lib/cryo/README.md table [eos])", (ref, ratio) => {
     const gas = gasLitresFromLiquid(1, ref);
     expect(gas.gasLitres).toBeCloseTo(ratio, 1);
     expect(gas.reference).toBe(ref);
@@ -85,7 +85,7 @@ describe("gasLitresFromLiquid", () => {
     expect(gasLitresFromLiquid(1, "21.11C_1atm").expansionRatio).toBeLessThan(757);
   });
 
-  it("nitrogen 1 : 692.0 at 20 °C (REFERENCES.md [eos])", () => {
+  it("nitrogen 1 : 692.0 at 20 °C (lib/cryo/README.md [eos])", () => {
     expect(gasLitresFromLiquid(10, "20C_1atm", "nitrogen").gasLitres).toBeCloseTo(6920, -1);
   });
 

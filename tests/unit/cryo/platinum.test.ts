@@ -13,7 +13,7 @@ describe("ptResistance (IEC 60751 table, Pt100)", () => {
     expect(ptResistance(t)).toBeCloseTo(r, 2);
   });
 
-  it("−196 °C (LN2) → 20.2465 Ω (REFERENCES.md [calc])", () => {
+  it("−196 °C (LN2) → 20.2465 Ω (lib/cryo/README.md [calc])", () => {
     expect(ptResistance(-196)).toBeCloseTo(20.2465, 4);
   });
 

@@ -48,7 +48,7 @@ describe("constants (CODATA 2018, exact in the 2019 SI)", () => {
 });
 
 describe("Aharonov–Bohm ring", () => {
-  it("1 µm mean diameter → ΔB = 5.2657 mT (REFERENCES.md [calc]); mathjs unit check in mT", () => {
+  it("1 µm mean diameter → ΔB = 5.2657 mT (lib/cryo/README.md [calc]); mathjs unit check in mT", () => {
     const period = aharonovBohmPeriodT({ meanDiameterM: 1e-6 });
     expect(period * 1e3).toBeCloseTo(5.2657, 4);
     const viaMathjs = math.divide(
