@@ -9,8 +9,8 @@ import { getAttachment, saveAttachment } from "@/db/queries/attachments";
 import type { Attachment } from "@/db/schema";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
-import { readUploadBytes } from "@/server/http/upload";
-import { cleanFileName, fileStore, newStorageKey, type Sniffed } from "./objects";
+import { readUploadBytes, uploadHeader } from "@/server/http/upload";
+import { cleanFileName, fileStore, MAX_ATTACHMENT_BYTES, newStorageKey, type Sniffed, sniffType } from "./objects";
 
 export type UploadSpec = {
   /** The error code's surface ("attachment", "rules_document"). */
@@ -54,6 +54,37 @@ export async function receiveUpload(db: Db, req: Request, spec: UploadSpec): Pro
   });
   if (row.sha256 !== sha256) throw conflict();
   return { row, sha256, created: true };
+}
+
+const tooLarge = () => `The file is over ${MAX_ATTACHMENT_BYTES / 1048576} MB.`;
+
+/** A photo, PDF or plain-text file, by its bytes. */
+function identifyAttachment(bytes: Uint8Array): Sniffed {
+  if (bytes.length > MAX_ATTACHMENT_BYTES) throw new AppError("too_large", "attachment", tooLarge());
+  if (bytes.length === 0) throw new AppError("bad_request", "attachment", "The file is empty.");
+  const type = sniffType(bytes);
+  if (type) return type;
+  throw new AppError(
+    "unsupported",
+    "attachment",
+    "Only photos (JPEG, PNG, WebP), PDF and plain-text files are accepted.",
+  );
+}
+
+/**
+ * A file from the tablet (POST /api/attachments) under the id the tablet made (`id`, already
+ * checked), its name from the x-rimelog-file-name header (URI-encoded).
+ */
+export function receiveAttachment(db: Db, req: Request, opts: { id: string; uploadedBy: string }) {
+  return receiveUpload(db, req, {
+    surface: "attachment",
+    id: opts.id,
+    fileName: uploadHeader(req, "x-rimelog-file-name"),
+    uploadedBy: opts.uploadedBy,
+    maxBytes: MAX_ATTACHMENT_BYTES,
+    tooLarge,
+    identify: identifyAttachment,
+  });
 }
 
 /** A stored file's record and bytes; null when there is no record or its bytes are gone. */
