@@ -15,7 +15,8 @@ type TickState = {
   soon?: ReturnType<typeof setTimeout>;
 };
 const g = globalThis as unknown as { __rimelogTick?: TickState };
-const state: TickState = (g.__rimelogTick ??= {});
+g.__rimelogTick ??= {};
+const state: TickState = g.__rimelogTick;
 
 export async function runServerTick(): Promise<void> {
   if (state.running) return state.running;

@@ -6,6 +6,7 @@ import { Button } from "@/components/ui/button";
 import { Notice, Panel } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
 import type { SessionUser } from "@/lib/schemas/user";
+import { pinProblem } from "@/lib/signing/pin-rules";
 import { type CachedPin, cachedPin, storePin } from "@/lib/signing/tablet";
 
 type Verifier = { saltB64: string; iterations: number; verifier: string; expiresAt: string };
@@ -36,7 +37,8 @@ export function PinPanel({ me }: { me: SessionUser }) {
 
   async function save() {
     setMsg(null);
-    if (!/^[0-9]{6,12}$/.test(next)) return setMsg({ tone: "danger", text: "The PIN is 6 to 12 digits." });
+    const problem = pinProblem(next);
+    if (problem) return setMsg({ tone: "danger", text: problem });
     if (next !== again) return setMsg({ tone: "danger", text: "The two PINs differ." });
     setBusy(true);
     try {
