@@ -16,7 +16,7 @@ export function newestFirst(a: StoredLocalEntry, b: StoredLocalEntry): number {
 /**
  * An entry is unsent while its outbox row exists (the outbox is the truth). Between the server's
  * answer and the moment that answer is written into the entry (a receipt, see foldReceipts in
- * lib/sync/client.ts) the entry itself still says "pending": it is shown as synced from the
+ * lib/sync/push.ts) the entry itself still says "pending": it is shown as synced from the
  * moment its outbox row is gone, so the rows agree with the pending count.
  */
 async function withSendState(db: RimelogDexie, list: StoredLocalEntry[]): Promise<StoredLocalEntry[]> {
