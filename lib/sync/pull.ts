@@ -43,7 +43,8 @@ export async function applyPull(
   reply: PullReply,
   now: () => Date,
 ): Promise<{ cursor: number; restart: boolean }> {
-  return db.transaction("rw", [db.entries, db.outbox, db.meta, db.cryostats, db.templates, db.users], async () => {
+  const stores = [db.entries, db.outbox, db.meta, db.cryostats, db.templates, db.calibrations, db.users];
+  return db.transaction("rw", stores, async () => {
     const session = await db.getMeta("session");
     const at = now();
     // The offline session is renewed by every good contact; written again only when who it is
@@ -93,6 +94,9 @@ export async function applyPull(
       await db.cryostats.bulkPut(ref.cryostats);
       await db.templates.clear();
       await db.templates.bulkPut(ref.templates);
+      // A server from before calibrations were part of the reference sends none: none are kept.
+      await db.calibrations.clear();
+      if (ref.calibrations?.length) await db.calibrations.bulkPut(ref.calibrations);
       await db.users.clear();
       await db.users.bulkPut(ref.users);
       await db.setMeta("rules", ref.rules);
@@ -110,6 +114,7 @@ async function forgetPulledData(db: RimelogDexie): Promise<void> {
   await db.entries.where("sync").equals("synced").delete();
   await db.cryostats.clear();
   await db.templates.clear();
+  await db.calibrations.clear();
   await db.users.clear();
   await db.meta.bulkDelete(["cursor", "refHash", "rules", "lastSuccess"]);
 }
