@@ -46,7 +46,8 @@ describe("api()", () => {
   it("sends raw bytes as application/octet-stream unless told otherwise, with the caller's headers", async () => {
     const f = answer(200, { rules: { version: 2 } });
     await api("/api/rules/document", { body: new Blob(["%PDF-"]), headers: { "x-rimelog-file-name": "a.pdf" } });
-    const headers = (f.mock.calls[0]![1] ?? {}).headers as Record<string, string>;
+    const [, init = {}] = f.mock.calls[0]!;
+    const headers = init.headers as Record<string, string>;
     expect(headers["content-type"]).toBe("application/octet-stream");
     expect(headers["x-rimelog-file-name"]).toBe("a.pdf");
   });
