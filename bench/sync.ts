@@ -21,8 +21,9 @@ import { seedIfEmpty } from "@/db/seed";
 import { RimelogDexie } from "@/lib/local/db";
 import { buildEntry, confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import type { SessionUser } from "@/lib/schemas/user";
-import { syncOnce, type Transport } from "@/lib/sync/client";
+import { syncOnce } from "@/lib/sync/client";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
+import type { Transport } from "@/lib/sync/transport";
 import { applyPush } from "@/server/sync/apply";
 
 const N = Number(process.env.BENCH_N) || 10_000;

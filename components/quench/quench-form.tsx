@@ -4,7 +4,6 @@
 // officer's audit queue.
 import { useMemo, useState } from "react";
 import { Caution } from "@/components/safety/caution";
-import { useFacilityRules } from "@/components/safety/use-facility-rules";
 import { Button } from "@/components/ui/button";
 import {
   ChoiceButtons,
@@ -18,7 +17,7 @@ import {
 import { Panel } from "@/components/ui/panel";
 import { quenchFigures } from "@/lib/audit/figures";
 import { trim } from "@/lib/format";
-import { useCryostats } from "@/lib/local/hooks";
+import { useCryostats, useFacilityRules } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry } from "@/lib/local/record";
 import { heliumLostText, oxygenEstimateText } from "@/lib/safety/estimates";
 
@@ -34,7 +33,7 @@ const localNow = () => {
 
 export function QuenchForm() {
   const cryostats = useCryostats();
-  const { rules } = useFacilityRules();
+  const rules = useFacilityRules();
   const [mode, setMode] = useState<"quench" | "incident">("quench");
   const [cryostatId, setCryostatId] = useState("");
   const list = mode === "quench" ? (cryostats ?? []).filter((c) => c.config.magnet) : (cryostats ?? []);
@@ -130,7 +129,14 @@ export function QuenchForm() {
           value={mode}
           onChange={setMode}
         />
-        <form className="flex flex-col gap-3" noValidate onSubmit={(e) => (e.preventDefault(), void save())}>
+        <form
+          className="flex flex-col gap-3"
+          noValidate
+          onSubmit={(e) => {
+            e.preventDefault();
+            void save();
+          }}
+        >
           <FieldRow id="q-cryostat" label="Cryostat">
             <select id="q-cryostat" className={INPUT_CLASS} value={cid} onChange={(e) => setCryostatId(e.target.value)}>
               <OptionList options={list.map((c) => ({ value: c.id, label: c.name }))} />

@@ -12,7 +12,8 @@ import { AppError } from "@/lib/errors";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, putAttachmentIn, recordEntriesIn } from "@/lib/local/store";
 import type { SessionUser } from "@/lib/schemas/user";
-import { syncOnce, type Transport } from "@/lib/sync/client";
+import { syncOnce } from "@/lib/sync/client";
+import type { Transport } from "@/lib/sync/transport";
 import { sniffType } from "@/server/storage/objects";
 import { freshDb } from "./fixture";
 

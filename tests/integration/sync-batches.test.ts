@@ -15,7 +15,9 @@ import { queryEntries, queryEntry } from "@/lib/local/queries";
 import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import type { EntryInput } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
-import { applyPushReply, syncOnce, type Transport, TransportError, toInput } from "@/lib/sync/client";
+import { syncOnce } from "@/lib/sync/client";
+import { applyPushReply, toInput } from "@/lib/sync/push";
+import { type Transport, TransportError } from "@/lib/sync/transport";
 import { applyPush, pullPage } from "@/server/sync/apply";
 import { freshDb } from "./fixture";
 

@@ -15,9 +15,11 @@ import { seedIfEmpty } from "@/db/seed";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import type { SessionUser } from "@/lib/schemas/user";
-import { syncOnce, type Transport, toInput } from "@/lib/sync/client";
+import { syncOnce } from "@/lib/sync/client";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
+import { toInput } from "@/lib/sync/push";
+import type { Transport } from "@/lib/sync/transport";
 import { applyPush, pullPage } from "@/server/sync/apply";
 
 const tomasz: SessionUser = {

@@ -21,8 +21,9 @@ import { seedIfEmpty } from "@/db/seed";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import type { SessionUser } from "@/lib/schemas/user";
-import { syncOnce, type Transport, TransportError } from "@/lib/sync/client";
+import { syncOnce } from "@/lib/sync/client";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
+import { type Transport, TransportError } from "@/lib/sync/transport";
 import { applyPush, pullPage } from "@/server/sync/apply";
 import { freshDb } from "./fixture";
 

@@ -10,8 +10,9 @@ import { AppError } from "@/lib/errors";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, recordEntriesIn } from "@/lib/local/store";
 import type { SessionUser } from "@/lib/schemas/user";
-import { syncOnce, type Transport, TransportError } from "@/lib/sync/client";
+import { syncOnce } from "@/lib/sync/client";
 import { PUSH_LIMITS, type PullReply, type PushReply } from "@/lib/sync/protocol";
+import { type Transport, TransportError } from "@/lib/sync/transport";
 import { freshDb } from "./fixture";
 
 const state: { db?: Db; user: SessionUser | null } = { user: null };

@@ -4,8 +4,8 @@ import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { describe, expect, it } from "vitest";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession } from "@/lib/local/store";
-import type { Transport } from "@/lib/sync/client";
 import { SyncLoop } from "@/lib/sync/loop";
+import type { Transport } from "@/lib/sync/transport";
 
 const tomasz = {
   id: "u-tomasz",

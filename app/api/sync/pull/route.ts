@@ -2,13 +2,13 @@
 // role may read) and, when the tablet's copy is stale, the reference data. Never cached.
 import { z } from "zod";
 import { getDb } from "@/db";
+import { loadReference } from "@/db/queries/reference";
 import { AppError } from "@/lib/errors";
 import { PULL_PAGE, type PullReply } from "@/lib/sync/protocol";
 import { requireUser } from "@/server/auth/require";
 import { handle, json } from "@/server/http/respond";
 import { pullPage } from "@/server/sync/apply";
 import { ensureServerTick } from "@/server/tick";
-import { loadReference } from "./reference";
 
 export const dynamic = "force-dynamic";
 
