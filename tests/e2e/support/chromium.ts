@@ -27,7 +27,7 @@ export function assertChromiumInstalled(): string {
 }
 
 /**
- * Flags known to work here (shared/STACK.md "Browser tests"): no sandbox as root, no GPU, and no
+ * Flags known to work here (Debian's Chromium, headless, often as root): no sandbox, no GPU, and no
  * background networking, which on a closed network would only produce refused connections.
  */
 export const CHROMIUM_ARGS = [
