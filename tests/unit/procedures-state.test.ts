@@ -13,6 +13,7 @@ import {
   readingOutOfRange,
 } from "@/lib/procedures/state";
 import { recordHash } from "@/lib/sync/hash";
+import { entryBuilder, ticking } from "../support/entries";
 
 const cooldown = DEFAULT_TEMPLATES.find((t) => t.key === "cooldown-dry-dilution")!;
 const template: PinnedTemplate = {
@@ -23,22 +24,10 @@ const template: PinnedTemplate = {
   steps: cooldown.steps,
 };
 
-let clock = Date.parse("2026-12-01T08:00:00Z");
+/** Tomasz's entries on Heron, one minute apart from 2026-12-01 08:00 UTC. */
+const entry = entryBuilder({ cryostatId: "heron" }, ticking("2026-12-01T08:00:00Z"));
 function e(kind: string, payload: Record<string, unknown>, over: Partial<RunEntry> = {}): RunEntry {
-  clock += 60_000;
-  return {
-    id: randomUUID(),
-    cryostatId: "heron",
-    runId: null,
-    kind: kind as RunEntry["kind"],
-    payload,
-    authorId: "u-tomasz",
-    deviceId: "tab-1",
-    recordedAt: new Date(clock).toISOString(),
-    supersedes: null,
-    reason: null,
-    ...over,
-  };
+  return entry({ kind: kind as RunEntry["kind"], payload, ...over });
 }
 function run() {
   const start = e("run.start", {
