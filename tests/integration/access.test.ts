@@ -32,13 +32,11 @@ type Method = (typeof METHODS)[number];
 type Handler = ((req: Request, ctx?: unknown) => Promise<Response>) & { access?: Access };
 
 /**
- * Route files not made with the route wrapper, and the access they have. next-auth's own handler
- * is public by nature and is not called here; the pull route is owned elsewhere and still checks
- * the session itself (once it is made with the wrapper, its declared access is used instead).
+ * Route files not made with the route wrapper, and the access they have: next-auth's own handler,
+ * public by nature, not called here.
  */
 const UNWRAPPED: Record<string, { access: Access; call: boolean }> = {
   "app/api/auth/[...nextauth]/route.ts": { access: "public", call: false },
-  "app/api/sync/pull/route.ts": { access: "signed-in", call: true },
 };
 
 const OFFICE = ["safety_officer", "facility_admin"] as const;
