@@ -8,7 +8,7 @@ import { useMe } from "@/components/shell/use-me";
 import { PinPanel } from "@/components/signature/pin-panel";
 import { Button, buttonClass } from "@/components/ui/button";
 import { ProblemNotice } from "@/components/ui/form";
-import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import { Loading, Panel, Tag } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
 import { type LocalTemplate, useCryostats, useEntries, useTemplates, useUserNames } from "@/lib/local/hooks";
 import { recordEntry } from "@/lib/local/record";

@@ -14,7 +14,7 @@ import { writeSignature } from "@/components/signature/write-signature";
 import { Button, buttonClass } from "@/components/ui/button";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { ROLE_LABEL, type Role } from "@/lib/auth/permissions";
-import { formatDate, trim } from "@/lib/format";
+import { formatDate } from "@/lib/format";
 import { useCryostat, useUserNames, useUsers } from "@/lib/local/hooks";
 import { LocalWriteError, putAttachment, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
 import { describeRange, type RunState, readingOutOfRange, type StepState } from "@/lib/procedures/state";
@@ -236,6 +236,7 @@ function RunHeader({
             ] as const
           ).map(([m, label]) => (
             <button
+              type="button"
               key={m}
               role="tab"
               aria-selected={mode === m}
@@ -604,7 +605,7 @@ function ReadingAction({
 function CorrectReading({ entry, ctx }: { entry: StoredLocalEntry; ctx: Ctx }) {
   const [open, setOpen] = useState(false);
   const step = ctx.view.template.steps.find((x) => x.id === (entry.payload as RunStepPayload).stepId);
-  if (!step || step.kind !== "reading") return null;
+  if (step?.kind !== "reading") return null;
   return (
     <>
       <Button onClick={() => setOpen((o) => !o)} className="ml-auto">

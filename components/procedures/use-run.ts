@@ -23,7 +23,7 @@ export function useRun(runId: string | undefined): RunView | null | undefined {
   return useMemo(() => {
     if (!runId) return null;
     if (start === undefined || list === undefined || templates === undefined) return undefined;
-    if (!start || start.kind !== "run.start") return null;
+    if (start?.kind !== "run.start") return null;
     const p = start.payload as RunStartPayload;
     const template = templates.find((t) => t.id === p.templateId);
     if (!template) return null;

@@ -8,7 +8,6 @@ import { readingOutOfRange } from "@/lib/procedures/state";
 import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
 import type { RunStartPayload, RunStepPayload } from "@/lib/schemas/run";
 import type { TemplateStep } from "@/lib/schemas/template";
-import type { SessionUser } from "@/lib/schemas/user";
 import { verifyConfirmation } from "@/lib/signing/proof";
 import { type LogCheck, ofKind, type Problem } from "./log-check";
 import { toStoredRow } from "./stored";
@@ -43,7 +42,7 @@ const runStartCheck: Check = async (db, e) => {
 const runEntryCheck: Check = async (db, e, batch) => {
   if (!e.runId) return bad("A procedure entry must name its run.");
   const start = await findEntry(db, e.runId, batch);
-  if (!start || start.kind !== "run.start")
+  if (start?.kind !== "run.start")
     return bad("The run this entry belongs to has not reached the server; send its start first.");
   if (start.cryostatId !== e.cryostatId) return bad("A procedure entry must belong to the run's cryostat.");
   if (e.kind !== "run.step") return null;
@@ -91,7 +90,7 @@ const signatureConfirmation: Check = async (db, e, batch) => {
     confirmProof?: string;
   };
   const target = await findEntry(db, p.signedEntryId, batch);
-  const needsProof = Boolean(target && target.kind.startsWith("run."));
+  const needsProof = Boolean(target?.kind.startsWith("run."));
   if (!p.confirmedBy || !p.confirmProof) {
     return needsProof
       ? {

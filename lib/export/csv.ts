@@ -103,5 +103,5 @@ export function recordsToCsv(records: readonly CsvRecord[]): string {
     ];
     lines.push(row.map(csvField).join(","));
   }
-  return lines.join("\r\n") + "\r\n";
+  return `${lines.join("\r\n")}\r\n`;
 }

@@ -1,9 +1,3 @@
-// Chain check (tamper evidence) against a real database: rows changed, inserted, deleted, reordered
-// or cut off directly in SQL (with the append-only trigger disabled for the test) are named as the
-// break; a chain wholly recomputed after a change is caught by the server's signed checkpoints;
-// checkpoints signed with another key are not trusted.
-import { mkdtempSync } from "node:fs";
-import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { eq } from "drizzle-orm";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
