@@ -52,9 +52,16 @@ export interface RouteInput<A extends Access, P, Q, B> {
 }
 
 /** Next 16 hands dynamic segments as a Promise; static routes get one of {} (tests may pass none). */
-export type RouteContext = { params: Promise<unknown> };
+// biome-ignore lint/suspicious/noExplicitAny: Next checks each route's own params type against this one; the wrapper parses them with the route's zod schema.
+export type RouteContext = { params: Promise<any> };
 
-export type RouteHandler = ((req: Request, ctx?: RouteContext) => Promise<Response>) & { readonly access: Access };
+/** Next passes the context to every handler; tests may call one without it. */
+export type RouteHandler = {
+  (req: Request): Promise<Response>;
+  // Last, so that Next's generated route types read this signature.
+  (req: Request, ctx: RouteContext): Promise<Response>;
+  readonly access: Access;
+};
 
 const DEFAULT_INVALID = "Check the highlighted fields.";
 
