@@ -22,6 +22,7 @@ import { seedIfEmpty } from "@/db/seed";
 import { type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import { syncOnce } from "@/lib/sync/client";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
+import { CHROMIUM_ARGS, chromiumPath } from "@/tests/e2e/support/chromium";
 import { ROOT } from "@/tests/support/dirs";
 import { entryInput, readingDraft } from "@/tests/support/entries";
 import { assertBuildExists, startServer, stopServer, waitForHealth } from "@/tests/support/server";
@@ -193,19 +194,7 @@ async function benchTap() {
     "the tap bench serves a production build, but",
     " (or set NEXT_DIST_DIR to the build to use)",
   );
-  const browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH || "/usr/bin/chromium",
-    args: [
-      "--headless",
-      "--no-sandbox",
-      "--disable-gpu",
-      "--disable-quic",
-      "--no-first-run",
-      "--disable-background-networking",
-      "--disable-component-update",
-      "--disable-sync",
-    ],
-  });
+  const browser = await chromium.launch({ executablePath: chromiumPath(), args: CHROMIUM_ARGS });
   // BENCH_PROFILE=<dir>: the server writes a V8 CPU profile there when it stops.
   const profile = process.env.BENCH_PROFILE ? ["--cpu-prof", `--cpu-prof-dir=${process.env.BENCH_PROFILE}`] : [];
   const server = await startServer(ROOT, { distDir: dist, nodeArgs: profile, tag: "bench" });
