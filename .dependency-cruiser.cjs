@@ -56,7 +56,7 @@ module.exports = {
   ],
   options: {
     doNotFollow: { path: "node_modules" },
-    exclude: { path: ["^node_modules", "^\\.next", "^db/migrations"] },
+    exclude: { path: ["^\\.next", "^db/migrations"] },
     tsConfig: { fileName: "tsconfig.json" },
     tsPreCompilationDeps: true,
     enhancedResolveOptions: {

@@ -1,5 +1,5 @@
 // Page protection: a request for a page without a session goes to the sign-in page.
-// API routes answer 401/403 themselves (lib/auth/require.ts); static assets pass.
+// API routes answer 401/403 themselves (server/auth/require.ts); static assets pass.
 
 import { type NextRequest, NextResponse } from "next/server";
 import { getToken } from "next-auth/jwt";

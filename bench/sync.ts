@@ -3,35 +3,33 @@
 // 1. push: 10,000 entries queued on a tablet (the real store on fake-indexeddb) pushed through
 //    the real sync client and the server's push code into PGlite, in process, and the server's
 //    share of it. Goal: at most 2× the raw insert of the same rows (see rawInserts below).
-// 2. tap (needs a production build, NEXT_DIST_DIR, default .next-offline): in headless Chromium,
+// 2. tap (needs a production build, NEXT_DIST_DIR, default .next-bench): in headless Chromium,
 //    the time from a tap on "Save note" to the entry committed in IndexedDB with strict
 //    durability, back to back and at a working pace. Goal: p95 < 30 ms. Then the same 10,000
 //    entries pushed from Chromium over HTTP until nothing is pending, against the raw inserts.
-import { spawn } from "node:child_process";
-import { randomBytes } from "node:crypto";
-import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+// The tablet, the people and the entries come from tests/support, and the app server is started
+// by the browser tests' harness (tests/support/server.ts: its own port, data, files and keys).
+// `--conditions react-server`: server/sync/apply.ts starts with `import "server-only"`, which
+// throws anywhere else outside Next; bench/conditions.ts says so first.
+import "./conditions";
+import { readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { inArray, sql } from "drizzle-orm";
-import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { openDb } from "@/db/client";
 import { toColumns } from "@/db/queries/entries";
 import { entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
-import { RimelogDexie } from "@/lib/local/db";
-import { buildEntry, confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
-import type { SessionUser } from "@/lib/schemas/user";
-import { syncOnce, type Transport } from "@/lib/sync/client";
+import { type EntryDraft, recordEntriesIn } from "@/lib/local/store";
+import { syncOnce } from "@/lib/sync/client";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
-import { applyPush } from "@/server/sync/apply";
+import { CHROMIUM_ARGS, chromiumPath } from "@/tests/e2e/support/chromium";
+import { ROOT } from "@/tests/support/dirs";
+import { entryInput, readingDraft } from "@/tests/support/entries";
+import { assertBuildExists, startServer, stopServer, waitForHealth } from "@/tests/support/server";
+import { inProcessServer, signedInTablet } from "@/tests/support/tablet";
+import { DEMO_PASSWORD, tomasz } from "@/tests/support/users";
 
 const N = Number(process.env.BENCH_N) || 10_000;
-const tomasz: SessionUser = {
-  id: "u-tomasz",
-  email: "tomasz@larchmere.example",
-  name: "Tomasz Okafor",
-  role: "technician",
-};
 const ms = (t: number) => `${t.toFixed(0)} ms`;
 
 type EntryRowIn = typeof entries.$inferInsert;
@@ -98,29 +96,21 @@ function report(what: string, ms_: number, raw: { valuesMs: number; jsonMs: numb
 async function benchPush() {
   const db = await openDb();
   await seedIfEmpty(db);
-  const tablet = new RimelogDexie("bench", { indexedDB: new IDBFactory(), IDBKeyRange });
-  await confirmSession(tablet, tomasz);
+  const tablet = await signedInTablet(tomasz, "bench");
   const stages = ["pt1", "pt2", "still", "cold", "mxc"];
   for (let i = 0; i < N; i += 500) {
-    const drafts: EntryDraft[] = Array.from({ length: Math.min(500, N - i) }, (_, j) => ({
-      cryostatId: (i + j) % 3 === 0 ? "wren" : "heron",
-      kind: "reading",
-      payload: { quantity: "Temperature", stage: stages[(i + j) % 5], value: 0.01 + ((i + j) % 97) / 1000, unit: "K" },
-    }));
+    const drafts: EntryDraft[] = Array.from({ length: Math.min(500, N - i) }, (_, j) =>
+      readingDraft({
+        cryostatId: (i + j) % 3 === 0 ? "wren" : "heron",
+        stage: stages[(i + j) % 5]!,
+        value: 0.01 + ((i + j) % 97) / 1000,
+      }),
+    );
     await recordEntriesIn(tablet, drafts);
   }
-  let serverMs = 0;
-  const transport: Transport = {
-    async push(list) {
-      const body = JSON.parse(JSON.stringify({ entries: list })); // what crosses HTTP
-      const t = performance.now();
-      const reply = await applyPush(db, tomasz, body);
-      serverMs += performance.now() - t;
-      return JSON.parse(JSON.stringify(reply));
-    },
-    // Pull is not part of this figure: the server answers "nothing new".
-    pull: async (since) => ({ entries: [], cursor: since, hasMore: false, reference: null, me: tomasz }),
-  };
+  // Bodies and answers go through JSON as over HTTP; pull is not part of this figure (the server
+  // answers "nothing new"); `stats.applyMs` is the server's own time in applyPush.
+  const { transport, stats } = inProcessServer(db, tomasz, { pull: "nothing-new" });
   const t0 = performance.now();
   await syncOnce(tablet, transport, { maxBatch: PUSH_LIMITS.maxEntries, maxBytes: PUSH_LIMITS.maxBytes });
   const pushMs = performance.now() - t0;
@@ -139,7 +129,7 @@ async function benchPush() {
     );
   const raw = await rawInserts(rows);
   report(`push ${N} queued entries (client on fake-indexeddb + server, in process)`, pushMs, raw, rows.length);
-  report(`  of which the server's apply (validate, role check, hash chain, insert)`, serverMs, raw, rows.length);
+  report(`  of which the server's apply (validate, role check, hash chain, insert)`, stats.applyMs, raw, rows.length);
   await db.$client.close();
 }
 
@@ -197,76 +187,26 @@ async function fetchCursor(page: import("playwright-core").Page): Promise<number
 
 async function benchTap() {
   const { chromium } = await import("playwright-core");
-  const dist = process.env.NEXT_DIST_DIR || ".next-offline";
-  const port = 3900 + Math.floor(Math.random() * 90);
-  const work = mkdtempSync(join(tmpdir(), "rimelog-bench-"));
-  const base = `http://localhost:${port}`;
+  const dist = process.env.NEXT_DIST_DIR || ".next-bench";
+  assertBuildExists(
+    ROOT,
+    dist,
+    "the tap bench serves a production build, but",
+    " (or set NEXT_DIST_DIR to the build to use)",
+  );
+  const browser = await chromium.launch({ executablePath: chromiumPath(), args: CHROMIUM_ARGS });
   // BENCH_PROFILE=<dir>: the server writes a V8 CPU profile there when it stops.
   const profile = process.env.BENCH_PROFILE ? ["--cpu-prof", `--cpu-prof-dir=${process.env.BENCH_PROFILE}`] : [];
-  const server = spawn(
-    process.execPath,
-    [
-      ...profile,
-      join(process.cwd(), "node_modules/next/dist/bin/next"),
-      "start",
-      "-p",
-      String(port),
-      "-H",
-      "127.0.0.1",
-    ],
-    {
-      detached: true,
-      stdio: "ignore",
-      env: {
-        ...process.env,
-        NODE_ENV: "production",
-        NEXT_DIST_DIR: dist,
-        RIMELOG_DATA_DIR: join(work, "db"),
-        RIMELOG_STORAGE_DIR: join(work, "files"),
-        AUTH_SECRET: randomBytes(24).toString("hex"),
-        NEXTAUTH_URL: base,
-        AUTH_TRUST_HOST: "true",
-      },
-    },
-  );
-  const stopServer = async () => {
-    if (server.exitCode !== null || server.signalCode !== null) return;
-    const gone = new Promise((r) => server.once("exit", r));
-    try {
-      process.kill(-server.pid!, "SIGTERM");
-    } catch {
-      return; // already gone
-    }
-    await gone;
-  };
-  const browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH || "/usr/bin/chromium",
-    args: [
-      "--headless",
-      "--no-sandbox",
-      "--disable-gpu",
-      "--disable-quic",
-      "--no-first-run",
-      "--disable-background-networking",
-      "--disable-component-update",
-      "--disable-sync",
-    ],
-  });
+  const server = await startServer(ROOT, { distDir: dist, nodeArgs: profile, tag: "bench" });
+  const base = server.baseURL;
   try {
-    for (let i = 0; i < 240; i++) {
-      try {
-        if ((await fetch(`${base}/api/health`)).ok) break;
-      } catch {
-        /* not up yet */
-      }
-      await new Promise((r) => setTimeout(r, 250));
-    }
+    await waitForHealth(server, 120_000);
     const page = await (
       await browser.newContext({ baseURL: base, viewport: { width: 1024, height: 768 }, hasTouch: true })
     ).newPage();
     await page.goto("/signin");
     await page.getByLabel("Email", { exact: true }).fill(tomasz.email);
-    await page.getByLabel("Password", { exact: true }).fill("cold-hall-demo");
+    await page.getByLabel("Password", { exact: true }).fill(DEMO_PASSWORD);
     await page.getByRole("button", { name: "Sign in", exact: true }).click();
     await page.waitForURL((u) => u.pathname === "/");
     await page.getByRole("heading", { level: 2, name: "Wren" }).waitFor({ timeout: 60_000 });
@@ -501,14 +441,14 @@ async function benchTap() {
     await page.goto("about:blank");
     await new Promise((r) => setTimeout(r, 1000));
     const drafts = Array.from({ length: N }, (_, i) =>
-      buildEntry(
+      entryInput(
         {
           cryostatId: i % 3 ? "heron" : "wren",
           kind: "reading",
           payload: { quantity: "Temperature", stage: "still", value: 0.7 + (i % 50) / 1000, unit: "K" },
+          authorId: tomasz.id,
+          deviceId,
         },
-        tomasz.id,
-        deviceId,
         new Date(Date.now() + i),
       ),
     );
@@ -530,7 +470,7 @@ async function benchTap() {
 
     // The baselines run on a quiet machine: the browser and the server are stopped first.
     await browser.close();
-    await stopServer();
+    await stopServer(server);
     const raw = await rawInserts(values);
     report(
       `browser push of ${N} queued entries over HTTP (Chromium IndexedDB → /api/sync/push → PGlite), "online" to nothing pending`,
@@ -551,8 +491,8 @@ async function benchTap() {
     console.log(`  … of which the server's own apply (Server-Timing): ${ms(serverOwn)}`);
   } finally {
     await browser.close();
-    await stopServer();
-    rmSync(work, { recursive: true, force: true });
+    await stopServer(server);
+    server.dirs.remove();
   }
 }
 

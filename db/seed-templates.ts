@@ -1,8 +1,8 @@
 // The default procedure templates the demo lab starts with, written by the team in its own words
 // from what the trade does, one set per cryostat kind. Each becomes version 1 of its key; the
 // facility admin edits them into new versions (a run keeps the version it started from).
-// Ranges are common practice for fridges of this size or the demo lab's own values
-// (shared/SCENARIO.md); a facility replaces them with its own in the template editor.
+// Ranges are common practice for fridges of this size or the invented demo lab's own values
+// (db/seed.ts); a facility replaces them with its own in the template editor.
 
 import type { TemplateStep } from "@/lib/schemas/template";
 import type { CryostatKind } from "./schema";

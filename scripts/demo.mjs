@@ -172,7 +172,7 @@ server.on("exit", (code, signal) => {
 if (await waitForHealth(url, server)) {
   const width = Math.max(...DEMO_ACCOUNTS.map(([email]) => email.length));
   console.log(`\nRimelog is running at ${url}  (database: ${DATA_DIR})\n`);
-  console.log("Demo accounts — password for all: " + DEMO_PASSWORD + "\n");
+  console.log(`Demo accounts — password for all: ${DEMO_PASSWORD}\n`);
   console.log(`  ${"email".padEnd(width)}  ${"role".padEnd(15)}  name`);
   for (const [email, role, name] of DEMO_ACCOUNTS) {
     console.log(`  ${email.padEnd(width)}  ${role.padEnd(15)}  ${name}`);

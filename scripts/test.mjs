@@ -1,7 +1,8 @@
 #!/usr/bin/env node
 // `npm test`: the one command that checks everything on a fresh machine, in order, stopping at
 // the first failure. Installs dependencies when node_modules is missing or older than the lock
-// file, then: type-check, lint and format, import direction and cycles, unit + integration tests, production build, browser tests.
+// file, then: type-check (app, tests and bench; then the service worker), lint and format, import
+// direction and cycles, unit + integration tests, production build, browser tests.
 // Ends with the line "N passed, N failed" (tests counted from both vitest runs; a stage that fails
 // without running tests counts as one failure) and a non-zero exit code on any failure.
 // Plain Node ESM with built-ins only: it must run before `npm ci`.
@@ -128,7 +129,13 @@ if (stale) {
 mkdirSync(RESULTS_DIR, { recursive: true });
 const vitestReporters = (file) => ["--reporter=default", "--reporter=json", `--outputFile.json=${file}`];
 
+// The app, tests and bench/ in one program; the service worker in its own (webworker types, no DOM).
 await stage("type-check (tsc --noEmit)", bin("tsc"), ["--noEmit"]);
+await stage("type-check the service worker (tsc -p sw/tsconfig.json --noEmit)", bin("tsc"), [
+  "-p",
+  "sw/tsconfig.json",
+  "--noEmit",
+]);
 await stage("lint + format (biome check)", bin("biome"), ["check", "."]);
 await stage("import direction and cycles (dependency-cruiser)", npm, ["run", "--silent", "layers"]);
 const unitReport = join(RESULTS_DIR, "unit.json");

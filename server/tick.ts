@@ -1,6 +1,7 @@
-// The server's periodic work for the audit side: sign chain heads that moved (R6 checkpoints) and
-// run the mail checks and delivery. Started lazily by the audit, rules and mail routes and nudged
-// after a sync (`kickServerTick`); each step is idempotent, so an extra run costs nothing.
+// The server's periodic work for the audit side: sign chain heads that moved (signed checkpoints)
+// and run the mail checks and delivery. Started lazily by the audit queue, mail and sync routes and
+// nudged after a push or a finding (`kickServerTick`); each step is idempotent, so an extra run
+// costs nothing.
 import "server-only";
 import { getDb } from "@/db";
 import { CHECKPOINT_INTERVAL_MS, signChainHeads } from "@/db/queries/chain";
@@ -14,7 +15,8 @@ type TickState = {
   soon?: ReturnType<typeof setTimeout>;
 };
 const g = globalThis as unknown as { __rimelogTick?: TickState };
-const state: TickState = (g.__rimelogTick ??= {});
+g.__rimelogTick ??= {};
+const state: TickState = g.__rimelogTick;
 
 export async function runServerTick(): Promise<void> {
   if (state.running) return state.running;

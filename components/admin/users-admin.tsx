@@ -3,10 +3,12 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useCallback, useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
+import { syncSoon } from "@/components/sync/runtime";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { OptionList, TableHead } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import { ApiError, api, problemText } from "@/components/ui/use-json";
 import { ROLE_LABEL } from "@/lib/auth/permissions";
 import type { AdminUser } from "@/lib/schemas/user";
 import { type NewUser, newUserSchema } from "@/lib/schemas/user";
@@ -17,29 +19,26 @@ export function UsersAdmin() {
   const [users, setUsers] = useState<AdminUser[] | null>(null);
   const [error, setError] = useState<string | null>(null);
   const refresh = useCallback(async () => {
-    const r = await fetch("/api/users", { cache: "no-store" });
-    const body = await r.json();
-    if (!r.ok) setError(body?.error?.message ?? "Could not load the people list.");
-    else setUsers(body.users);
+    try {
+      setUsers((await api<{ users: AdminUser[] }>("/api/users")).users);
+    } catch (e) {
+      setError(problemText(e));
+    }
   }, []);
   useEffect(() => {
-    void refresh().catch(() => setError("No connection to the server."));
+    void refresh();
   }, [refresh]);
 
   const change = async (u: AdminUser, body: { role?: AdminUser["role"]; active?: boolean }) => {
     setError(null);
     try {
-      const r = await fetch(`/api/users/${encodeURIComponent(u.id)}`, {
-        method: "PATCH",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify(body),
-      });
-      const res = await r.json();
-      if (!r.ok) setError(res?.error?.message ?? "The change was not saved.");
-      await refresh();
-    } catch {
-      setError("No connection to the server: nothing was changed.");
+      await api(`/api/users/${encodeURIComponent(u.id)}`, { method: "PATCH", json: body });
+    } catch (e) {
+      setError(problemText(e, "No connection to the server: nothing was changed."));
+      if (e instanceof ApiError && e.offline) return;
     }
+    syncSoon(); // names on this tablet come from its store
+    await refresh();
   };
 
   return (
@@ -100,23 +99,20 @@ function AddUserForm({ onAdded }: { onAdded: () => Promise<void> }) {
 
   const submit = handleSubmit(async (data) => {
     setMessage(null);
+    let added: { user: { name: string } };
     try {
-      const r = await fetch("/api/users", {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify(data),
+      added = await api<{ user: { name: string } }>("/api/users", { json: data });
+    } catch (e) {
+      setMessage({
+        tone: "danger",
+        text: problemText(e, "No connection to the server: the person was not added.", true),
       });
-      const body = await r.json();
-      if (!r.ok) {
-        setMessage({ tone: "danger", text: [body.error?.message, ...(body.error?.details ?? [])].join(" ") });
-        return;
-      }
-      setMessage({ tone: "ok", text: `${body.user.name} can now sign in.` });
-      reset({ role: data.role, name: "", email: "", password: "" });
-      await onAdded();
-    } catch {
-      setMessage({ tone: "danger", text: "No connection to the server: the person was not added." });
+      return;
     }
+    setMessage({ tone: "ok", text: `${added.user.name} can now sign in.` });
+    reset({ role: data.role, name: "", email: "", password: "" });
+    syncSoon();
+    await onAdded();
   });
 
   return (

@@ -6,11 +6,12 @@ import { useCallback, useEffect, useState } from "react";
 import { Button, buttonClass } from "@/components/ui/button";
 import { type Choice, OptionList, TableHead } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
-import { getJson, useJson } from "@/components/ui/use-json";
+import { api, getJson, problemText, useJson } from "@/components/ui/use-json";
 import type { ChainReport } from "@/lib/audit/chain";
 import { FLAG_CODES, FLAG_LABEL } from "@/lib/audit/flags";
 import type { AuditItem } from "@/lib/audit/types";
 import { formatDate, kindLabel, trim } from "@/lib/format";
+import { useCryostats } from "@/lib/local/hooks";
 import { payloadOf } from "@/lib/schemas/entry";
 import { FlagTags } from "./flag-tags";
 
@@ -75,7 +76,7 @@ function Summary({ i }: { i: AuditItem }) {
 function Queue() {
   const { data, error } = useJson<{ items: AuditItem[] }>("/api/audit/queue");
   const items = data?.items;
-  if (error) return <Notice tone="danger" role="alert" title={error} />;
+  if (error) return <Notice tone="danger" role="alert" title={error.message} />;
   if (!items) return <Loading />;
   if (!items.length)
     return <Notice tone="ok" title="Nothing waiting: every transfer, quench and incident has a signed audit." />;
@@ -136,19 +137,11 @@ function TransferTable() {
     sort: "date",
     dir: "desc",
   });
-  const [options, setOptions] = useState<{
-    cryostats: { id: string; name: string }[];
-    people: { id: string; name: string }[];
-  }>({ cryostats: [], people: [] });
+  const cryostats = useCryostats() ?? [];
+  const [options, setOptions] = useState<{ people: { id: string; name: string }[] }>({ people: [] });
   const query = new URLSearchParams(Object.entries(f).filter(([, v]) => v)).toString();
   const { data, error } = useJson<{ items: AuditItem[] }>(`/api/audit/transfers?${query}`);
   const items = data?.items ?? null;
-  useEffect(() => {
-    getJson<{ cryostats: { id: string; name: string }[] }>("/api/cryostats").then(
-      (b) => setOptions((o) => ({ ...o, cryostats: b.cryostats })),
-      () => undefined,
-    );
-  }, []);
   useEffect(() => {
     if (!items) return;
     const people = new Map<string, string>();
@@ -189,7 +182,7 @@ function TransferTable() {
         <form className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()} aria-label="Filters">
           {pick("cryostat", "Cryostat", [
             { value: "", label: "All" },
-            ...options.cryostats.map((c) => ({ value: c.id, label: c.name })),
+            ...cryostats.map((c) => ({ value: c.id, label: c.name })),
           ])}
           {pick("person", "Person", [
             { value: "", label: "Anyone" },
@@ -224,7 +217,7 @@ function TransferTable() {
           its flags and its signatures.
         </p>
       </Panel>
-      {error && <Notice tone="danger" role="alert" title={error} />}
+      {error && <Notice tone="danger" role="alert" title={error.message} />}
       {!items && !error && <Loading />}
       {items && (
         <Panel className="overflow-x-auto p-0">
@@ -287,7 +280,7 @@ function ChainCheck() {
     getJson<{ reports: ChainReport[] }>("/api/chain")
       .then(
         (b) => setReports(b.reports),
-        (e: Error) => setError(e.message),
+        (e: unknown) => setError(problemText(e)),
       )
       .finally(() => setBusy(false));
   }, []);
@@ -295,15 +288,10 @@ function ChainCheck() {
   async function signNow() {
     setBusy(true);
     try {
-      const r = await fetch("/api/chain", {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: "{}",
-      });
-      if (!r.ok) throw new Error((await r.json()).error?.message ?? "Could not sign.");
+      await api("/api/chain", { method: "POST", json: {} });
       check();
     } catch (e) {
-      setError((e as Error).message);
+      setError(problemText(e, "No connection to the server: the chain heads were not signed."));
       setBusy(false);
     }
   }

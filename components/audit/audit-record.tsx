@@ -12,6 +12,7 @@ import { type Confirmation, SignDialog } from "@/components/signature/sign-dialo
 import { Button, buttonClass } from "@/components/ui/button";
 import { ChoiceButtons } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import { api, problemText } from "@/components/ui/use-json";
 import type { QuenchFigures, TransferFigures } from "@/lib/audit/figures";
 import type { AuditItem, SignatureView } from "@/lib/audit/types";
 import { formatDate, kindLabel, trim } from "@/lib/format";
@@ -104,13 +105,14 @@ export function AuditRecord({ id }: { id: string }) {
   const [done, setDone] = useState<string | null>(null);
 
   const load = useCallback(async () => {
-    const r = await fetch(`/api/audit/records/${id}`, { cache: "no-store" });
-    const body = await r.json().catch(() => ({}));
-    if (!r.ok) setError(body?.error?.message ?? "Could not load the record.");
-    else setItem(body.item);
+    try {
+      setItem((await api<{ item: AuditItem }>(`/api/audit/records/${encodeURIComponent(id)}`)).item);
+    } catch (e) {
+      setError(problemText(e, "No connection to the server: the audit needs the network."));
+    }
   }, [id]);
   useEffect(() => {
-    void load().catch(() => setError("No connection to the server: the audit needs the network."));
+    void load();
   }, [load]);
 
   if (error) return <Notice tone="danger" role="alert" title={error} />;
@@ -130,17 +132,11 @@ export function AuditRecord({ id }: { id: string }) {
       confirmedBy: c.confirmedBy,
       proof,
     });
-    const r = await fetch("/api/audit/findings", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify({ finding, signature }),
-    });
-    const body = await r.json().catch(() => ({}));
-    if (!r.ok)
-      throw new Error(
-        [body?.error?.message, ...(body?.error?.details ?? [])].filter(Boolean).join(" ") ||
-          `The server answered ${r.status}.`,
-      );
+    try {
+      await api("/api/audit/findings", { json: { finding, signature } });
+    } catch (e) {
+      throw new Error(problemText(e, "No connection to the server: the finding was not signed.", true));
+    }
     setDone(`Finding signed: ${verdict === "acceptable" ? "acceptable" : "needs action"}.`);
     setFindings("");
     await load();

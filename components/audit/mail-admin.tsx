@@ -1,27 +1,17 @@
 "use client";
 // The mail outbox for the facility admin: every message Rimelog queued (one per event), whether it
 // went out, and its text. With the local fake transport this is where the messages are read.
-import { useEffect, useState } from "react";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import { useJson } from "@/components/ui/use-json";
 import { formatDate } from "@/lib/format";
 import type { MailRow } from "@/lib/mail/messages";
 
 export function MailAdmin() {
-  const [data, setData] = useState<{
+  const { data, error } = useJson<{
     transport: string;
     messages: (Omit<MailRow, "createdAt" | "sentAt"> & { createdAt: string; sentAt: string | null })[];
-  } | null>(null);
-  const [error, setError] = useState<string | null>(null);
-  useEffect(() => {
-    fetch("/api/mail", { cache: "no-store" })
-      .then(async (r) => {
-        const b = await r.json();
-        if (!r.ok) throw new Error(b.error?.message ?? "Could not load the outbox.");
-        setData(b);
-      })
-      .catch((e: Error) => setError(e.message));
-  }, []);
-  if (error) return <Notice tone="danger" role="alert" title={error} />;
+  }>("/api/mail");
+  if (error) return <Notice tone="danger" role="alert" title={error.message} />;
   if (!data) return <Loading />;
   return (
     <div className="flex flex-col gap-3">

@@ -1,14 +1,15 @@
 "use client";
 // The cryostat page's charts: stage temperatures on a log axis (cooldown and since), the helium
 // level with the boil-off fit since the last fill and the forecast to the minimum level, and the
-// magnet's field history. Data: the cryostat's series (online, remembered for offline use).
+// magnet's field history. Data: the cryostat's series, built from its log in the tablet store.
 import { useCallback, useEffect, useMemo, useState } from "react";
 import type uPlotType from "uplot";
 import { figure } from "@/components/cryo/derive";
-import { type CryostatSeries, useCryostatSeries } from "@/components/cryo/use-cryo-data";
 import { Button } from "@/components/ui/button";
 import { Notice, Panel } from "@/components/ui/panel";
+import { useCryostat, useCryostatSeries } from "@/lib/local/hooks";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
+import type { CryostatSeries } from "@/lib/series";
 import { align, fieldSteps, heliumModel } from "./chart-model";
 import { type Palette, UplotChart } from "./uplot-chart";
 
@@ -219,46 +220,24 @@ export function CryostatCharts({ cryostatId: given }: { cryostatId?: string }) {
 }
 
 function ChartsFor({ cryostatId }: { cryostatId: string }) {
+  // Built on the tablet from the cryostat's log as the store holds it (unsent entries included),
+  // with the config (reservoir calibration, magnet) from the pulled cryostat: works offline.
+  const cryostat = useCryostat(cryostatId);
   const series = useCryostatSeries(cryostatId);
-  const [config, setConfig] = useState<CryostatConfig | null>(null);
+  const config = cryostat?.config ?? null;
   const [nowMs, setNowMs] = useState<number | null>(null);
-  useEffect(() => setNowMs(Date.now()), [series.data]);
-  useEffect(() => {
-    // The config (reservoir calibration, magnet) comes with the room overview, remembered too.
-    const key = `rimelog-cryostat-config-${cryostatId}`;
-    try {
-      const raw = localStorage.getItem(key);
-      if (raw) setConfig(JSON.parse(raw) as CryostatConfig);
-    } catch {
-      /* nothing remembered */
-    }
-    fetch("/api/cryostats", { cache: "no-store" })
-      .then((r) => (r.ok ? r.json() : null))
-      .then((body: { cryostats?: { id: string; config: CryostatConfig }[] } | null) => {
-        const c = body?.cryostats?.find((x) => x.id === cryostatId);
-        if (!c) return;
-        setConfig(c.config);
-        try {
-          localStorage.setItem(key, JSON.stringify(c.config));
-        } catch {
-          /* storage full */
-        }
-      })
-      .catch(() => undefined);
-  }, [cryostatId]);
+  // biome-ignore lint/correctness/useExhaustiveDependencies: "now" is taken again whenever the series changes
+  useEffect(() => setNowMs(Date.now()), [series]);
 
-  const data = series.data;
+  const data = series ?? null;
   return (
     <section aria-label="Charts" className="flex flex-col gap-4" data-testid="cryostat-charts">
-      {series.error && !data && (
+      {series === null && (
         <Notice tone="warn" title="Charts unavailable" role="status">
-          {series.error} The charts need one online visit.
+          This cryostat is not on this tablet yet. The charts need one sync with the server.
         </Notice>
       )}
-      {series.stale && series.error && (
-        <p className="text-base text-muted">Charts from the last online visit ({series.error})</p>
-      )}
-      {!data && !series.error && <p className="text-muted">Loading charts…</p>}
+      {series === undefined && <p className="text-muted">Loading charts…</p>}
       {data && nowMs !== null && (
         <>
           {data.stages.some((s) => s.points.length > 0) && (

@@ -2,16 +2,22 @@
 // Sensor calibration upload: pick the thermometer channel (cryostat + stage), choose the file,
 // see it parsed and plotted before accepting it (admin or technician), then the tables in force.
 // Parsing for the preview runs in the browser with the same lib/cryo parser the server re-runs.
+// Accepting needs the network; the tables in force are read from the tablet store, where the
+// sync's pull brings them (and brings an accepted table back at once).
 import { useCallback, useMemo, useState } from "react";
 import type uPlotType from "uplot";
 import { type Palette, UplotChart } from "@/components/charts/uplot-chart";
 import { useMe } from "@/components/shell/use-me";
+import { syncSoon } from "@/components/sync/runtime";
 import { Button } from "@/components/ui/button";
 import { OptionList } from "@/components/ui/form";
 import { Notice, Panel } from "@/components/ui/panel";
+import { api, problemText } from "@/components/ui/use-json";
 import { type CalibrationTable, convertReading, parseCalibration, type SensorKind } from "@/lib/cryo";
+import { useCalibrations, useCryostats } from "@/lib/local/hooks";
 import { putAttachment } from "@/lib/local/record";
 import {
+  type CalibrationRecord,
   type CalibrationUpload,
   COLUMN_ORDER_OPTIONS,
   MAX_CALIBRATION_BYTES,
@@ -19,7 +25,6 @@ import {
   SENSOR_KIND_VALUES,
 } from "@/lib/schemas/calibration";
 import { figure, readNumber, temperatureText } from "./derive";
-import { refreshCryoData, useCalibrations, useCryostatList } from "./use-cryo-data";
 
 const SELECT = "min-h-12 w-full rounded-xl border-2 border-line bg-bg px-3 py-2 text-lg text-ink focus:border-accent";
 
@@ -64,8 +69,7 @@ function PreviewChart({ table }: { table: CalibrationTable }) {
 export function CalibrationUploadPage() {
   const { me } = useMe();
   const mayAccept = me?.role === "facility_admin" || me?.role === "technician";
-  const cryostats = useCryostatList();
-  const list = cryostats.data ?? [];
+  const list = useCryostats() ?? [];
   const [cryostatId, setCryostatId] = useState("");
   const cryostat = list.find((c) => c.id === cryostatId) ?? list[0];
   const [stage, setStage] = useState("");
@@ -80,8 +84,7 @@ export function CalibrationUploadPage() {
   const [trial, setTrial] = useState("");
   const [busy, setBusy] = useState(false);
   const [result, setResult] = useState<{ tone: "ok" | "danger"; text: string } | null>(null);
-  const [version, setVersion] = useState(0);
-  const inForce = useCalibrations(cryostat?.id, version);
+  const inForce = useCalibrations(cryostat?.id);
 
   const preview = useMemo((): { table: CalibrationTable } | { error: string } | null => {
     if (!file) return null;
@@ -149,19 +152,8 @@ export function CalibrationUploadPage() {
       ...(attachmentId ? { attachmentId } : {}),
     };
     try {
-      const r = await fetch("/api/calibrations", {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify(body),
-      });
-      const json = (await r.json().catch(() => null)) as { error?: { message?: string; details?: string[] } } | null;
-      if (!r.ok)
-        throw new Error(
-          [json?.error?.message, ...(json?.error?.details ?? [])].filter(Boolean).join(" ") ||
-            `The server answered ${r.status}.`,
-        );
-      refreshCryoData();
-      setVersion((v) => v + 1);
+      await api<{ calibration: CalibrationRecord }>("/api/calibrations", { json: body });
+      syncSoon(); // the new table reaches this tablet's store (and its reading forms) with the pull
       const stageLabel = cryostat.config.stages.find((s) => s.key === stageKey)?.label ?? stageKey;
       setResult({
         tone: "ok",
@@ -170,10 +162,7 @@ export function CalibrationUploadPage() {
     } catch (e) {
       setResult({
         tone: "danger",
-        text:
-          e instanceof TypeError
-            ? "No connection to the server: the table was not accepted. Try again when online."
-            : (e as Error).message,
+        text: problemText(e, "No connection to the server: the table was not accepted. Try again when online.", true),
       });
     } finally {
       setBusy(false);
@@ -321,10 +310,9 @@ export function CalibrationUploadPage() {
 
       <Panel className="flex flex-col gap-2">
         <h2 className="text-xl font-bold">Tables in force{cryostat ? ` — ${cryostat.name}` : ""}</h2>
-        {inForce.data && inForce.data.length === 0 && <p className="text-muted">None yet.</p>}
-        {inForce.error && !inForce.data && <p className="text-muted">{inForce.error}</p>}
+        {inForce && inForce.length === 0 && <p className="text-muted">None yet.</p>}
         <ul className="flex flex-col divide-y divide-line">
-          {(inForce.data ?? []).map((c) => (
+          {(inForce ?? []).map((c) => (
             <li key={c.id} className="flex flex-wrap justify-between gap-2 py-2">
               <span>
                 <span className="font-semibold">{stageName(c.cryostatId, c.stage)}</span> — {c.sensorLabel} (

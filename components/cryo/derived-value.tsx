@@ -3,12 +3,16 @@
 // pressure → its ITS-90 temperature; a helium level → litres and days left; a magnet current →
 // field and ramp time; a sensor resistance → temperature from the stage's calibration table).
 // Pure client-side: the level history, the current field and the calibration tables come from
-// props when the caller has them, else from the copy remembered at the last online visit.
+// props when the caller has them, else from the tablet store (the cryostat's log and the tables
+// in force as the last sync brought them), so they work offline.
 import { useMemo } from "react";
 import type { CalibrationTable } from "@/lib/cryo";
+import { useCalibrations, useCryostatSeries } from "@/lib/local/hooks";
 import { type CryostatLike, deriveReading, type LevelPoint, sinceLastFill } from "./derive";
 import { EstimateNote } from "./estimate-note";
-import { useCalibrations, useCryostatSeries } from "./use-cryo-data";
+
+/** The log entries the level history and the current field are built from (not every reading). */
+const DERIVE_KINDS = ["helium.level", "transfer", "quench", "field.setting"] as const;
 
 export interface DerivedValueProps {
   /** The cryostat row (id + config) the reading belongs to. */
@@ -21,11 +25,11 @@ export interface DerivedValueProps {
   value: number | string | null | undefined;
   /** Stage key, for vapour-pressure stages and calibrated sensors. */
   stage?: string;
-  /** Level readings since the last transfer; default: the remembered series. */
+  /** Level readings since the last transfer; default: from the cryostat's log on the tablet. */
   levelHistory?: readonly LevelPoint[];
   /** The field now (T), start of the ramp estimate; default: the last field setting, else 0 T. */
   fromFieldT?: number;
-  /** The stage's calibration table; default: the remembered accepted table for (cryostat, stage). */
+  /** The stage's calibration table; default: the table in force for (cryostat, stage) on the tablet. */
   calibration?: CalibrationTable | null;
   /** Hide the magnet caution (when the caller shows its own beside the form). */
   hideCaution?: boolean;
@@ -37,19 +41,19 @@ export interface DerivedValueProps {
 export function DerivedValue(props: DerivedValueProps) {
   const { cryostat, quantity, unit, value, stage, id, className = "" } = props;
   const needsSeries = props.levelHistory === undefined || props.fromFieldT === undefined;
-  const series = useCryostatSeries(needsSeries ? cryostat.id : undefined);
+  const series = useCryostatSeries(needsSeries ? cryostat.id : undefined, DERIVE_KINDS);
   const needsCalibration = props.calibration === undefined && stage !== undefined && /Ω|V$/.test(unit);
   const calibrations = useCalibrations(needsCalibration ? cryostat.id : undefined);
 
   const levelHistory = useMemo(() => {
     if (props.levelHistory) return props.levelHistory;
-    const levels = series.data?.helium?.levels;
+    const levels = series?.helium?.levels;
     return levels ? sinceLastFill(levels.map((l) => ({ timeMs: l.t, percent: l.percent }))) : undefined;
-  }, [props.levelHistory, series.data]);
-  const fromFieldT = props.fromFieldT ?? series.data?.fields.at(-1)?.fieldT;
+  }, [props.levelHistory, series]);
+  const fromFieldT = props.fromFieldT ?? series?.fields.at(-1)?.fieldT;
   const calibration =
     props.calibration ??
-    calibrations.data?.find((c) => c.cryostatId === cryostat.id && c.stage === stage)?.table ??
+    calibrations?.find((c) => c.cryostatId === cryostat.id && c.stage === stage)?.table ??
     undefined;
 
   const derived = deriveReading({

@@ -28,7 +28,6 @@ export function keypadNumber(value: string): number | null {
 
 export function Keypad({ value, onChange, label }: { value: string; onChange: (v: string) => void; label: string }) {
   return (
-    // biome-ignore lint/a11y/useSemanticElements: a grid of keys, not a form section (a fieldset would draw a border and a legend)
     <div role="group" aria-label={label} className="grid grid-cols-3 gap-2">
       {KEYS.map((k) => (
         <Button

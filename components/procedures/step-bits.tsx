@@ -7,7 +7,6 @@ export { describeEntry } from "@/lib/procedures/describe";
 export function Photo({ id }: { id: string }) {
   const url = useAttachmentUrl(id);
   return url ? (
-    // biome-ignore lint/a11y/noRedundantAlt: the name the screens and browser tests know the photo by
     <img src={url} alt="Photo for this step" className="mt-2 max-h-64 rounded-xl border border-line" />
   ) : (
     <span className="text-muted">Loading photo…</span>

@@ -15,8 +15,10 @@ import {
 import type { z } from "zod";
 import { NotAllowed } from "@/components/shell/not-allowed";
 import { useMe } from "@/components/shell/use-me";
+import { syncSoon } from "@/components/sync/runtime";
 import { Button } from "@/components/ui/button";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import { api, problemList, problemText } from "@/components/ui/use-json";
 import { formatDate } from "@/lib/format";
 import type { CryostatKind } from "@/lib/schemas/cryostat";
 import { templateInputSchema } from "@/lib/schemas/run";
@@ -62,14 +64,9 @@ export function TemplateAdmin() {
 
   const load = useCallback(async () => {
     try {
-      const r = await fetch("/api/templates", { cache: "no-store" });
-      const body = (await r.json()) as { templates?: Template[]; error?: { message: string } };
-      if (!r.ok) throw new Error(body.error?.message ?? `The server answered ${r.status}.`);
-      setList(body.templates ?? []);
+      setList((await api<{ templates?: Template[] }>("/api/templates")).templates ?? []);
     } catch (e) {
-      setError(
-        (e as Error).message.includes("fetch") ? "No connection: templates are edited online." : (e as Error).message,
-      );
+      setError(problemText(e, "No connection: templates are edited online."));
     }
   }, []);
   useEffect(() => {
@@ -159,20 +156,16 @@ function TemplateEditor({ base, onDone }: { base: Template | null; onDone: () =>
   const save = handleSubmit(async (data) => {
     setServerError(null);
     try {
-      const r = await fetch("/api/templates", {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify({ basedOnVersion: base?.version ?? null, template: data }),
-      });
-      const body = (await r.json().catch(() => ({}))) as { error?: { message: string; details?: string[] } };
-      if (!r.ok)
-        throw Object.assign(new Error(body.error?.message ?? `The server answered ${r.status}.`), {
-          details: body.error?.details ?? [],
-        });
-      onDone();
+      await api("/api/templates", { json: { basedOnVersion: base?.version ?? null, template: data } });
     } catch (e) {
-      setServerError({ message: (e as Error).message, details: (e as { details?: string[] }).details ?? [] });
+      setServerError({
+        message: problemText(e, "No connection: templates are edited online. Nothing was saved."),
+        details: problemList(e),
+      });
+      return;
     }
+    syncSoon(); // the procedures on this tablet read the templates from its store
+    onDone();
   });
 
   return (

@@ -4,13 +4,12 @@
 // officer's audit queue.
 import { useMemo, useState } from "react";
 import { Caution } from "@/components/safety/caution";
-import { useFacilityRules } from "@/components/safety/use-facility-rules";
 import { Button } from "@/components/ui/button";
 import { ChoiceButtons, FieldRow, INPUT_CLASS, NumberField, OptionList, ProblemNotice } from "@/components/ui/form";
 import { Panel } from "@/components/ui/panel";
 import { quenchFigures } from "@/lib/audit/figures";
 import { trim } from "@/lib/format";
-import { useCryostats } from "@/lib/local/hooks";
+import { useCryostats, useFacilityRules } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry } from "@/lib/local/record";
 import { heliumLostText, oxygenEstimateText } from "@/lib/safety/estimates";
 import { typedNumber } from "@/lib/typed-number";
@@ -27,7 +26,7 @@ const localNow = () => {
 
 export function QuenchForm() {
   const cryostats = useCryostats();
-  const { rules } = useFacilityRules();
+  const rules = useFacilityRules();
   const [mode, setMode] = useState<"quench" | "incident">("quench");
   const [cryostatId, setCryostatId] = useState("");
   const list = mode === "quench" ? (cryostats ?? []).filter((c) => c.config.magnet) : (cryostats ?? []);

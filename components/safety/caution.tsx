@@ -3,8 +3,9 @@
 // screen, in plain words, with the facility's own values (oxygen alarm level, PPE, two-person
 // rule, ramp limit, contacts) beside them and a link to the facility's rules document.
 import { useId, useState } from "react";
+import { useLoopState } from "@/components/sync/runtime";
+import { useFacilityRules } from "@/lib/local/hooks";
 import { type CautionContext, type CautionTopic, cautionsFor, facilityFacts } from "@/lib/safety/cautions";
-import { useFacilityRules } from "./use-facility-rules";
 
 export type CautionProps = CautionContext & {
   topic: CautionTopic;
@@ -16,7 +17,11 @@ export type CautionProps = CautionContext & {
 export const RULES_DOCUMENT_URL = "/api/rules/document";
 
 export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: CautionProps) {
-  const { rules, loading, offline } = useFacilityRules();
+  // The rules as the last sync brought them to this tablet (they change only with a pull).
+  const rules = useFacilityRules();
+  const loop = useLoopState();
+  const loading = rules === undefined || (rules === null && loop.running);
+  const offline = !loop.online;
   const [open, setOpen] = useState(defaultOpen);
   const id = useId();
   const values = rules?.values;
@@ -85,8 +90,8 @@ export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: 
           )}
           <dt className="font-semibold text-muted">Contacts</dt>
           <dd data-fact="contacts">
-            {facts.contacts.map((c, i) => (
-              <span key={i} className="mr-3 inline-block">
+            {facts.contacts.map((c) => (
+              <span key={`${c.role}|${c.name}|${c.phone}`} className="mr-3 inline-block">
                 {c.role}: {c.name},{" "}
                 <a
                   className="num inline-flex min-h-12 items-center font-semibold underline"
@@ -116,8 +121,8 @@ export function Caution({ topic, defaultOpen = false, className = "", ...ctx }: 
           <section key={s.id} data-section={s.id}>
             <h3 className="font-bold">{s.title}</h3>
             <ul className="ml-5 list-disc">
-              {s.points.map((p, i) => (
-                <li key={i}>{p}</li>
+              {s.points.map((p) => (
+                <li key={p}>{p}</li>
               ))}
             </ul>
           </section>

@@ -1,21 +1,23 @@
 "use client";
 // The facility admin's rules screen: the local values every caution and audit flag uses, the
 // facility's own rules document (PDF), and the reason for each change (each save is an audited entry).
-import { useEffect, useState } from "react";
+import { useCallback, useEffect, useState } from "react";
+import { syncSoon } from "@/components/sync/runtime";
 import { Button } from "@/components/ui/button";
 import { FieldGroup, INPUT_CLASS, ProblemNotice, FieldRow as Row } from "@/components/ui/form";
 import { Loading, Notice, Panel } from "@/components/ui/panel";
+import { api, problemList, problemText } from "@/components/ui/use-json";
 import { formatDate } from "@/lib/format";
+import { useCryostats } from "@/lib/local/hooks";
 import { RULES_DOCUMENT_MAX_BYTES } from "@/lib/safety/rules-document";
 import type { FacilityRulesValues, RulesInForce } from "@/lib/schemas/rules";
 import { typedNumber } from "@/lib/typed-number";
-import { rememberRules } from "./use-facility-rules";
 
-type Cryo = { id: string; name: string; config: { reservoir?: unknown; magnet?: unknown } };
+type RulesReply = { rules: RulesInForce | null };
 
 export function RulesAdmin() {
   const [rules, setRules] = useState<RulesInForce | null>(null);
-  const [cryos, setCryos] = useState<Cryo[]>([]);
+  const cryos = useCryostats() ?? [];
   const [v, setV] = useState<FacilityRulesValues | null>(null);
   const [text, setText] = useState({ ppe: "", contacts: "" });
   const [reason, setReason] = useState("");
@@ -23,27 +25,21 @@ export function RulesAdmin() {
   const [docMsg, setDocMsg] = useState<{ tone: "ok" | "danger"; text: string } | null>(null);
   const [busy, setBusy] = useState(false);
 
-  function adopt(r: RulesInForce | null) {
+  const adopt = useCallback((r: RulesInForce | null) => {
     setRules(r);
     if (!r) return;
-    rememberRules(r);
     setV(r.values);
     setText({
       ppe: r.values.ppe.join("\n"),
       contacts: r.values.contacts.map((c) => `${c.name} | ${c.role} | ${c.phone}`).join("\n"),
     });
-  }
-  // biome-ignore lint/correctness/useExhaustiveDependencies: loads once on opening; adopt only sets state
-  useEffect(() => {
-    fetch("/api/rules", { cache: "no-store" })
-      .then((r) => r.json())
-      .then((b) => adopt(b.rules))
-      .catch(() => setMsg({ tone: "danger", text: "No connection to the server." }));
-    fetch("/api/cryostats", { cache: "no-store" })
-      .then((r) => r.json())
-      .then((b) => setCryos(b.cryostats ?? []))
-      .catch(() => undefined);
   }, []);
+  useEffect(() => {
+    api<RulesReply>("/api/rules").then(
+      (b) => adopt(b.rules),
+      (e: unknown) => setMsg({ tone: "danger", text: problemText(e) }),
+    );
+  }, [adopt]);
 
   if (!v) return msg ? <Notice tone="danger" role="alert" title={msg.text} /> : <Loading />;
   const set = <K extends keyof FacilityRulesValues>(k: K, val: FacilityRulesValues[K]) =>
@@ -67,23 +63,23 @@ export function RulesAdmin() {
         .map(([name = "", role = "", phone = ""]) => ({ name, role, phone })),
     };
     try {
-      const r = await fetch("/api/rules", {
+      const body = await api<{ rules: RulesInForce }>("/api/rules", {
         method: "PUT",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify({ values, reason, expectedVersion: rules?.version ?? null }),
+        json: { values, reason, expectedVersion: rules?.version ?? null },
       });
-      const body = await r.json();
-      if (!r.ok) setMsg({ tone: "danger", text: body.error?.message ?? "Not saved.", details: body.error?.details });
-      else {
-        adopt(body.rules);
-        setReason("");
-        setMsg({
-          tone: "ok",
-          text: `Saved as version ${body.rules.version}. The change is recorded in the facility log.`,
-        });
-      }
-    } catch {
-      setMsg({ tone: "danger", text: "No connection to the server: nothing was changed." });
+      adopt(body.rules);
+      syncSoon(); // the cautions on this tablet read the rules from its store
+      setReason("");
+      setMsg({
+        tone: "ok",
+        text: `Saved as version ${body.rules.version}. The change is recorded in the facility log.`,
+      });
+    } catch (e) {
+      setMsg({
+        tone: "danger",
+        text: problemText(e, "No connection to the server: nothing was changed."),
+        details: problemList(e),
+      });
     } finally {
       setBusy(false);
     }
@@ -99,26 +95,27 @@ export function RulesAdmin() {
       return;
     }
     try {
-      const r = await fetch("/api/rules/document", {
-        method: "POST",
-        headers: {
-          "content-type": "application/octet-stream",
-          "x-rimelog-file-name": encodeURIComponent(file.name),
-          "x-rimelog-reason": encodeURIComponent(reason),
+      const body = await api<{ rules: RulesInForce & { document: NonNullable<RulesInForce["document"]> } }>(
+        "/api/rules/document",
+        {
+          body: file,
+          headers: {
+            "x-rimelog-file-name": encodeURIComponent(file.name),
+            "x-rimelog-reason": encodeURIComponent(reason),
+          },
         },
-        body: file,
+      );
+      adopt(body.rules);
+      syncSoon(); // the cautions on this tablet read the rules from its store
+      setDocMsg({
+        tone: "ok",
+        text: `"${body.rules.document.fileName}" is now the facility's rules document (version ${body.rules.version}).`,
       });
-      const body = await r.json();
-      if (!r.ok) setDocMsg({ tone: "danger", text: body.error?.message ?? "Not uploaded." });
-      else {
-        adopt(body.rules);
-        setDocMsg({
-          tone: "ok",
-          text: `"${body.rules.document.fileName}" is now the facility's rules document (version ${body.rules.version}).`,
-        });
-      }
-    } catch {
-      setDocMsg({ tone: "danger", text: "No connection to the server: the document was not uploaded." });
+    } catch (e) {
+      setDocMsg({
+        tone: "danger",
+        text: problemText(e, "No connection to the server: the document was not uploaded."),
+      });
     }
   }
 

@@ -56,7 +56,7 @@ export function AppHeader() {
             </p>
           )}
           <ThemeToggle />
-          <SignOutButton />
+          <SignOutButton userId={me?.id} />
         </div>
       </div>
     </header>

@@ -36,7 +36,7 @@ export function SignInForm() {
       return;
     }
     const next = params.get("next");
-    window.location.assign(next && next.startsWith("/") && !next.startsWith("//") ? next : "/");
+    window.location.assign(next?.startsWith("/") && !next.startsWith("//") ? next : "/");
   });
 
   return (

@@ -4,8 +4,10 @@
 import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice, Panel } from "@/components/ui/panel";
+import { api, problemText } from "@/components/ui/use-json";
 import { formatDate } from "@/lib/format";
 import type { SessionUser } from "@/lib/schemas/user";
+import { pinProblem } from "@/lib/signing/pin-rules";
 import { type CachedPin, cachedPin, storePin } from "@/lib/signing/tablet";
 
 type Verifier = { saltB64: string; iterations: number; verifier: string; expiresAt: string };
@@ -22,31 +24,26 @@ export function PinPanel({ me }: { me: SessionUser }) {
   useEffect(() => {
     setPinState(cachedPin(me.id));
     if (!navigator.onLine) return;
-    fetch("/api/pin", { cache: "no-store" })
-      .then(async (r) => {
-        if (!r.ok) return;
-        const { pin: v } = (await r.json()) as { pin: Verifier | null };
+    api<{ pin: Verifier | null }>("/api/pin").then(
+      ({ pin: v }) => {
         if (v) {
           storePin({ userId: me.id, ...v });
           setPinState(cachedPin(me.id));
         }
-      })
-      .catch(() => undefined);
+      },
+      () => undefined, // the cached verifier stays as it is
+    );
   }, [me.id]);
 
   async function save() {
     setMsg(null);
-    if (!/^[0-9]{6,12}$/.test(next)) return setMsg({ tone: "danger", text: "The PIN is 6 to 12 digits." });
+    const problem = pinProblem(next);
+    if (problem) return setMsg({ tone: "danger", text: problem });
     if (next !== again) return setMsg({ tone: "danger", text: "The two PINs differ." });
     setBusy(true);
     try {
-      const r = await fetch("/api/pin", {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify({ password, pin: next }),
-      });
-      const body = (await r.json().catch(() => ({}))) as { pin?: Verifier; error?: { message?: string } };
-      if (!r.ok || !body.pin) throw new Error(body.error?.message ?? `The server answered ${r.status}.`);
+      const body = await api<{ pin?: Verifier }>("/api/pin", { json: { password, pin: next } });
+      if (!body.pin) throw new Error("The server's answer carried no PIN verifier; the PIN was not set.");
       storePin({ userId: me.id, ...body.pin });
       setPinState(cachedPin(me.id));
       setOpen(false);
@@ -57,9 +54,7 @@ export function PinPanel({ me }: { me: SessionUser }) {
     } catch (e) {
       setMsg({
         tone: "danger",
-        text: (e as Error).message.includes("fetch")
-          ? "No connection: a PIN can only be set online."
-          : (e as Error).message,
+        text: problemText(e, "No connection: a PIN can only be set online."),
       });
     } finally {
       setBusy(false);

@@ -1,10 +1,11 @@
 "use client";
 // Signing: who is signing and what it means are shown first, then the mark on the pad and the
 // signer's secret (PIN on the tablet, or the password while online). Only after the secret checks
-// out does the caller write the record and its signature (R5: the image alone never signs).
+// out does the caller write the record and its signature (the image alone never signs).
 import { type ReactNode, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/panel";
+import { api, problemText } from "@/components/ui/use-json";
 import { ROLE_LABEL } from "@/lib/auth/permissions";
 import { meaningLabel } from "@/lib/format";
 import type { SignatureMeaning } from "@/lib/schemas/entry";
@@ -20,18 +21,22 @@ export type Confirmation = {
 };
 
 async function passwordProof(password: string, subject: SigningSubject): Promise<string> {
-  const r = await fetch("/api/pin/confirm", {
-    method: "POST",
-    headers: { "content-type": "application/json" },
-    body: JSON.stringify({
-      password,
-      signedEntryId: subject.signedEntryId,
-      signedHash: subject.signedHash,
-      meaning: subject.meaning,
-    }),
-  });
-  const body = (await r.json().catch(() => ({}))) as { proof?: string; error?: { message?: string } };
-  if (!r.ok || !body.proof) throw new Error(body.error?.message ?? `The server answered ${r.status}.`);
+  let body: { proof?: string };
+  try {
+    body = await api<{ proof?: string }>("/api/pin/confirm", {
+      json: {
+        password,
+        signedEntryId: subject.signedEntryId,
+        signedHash: subject.signedHash,
+        meaning: subject.meaning,
+      },
+    });
+  } catch (e) {
+    throw new Error(
+      problemText(e, "No connection to the server: signing with the password needs the network. Use your PIN."),
+    );
+  }
+  if (!body.proof) throw new Error("The server's answer carried no confirmation; nothing was signed.");
   return body.proof;
 }
 

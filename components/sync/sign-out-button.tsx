@@ -10,14 +10,16 @@ import { localDb } from "@/lib/local/db";
 import { checkSignOut, clearLocalData } from "@/lib/local/session";
 import { syncLoop } from "./runtime";
 
-export function SignOutButton() {
+/** `userId`: who the page knows as signed in (their cached signing PIN is forgotten too). */
+export function SignOutButton({ userId }: { userId?: string | undefined }) {
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<string | null>(null);
   const [confirmRejected, setConfirmRejected] = useState<number | null>(null);
 
   const finish = async () => {
+    const stored = (await localDb().getMeta("session"))?.user;
     await clearLocalData(localDb());
-    forgetMe();
+    forgetMe([userId, stored?.id]);
     await signOut({ callbackUrl: "/signin" });
   };
 

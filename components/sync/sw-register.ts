@@ -1,25 +1,26 @@
 "use client";
-// Service worker registration (workbox-window) and the "new version ready" signal, plus the
-// persistent-storage request. Each runs once per page.
+// Service worker registration (Serwist's window package, the same stack as sw/sw.ts) and the
+// "new version ready" signal, plus the persistent-storage request. Each runs once per page.
+import type { Serwist } from "@serwist/window";
 import { useEffect, useState } from "react";
-import type { Workbox } from "workbox-window";
 
-let wbPromise: Promise<Workbox | null> | undefined;
+let wbPromise: Promise<Serwist | null> | undefined;
 const waitingListeners = new Set<(w: boolean) => void>();
 let waiting = false;
 
-function register(): Promise<Workbox | null> {
+function register(): Promise<Serwist | null> {
   if (typeof window === "undefined" || !("serviceWorker" in navigator) || process.env.NODE_ENV !== "production")
     return Promise.resolve(null);
-  wbPromise ??= import("workbox-window").then(async ({ Workbox }) => {
-    const wb = new Workbox("/sw.js", { scope: "/" });
+  wbPromise ??= import("@serwist/window").then(async ({ Serwist }) => {
+    const wb = new Serwist("/sw.js", { scope: "/" });
     wb.addEventListener("waiting", () => {
       waiting = true;
-      waitingListeners.forEach((f) => f(true));
+      for (const f of waitingListeners) f(true);
     });
-    // Once the new worker has taken over, load the page from it.
+    // Once the new worker has taken over (after "New version: reload" sent it SKIP_WAITING, which
+    // sw/sw.ts answers with skipWaiting()), load the page from it.
     wb.addEventListener("controlling", (e) => {
-      if ((e as { isUpdate?: boolean }).isUpdate) window.location.reload();
+      if (e.isUpdate) window.location.reload();
     });
     await wb.register();
     return wb;

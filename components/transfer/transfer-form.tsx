@@ -4,7 +4,6 @@
 // to recovery and boil-off since the previous transfer as the figures are typed.
 import { useMemo, useState } from "react";
 import { Caution } from "@/components/safety/caution";
-import { useFacilityRules } from "@/components/safety/use-facility-rules";
 import { useMe } from "@/components/shell/use-me";
 import { SignDialog } from "@/components/signature/sign-dialog";
 import { writeSignature } from "@/components/signature/write-signature";
@@ -22,7 +21,7 @@ import { Notice, Panel } from "@/components/ui/panel";
 import { transferFigures } from "@/lib/audit/figures";
 import { litresFromLevel, litresFromMass } from "@/lib/cryo";
 import { trim } from "@/lib/format";
-import { useCryostats, useEntries, useUsers } from "@/lib/local/hooks";
+import { useCryostats, useEntries, useFacilityRules, useUsers } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
 import { type PayloadInput, payloadOf } from "@/lib/schemas/entry";
 import { typedNumber } from "@/lib/typed-number";
@@ -36,7 +35,7 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
   const { me } = useMe();
   const cryostats = useCryostats();
   const users = useUsers();
-  const { rules } = useFacilityRules();
+  const rules = useFacilityRules();
   const withReservoir = (cryostats ?? []).filter((c) => c.config.reservoir);
   const [cryostatId, setCryostatId] = useState(initialCryostatId ?? "");
   const cid = cryostatId || withReservoir[0]?.id || "";

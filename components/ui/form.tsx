@@ -63,7 +63,6 @@ export function ChoiceButtons<T extends string>({
   return (
     <div className={className} role="radiogroup" aria-label={label}>
       {options.map((o) => (
-        // biome-ignore lint/a11y/useSemanticElements: a 48 px button acting as a radio, read as one by screen readers
         <button
           key={o.value}
           type="button"

@@ -39,7 +39,7 @@ export const auditFindingCheck: Check<EntryInput<"audit.finding">> = async (db, 
   return null;
 };
 
-/** An "audited" signature signs a finding, and only with the officer's PIN or password (R5). */
+/** An "audited" signature signs a finding, and only with the officer's PIN or password. */
 export const auditSignatureCheck: Check<EntryInput<"signature">> = async (db, e, batch) => {
   const p = e.payload;
   if (p.meaning !== "audited") return null;

@@ -73,8 +73,8 @@ const runEntryCheck: Check<EntryInput<"run.step" | "run.abort" | "run.complete">
 
 /**
  * Every signature that says how the signer confirmed their identity is re-verified; signatures on
- * procedure records must say it (R5). Older records signed before PINs existed stay readable and
- * are shown as "identity not confirmed".
+ * procedure records must say it (a signature needs the signer's PIN or password). Older records
+ * signed before PINs existed stay readable and are shown as "identity not confirmed".
  */
 const signatureConfirmation: Check<EntryInput<"signature">> = async (db, e, batch) => {
   const p = e.payload;

@@ -1,7 +1,7 @@
-// Verifying one hash chain (R6): recompute every link, compare with the chain head and with the
-// server's signed checkpoints, and name the first bad entry and what happened to it — changed,
-// inserted, deleted, reordered, truncated, or the whole tail recomputed after a change (which only
-// a signed checkpoint can catch). Pure: the rows come from the database, the checkpoints from the
+// Verifying one hash chain (tamper evidence): recompute every link, compare with the chain head and
+// with the server's signed checkpoints, and name the first bad entry and what happened to it — changed,
+// inserted, deleted, reordered, truncated, or the whole tail recomputed after a change (which only a
+// signed checkpoint can catch). Pure: the rows come from the database, the checkpoints from the
 // database and the key directory, already checked against the server's public key.
 import type { ServerFields, UncheckedEntry } from "@/lib/schemas/entry";
 import { genesisHash, linkHash } from "@/lib/sync/hash";

@@ -52,7 +52,7 @@ export type AuditContext = {
 
 /**
  * Default plausible band for transfer efficiency when the facility sets none: 40–95 %.
- * [practice] transfer losses of 20–40 % are usual (shared/SCENARIO.md); below 40 % suggests a
+ * [practice] transfer losses of 20–40 % are usual (common practice); below 40 % suggests a
  * wrong figure or a bad line, above 95 % is better than a warm transfer line allows.
  */
 export const DEFAULT_EFFICIENCY_BAND = { minPercent: 40, maxPercent: 95 } as const;

@@ -1,6 +1,6 @@
 // CSV export of audited records (RFC 4180: CRLF lines, fields quoted when needed). Each row
 // carries the record, its computed figures, its flags and every signature's manifestation
-// (printed name, role, date-time UTC, meaning) as R3 requires.
+// (printed name, role, date-time UTC, meaning), as every view of a signed record shows it.
 import type { ExportRecordBase, ExportSignature } from "./types";
 
 export type CsvSignature = ExportSignature;
@@ -103,5 +103,5 @@ export function recordsToCsv(records: readonly CsvRecord[]): string {
     ];
     lines.push(row.map(csvField).join(","));
   }
-  return lines.join("\r\n") + "\r\n";
+  return `${lines.join("\r\n")}\r\n`;
 }

@@ -1,6 +1,7 @@
 // The audit report as PDF (pdf-lib, pure JS): a period's transfers, quenches and incidents, each
 // with its figures, flags, findings and every signature's manifestation (printed name, role, date
-// and time, meaning — R3), plus the chain check of each cryostat. Standard fonts only (no files).
+// and time, meaning — as on every screen), plus the chain check of each cryostat. Standard fonts
+// only (no files).
 import { PDFDocument, type PDFFont, type PDFPage, rgb, StandardFonts } from "pdf-lib";
 import type { ExportRecordBase, ExportSignature } from "./types";
 

@@ -1,11 +1,13 @@
 // The tablet store: the ONE Dexie class with every schema version, its row types, and how it is
 // opened (strict durability, so "saved" means on disk, not only in Chromium's write cache).
-// Reference data, local and pulled entries with their sync state, the outbox, push answers not
+// Reference data (cryostats, templates, facility rules, calibrations in force, people), local and pulled entries with their sync state, the outbox, push answers not
 // yet written into their entries, photo blobs, and sync metadata (device id, pull cursor, last
 // success, the offline session) all live here.
-import Dexie, { type DexieOptions, type Table } from "dexie";
+import Dexie, { type DexieOptions, type Table, type Transaction } from "dexie";
+import type { CalibrationRecord } from "@/lib/schemas/calibration";
 import type { CryostatConfig, CryostatKind } from "@/lib/schemas/cryostat";
 import type { EntryInput, EntryInputOf, EntryKind } from "@/lib/schemas/entry";
+import type { RulesInForce } from "@/lib/schemas/rules";
 import type { TemplateInput } from "@/lib/schemas/run";
 import type { PublicUser, SessionUser } from "@/lib/schemas/user";
 import type { Accepted } from "@/lib/sync/protocol";
@@ -31,7 +33,7 @@ export type LocalFields = {
  */
 export type StoredLocalEntry<K extends EntryKind = EntryKind> = EntryInputOf<K> & LocalFields;
 
-/** One unsent entry. Rows leave the outbox only when the server has answered for the entry (S3). */
+/** One unsent entry. Rows leave the outbox only when the server has answered for the entry. */
 export type OutboxRow = {
   n?: number; // auto-increment: the order of writing on this tablet, which is also the push order
   entryId: string;
@@ -70,7 +72,7 @@ export type LocalAttachment = {
 export type RefRow = { id: string } & Record<string, unknown>;
 
 /**
- * … and read as the rows the server sends (app/api/sync/pull/reference.ts): a cryostats row over
+ * … and read as the rows the server sends (db/queries/reference.ts): a cryostats row over
  * JSON (dates as ISO strings), its config typed by the shared schema.
  */
 export type LocalCryostat = {
@@ -93,7 +95,8 @@ export type MetaRow =
   | { key: "session"; value: LocalSession }
   | { key: "cursor"; value: number }
   | { key: "refHash"; value: string }
-  | { key: "rules"; value: Record<string, unknown> | null }
+  /** The facility rules in force as last pulled (null: the admin has not set them). */
+  | { key: "rules"; value: RulesInForce | null }
   | { key: "lastSuccess"; value: string }
   | { key: "lastAttempt"; value: string }
   | { key: "lastError"; value: { code: string; message: string; at: string } | null };
@@ -141,7 +144,19 @@ export const SCHEMA_VERSIONS: readonly (readonly [number, Record<string, string>
       receipts: "++n",
     },
   ],
+  // v5: the sensor calibration tables in force, pulled with the reference data (by cryostat, so a
+  // reading form reads only its cryostat's tables).
+  [5, { calibrations: "id, cryostatId" }],
 ];
+
+/**
+ * Data changes made when a tablet first opens a version (after its stores are changed). v5
+ * forgets the reference data's hash, so the next pull brings the whole reference again,
+ * calibrations included, even if the server's copy looked unchanged.
+ */
+export const SCHEMA_UPGRADES: Readonly<Record<number, (tx: Transaction) => Promise<unknown>>> = {
+  5: (tx) => tx.table("meta").delete("refHash"),
+};
 
 export class RimelogDexie extends Dexie {
   entries!: Table<StoredLocalEntry, string>;
@@ -150,6 +165,7 @@ export class RimelogDexie extends Dexie {
   attachments!: Table<LocalAttachment, string>;
   cryostats!: Table<LocalCryostat, string, RefRow>;
   templates!: Table<LocalTemplate, string, RefRow>;
+  calibrations!: Table<CalibrationRecord, string>;
   users!: Table<LocalUser, string, RefRow>;
   meta!: Table<MetaRow, string>;
 
@@ -157,7 +173,11 @@ export class RimelogDexie extends Dexie {
     // Chromium commits IndexedDB transactions with relaxed durability by default: a crash right
     // after "saved" could lose the entry. Strict waits for the write to reach the disk.
     super(name, { chromeTransactionDurability: "strict", ...options });
-    for (const [version, stores] of SCHEMA_VERSIONS) this.version(version).stores(stores);
+    for (const [version, stores] of SCHEMA_VERSIONS) {
+      const upgrade = SCHEMA_UPGRADES[version];
+      const v = this.version(version).stores(stores);
+      if (upgrade) v.upgrade(upgrade);
+    }
   }
 
   async getMeta<K extends MetaKey>(key: K): Promise<MetaValue<K> | undefined> {

@@ -1,10 +1,25 @@
 "use client";
 // Live queries on the tablet store for React screens: they re-render when the store changes
 // (a local write, a sync). `undefined` means "still loading"; the UI never waits for the network.
+// Everything here comes from the pull into the tablet store (lib/sync/pull.ts): what the tablet
+// needs offline has no other way onto the screen.
 import { useLiveQuery } from "dexie-react-hooks";
 import { useEffect, useMemo, useState } from "react";
+import type { CalibrationRecord } from "@/lib/schemas/calibration";
+import type { RulesInForce } from "@/lib/schemas/rules";
+import type { SessionUser } from "@/lib/schemas/user";
+import { type CryostatSeries, SERIES_KINDS } from "@/lib/series";
 import { type LocalCryostat, type LocalTemplate, type LocalUser, localDb, type StoredLocalEntry } from "./db";
-import { type EntryFilter, queryEntries, queryEntry, type SyncSummary, syncSummary } from "./queries";
+import {
+  calibrationsOf,
+  type EntryFilter,
+  queryEntries,
+  queryEntry,
+  type SeriesKind,
+  type SyncSummary,
+  seriesOf,
+  syncSummary,
+} from "./queries";
 
 export type { LocalCryostat, LocalTemplate, LocalUser } from "./db";
 
@@ -49,9 +64,40 @@ export function useUsers(): LocalUser[] | undefined {
   return useLiveQuery(async () => localDb().users.toArray(), []);
 }
 
-/** The facility rules in force, as last pulled (null: none set or not pulled yet). */
-export function useFacilityRules<T = Record<string, unknown>>(): T | null | undefined {
-  return useLiveQuery(async () => ((await localDb().getMeta("rules")) as T | null | undefined) ?? null, []);
+/**
+ * The facility rules in force as last pulled, with the rules document's metadata (null: the
+ * admin has not set them, or they have not reached this tablet yet).
+ */
+export function useFacilityRules(): RulesInForce | null | undefined {
+  return useLiveQuery(async () => (await localDb().getMeta("rules")) ?? null, []);
+}
+
+/**
+ * The sensor calibration tables in force for a cryostat (the newest accepted per stage), newest
+ * first, as last pulled; none without an id.
+ */
+export function useCalibrations(cryostatId: string | undefined): CalibrationRecord[] | undefined {
+  return useLiveQuery(async () => (cryostatId ? calibrationsOf(localDb(), cryostatId) : []), [cryostatId]);
+}
+
+/**
+ * A cryostat's chart series built on the tablet from its log (see `seriesOf`). `kinds` narrows
+ * the entries read (a form that needs only the helium levels need not read every stage reading).
+ * Null when the cryostat is not on the tablet; undefined while loading or without an id.
+ */
+export function useCryostatSeries(
+  cryostatId: string | undefined,
+  kinds: readonly SeriesKind[] = SERIES_KINDS,
+): CryostatSeries | null | undefined {
+  return useLiveQuery(
+    async () => (cryostatId ? seriesOf(localDb(), cryostatId, kinds) : undefined),
+    [cryostatId, kinds.join(",")],
+  );
+}
+
+/** Who the tablet store says is signed in (its offline session, renewed by every pull); null: nobody. */
+export function useSessionUser(): SessionUser | null | undefined {
+  return useLiveQuery(async () => (await localDb().getMeta("session"))?.user ?? null, []);
 }
 
 export function useSyncSummary(): SyncSummary | undefined {

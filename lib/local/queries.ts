@@ -1,6 +1,9 @@
 // Reads from the tablet store, shared by the live-query hooks and tests: entries (pulled + local,
-// newest first), reference data and the sync summary.
+// newest first), reference data (calibrations in force, series built from the log) and the sync
+// summary.
+import type { CalibrationRecord } from "@/lib/schemas/calibration";
 import type { EntryKind } from "@/lib/schemas/entry";
+import { buildSeries, type CryostatSeries, SERIES_KINDS } from "@/lib/series";
 import type { RimelogDexie, StoredLocalEntry } from "./db";
 
 /** Which entries to read; `kinds: []` reads none. */
@@ -18,7 +21,7 @@ export function newestFirst(a: StoredLocalEntry, b: StoredLocalEntry): number {
 /**
  * An entry is unsent while its outbox row exists (the outbox is the truth). Between the server's
  * answer and the moment that answer is written into the entry (a receipt, see foldReceipts in
- * lib/sync/client.ts) the entry itself still says "pending": it is shown as synced from the
+ * lib/sync/push.ts) the entry itself still says "pending": it is shown as synced from the
  * moment its outbox row is gone, so the rows agree with the pending count.
  */
 async function withSendState(db: RimelogDexie, list: StoredLocalEntry[]): Promise<StoredLocalEntry[]> {
@@ -133,4 +136,38 @@ export async function syncSummary(db: RimelogDexie): Promise<SyncSummary> {
     sessionConfirmedAt: session?.confirmedAt ?? null,
     deviceId: deviceId ?? null,
   };
+}
+
+/** The sensor calibration tables in force for a cryostat as last pulled, newest first. */
+export async function calibrationsOf(db: RimelogDexie, cryostatId: string): Promise<CalibrationRecord[]> {
+  const rows = await db.calibrations.where("cryostatId").equals(cryostatId).toArray();
+  return rows.sort((a, b) => b.acceptedAt.localeCompare(a.acceptedAt) || b.id.localeCompare(a.id));
+}
+
+export type SeriesKind = (typeof SERIES_KINDS)[number];
+
+/**
+ * A cryostat's chart series from its log on the tablet, built as the server builds it
+ * (lib/series.ts), with the unsent entries and without the refused ones; only entries of `kinds`
+ * are read. Null when the cryostat is not on the tablet.
+ */
+export async function seriesOf(
+  db: RimelogDexie,
+  cryostatId: string,
+  kinds: readonly SeriesKind[] = SERIES_KINDS,
+  now = Date.now(),
+): Promise<CryostatSeries | null> {
+  return db.transaction("r", [db.cryostats, db.entries], async () => {
+    const cryostat = await db.cryostats.get(cryostatId);
+    if (!cryostat) return null;
+    const rows = await db.entries
+      .where("[cryostatId+kind]")
+      .anyOf(kinds.map((k) => [cryostatId, k]))
+      .toArray();
+    return buildSeries(
+      cryostat,
+      rows.filter((e) => e.sync !== "rejected"),
+      now,
+    );
+  });
 }

@@ -1,6 +1,6 @@
 // The public API other screens use to record on the tablet (procedures, safety forms, maths UI,
 // quick entries). Each call writes to the tablet store first and resolves only after the local
-// transaction has committed; the sync loop sends it later. See /work/notes/local-api.md.
+// transaction has committed; the sync loop sends it later. See lib/local/README.md.
 import type { EntryKind } from "@/lib/schemas/entry";
 import { localDb, type StoredLocalEntry } from "./db";
 import { type EntryDraft, putAttachmentIn, type RecordedOf, recordDrafts, recordEntriesIn } from "./store";

@@ -44,7 +44,17 @@ export async function checkSignOut(db: RimelogDexie): Promise<SignOutCheck> {
 export async function clearLocalData(db: RimelogDexie): Promise<void> {
   await db.transaction(
     "rw",
-    [db.entries, db.outbox, db.receipts, db.attachments, db.cryostats, db.templates, db.users, db.meta],
+    [
+      db.entries,
+      db.outbox,
+      db.receipts,
+      db.attachments,
+      db.cryostats,
+      db.templates,
+      db.calibrations,
+      db.users,
+      db.meta,
+    ],
     async () => {
       const waiting = new Set((await db.outbox.toArray()).map((o) => o.entryId));
       await db.entries.filter((e) => !waiting.has(e.id)).delete();
@@ -53,6 +63,7 @@ export async function clearLocalData(db: RimelogDexie): Promise<void> {
       await db.attachments.filter((a) => !(a.state === "pending" && others.has(a.authorId))).delete();
       await db.cryostats.clear();
       await db.templates.clear();
+      await db.calibrations.clear();
       await db.users.clear();
       await db.meta.bulkDelete(["session", "cursor", "refHash", "rules", "lastSuccess", "lastAttempt", "lastError"]);
     },

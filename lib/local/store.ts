@@ -10,7 +10,7 @@ import { emitLocalWrite } from "./events";
 
 /**
  * How long a tablet keeps working after its last contact with the server that confirmed the
- * session. Matches the server session's lifetime (lib/auth/options.ts SESSION_MAX_AGE_S = 14 h):
+ * session. Matches the server session's lifetime (server/auth/options.ts SESSION_MAX_AGE_S = 14 h):
  * after it, new entries are refused until the technician signs in again online. Entries already
  * written stay in the outbox and are sent after that sign-in.
  */

@@ -1,5 +1,5 @@
 // Field-by-field differences between two versions of the facility rules, for the audited
-// `rules.change` entry (old and new value of every changed setting, R2).
+// `rules.change` entry (old and new value of every changed setting, for the audit trail).
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import { canonicalJson } from "@/lib/sync/hash";
 

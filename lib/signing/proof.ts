@@ -1,6 +1,7 @@
-// The identity check behind a signature (R5): the signer proves, just before signing, that they
-// know their PIN or password. The proof is an HMAC over exactly what is being signed, so it cannot
-// be moved to another record or meaning, and the server re-verifies it on push. Runs on tablet and server.
+// The identity check behind a signature (the stylus image alone never signs): the signer proves,
+// just before signing, that they know their PIN or password. The proof is an HMAC over exactly what
+// is being signed, so it cannot be moved to another record or meaning, and the server re-verifies
+// it on push. Runs on tablet and server.
 //
 // PIN:      K = PBKDF2-SHA256(PIN, salt, iterations). The server keeps K (like a password hash);
 //           the tablet keeps only verifier = SHA-256(K), with an expiry. Proof = HMAC(K, message).

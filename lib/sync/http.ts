@@ -1,8 +1,8 @@
 // The browser transport: the sync protocol over fetch (same origin, JSON, never cached), with
 // HTTP failures mapped to the few kinds the sync loop acts on.
 import type { EntryInput } from "@/lib/schemas/entry";
-import { type Transport, TransportError } from "./client";
 import type { PullReply, PushReply, UploadReply } from "./protocol";
+import { type Transport, TransportError } from "./transport";
 
 const TIMEOUT_MS = 30_000;
 

@@ -5,8 +5,9 @@
 // reload in the middle of a push simply pushes again (the server answers the same).
 import type { RimelogDexie } from "@/lib/local/db";
 import { onLocalWrite } from "@/lib/local/events";
-import { type SyncResult, syncOnce, type Transport, TransportError } from "./client";
+import { type SyncResult, syncOnce } from "./client";
 import { PUSH_LIMITS } from "./protocol";
+import { type Transport, TransportError } from "./transport";
 
 export type LoopState = { running: boolean; online: boolean; nextRetryAt: number | null };
 type Options = { debounceMs?: number; intervalMs?: number; minBackoffMs?: number; maxBackoffMs?: number };

@@ -2,7 +2,9 @@
 // and gets back, what a pull returns, and how a push body is checked entry by entry.
 
 import { AppError } from "@/lib/errors";
+import type { CalibrationRecord } from "@/lib/schemas/calibration";
 import { type EntryInput, parseEntry, type StoredEntry } from "@/lib/schemas/entry";
+import type { RulesInForce } from "@/lib/schemas/rules";
 import type { SessionUser } from "@/lib/schemas/user";
 
 /** A push carries at most this many entries and bytes; over it the server answers 413. */
@@ -15,11 +17,19 @@ export type Accepted = { id: string; seq: number; hash: string; prevHash: string
 export type Rejected = { id: string; code: string; message: string };
 export type PushReply = { accepted: Accepted[]; rejected: Rejected[] };
 
+/** What a tablet keeps for offline use, sent by the pull when the tablet's copy (by hash) is stale. */
 export type ReferenceData = {
   hash: string;
   cryostats: ({ id: string } & Record<string, unknown>)[];
+  /** Every version of every procedure template (a run pins the version it started from). */
   templates: ({ id: string } & Record<string, unknown>)[];
-  rules: Record<string, unknown> | null;
+  /** The facility rules in force, with the rules document's metadata; null while never set. */
+  rules: RulesInForce | null;
+  /**
+   * The sensor calibration tables in force (the newest accepted per cryostat and stage). Optional
+   * on the wire: a server from before it was added sends none, and a tablet from before ignores it.
+   */
+  calibrations?: CalibrationRecord[];
   users: ({ id: string } & Record<string, unknown>)[];
 };
 

@@ -15,7 +15,7 @@ export const currentUser = cache(async (): Promise<SessionUser | null> => {
   const id = session?.user?.id;
   if (!id) return null;
   const row = await getUser(await getDb(), { id });
-  if (!row || !row.active || session.sv !== row.sessionVersion) return null;
+  if (!row?.active || session.sv !== row.sessionVersion) return null;
   return { id: row.id, email: row.email, name: row.name, role: row.role };
 });
 

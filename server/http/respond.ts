@@ -1,7 +1,8 @@
 // Mapping typed results and AppErrors to HTTP responses (Web Response, no framework import),
 // and the checks every state-changing route handler makes on its request.
 import "server-only";
-import { AppError } from "@/lib/errors";
+import { z } from "zod";
+import { AppError, detailLines, fieldErrors } from "@/lib/errors";
 
 const NO_STORE = { "Cache-Control": "no-store" };
 
@@ -9,9 +10,24 @@ export function json(body: unknown, status = 200): Response {
   return Response.json(body, { status, headers: NO_STORE });
 }
 
+/**
+ * The one mapping of a thrown error to a response: an AppError answers its status with its code,
+ * message, details and field problems; a zod failure answers 400 with its field problems; anything
+ * else is logged and answers 500 without internals.
+ */
 export function errorResponse(e: unknown): Response {
   if (e instanceof AppError) {
-    return json({ error: { code: e.code, message: e.message, details: e.details ?? [] } }, e.status);
+    const fields = e.fields ?? [];
+    return json({ error: { code: e.code, message: e.message, details: e.details ?? [], fields } }, e.status);
+  }
+  if (e instanceof z.ZodError) {
+    const fields = fieldErrors(e);
+    const error = {
+      code: "bad_request:request",
+      message: "Check the highlighted fields.",
+      details: detailLines(fields),
+    };
+    return json({ error: { ...error, fields } }, 400);
   }
   console.error("[rimelog] unexpected error", e);
   return json(

@@ -1,8 +1,8 @@
 // Mail delivery through nodemailer: SMTP when RIMELOG_MAIL=smtp (SMTP_URL), otherwise a local fake
 // that renders the full message with nodemailer and sends it nowhere — the mail_outbox row is the
 // stored copy, which the admin reads in the app.
-import nodemailer, { type Transporter } from "nodemailer";
 import "server-only";
+import nodemailer, { type Transporter } from "nodemailer";
 import { env } from "@/lib/env";
 import type { MailTransport } from "@/lib/mail/messages";
 

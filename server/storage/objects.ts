@@ -76,6 +76,7 @@ export function sniffType(b: Uint8Array): Sniffed | null {
 export function cleanFileName(raw: string, ext: string): string {
   const base = raw.split(/[\\/]/).pop() ?? "";
   const cleaned = base
+    // biome-ignore lint/suspicious/noControlCharactersInRegex: removing control characters is the point
     .replace(/[\u0000-\u001f\u007f"<>|:*?]/g, "")
     .trim()
     .slice(0, 120);

@@ -70,7 +70,7 @@ describe("calculators", () => {
     const pressure = page.getByLabel("Pressure", { exact: true });
     await pressure.fill("100");
     const results = page.locator('dl[aria-label="Vapour pressure → temperature: results"]');
-    // ITS-90 eq. (3) with the Table 3 4He coefficients: 10 000 Pa → 2.488559 K (REFERENCES.md [calc]).
+    // ITS-90 eq. (3) with the Table 3 4He coefficients: 10 000 Pa → 2.488559 K (lib/cryo/README.md [calc]).
     await expect.poll(() => results.innerText()).toContain("2.48856 K");
 
     await pressure.fill("0.01");

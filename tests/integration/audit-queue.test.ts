@@ -4,11 +4,8 @@
 // is refused; the transfer table filters by flag and person.
 
 import { randomUUID } from "node:crypto";
-import { mkdtempSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
 import { eq } from "drizzle-orm";
-import { describe, expect, it } from "vitest";
+import { afterAll, describe, expect, it } from "vitest";
 import { auditQueue, auditTable } from "@/db/queries/audit";
 import { appendEntries } from "@/db/queries/entries";
 import { users } from "@/db/schema";
@@ -16,32 +13,26 @@ import type { EntryInput } from "@/lib/schemas/entry";
 import { hmacHex, passwordProofKey, signingMessage } from "@/lib/signing/proof";
 import { recordHash } from "@/lib/sync/hash";
 import { fileCheckpointKeys } from "@/server/audit/keys";
+import { testDirs } from "../support/dirs";
+import { entryBuilder, entryInput } from "../support/entries";
+import { grace, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
-const grace = {
-  id: "u-grace",
-  email: "grace@larchmere.example",
-  name: "Dr. Grace Oyelaran",
-  role: "safety_officer" as const,
-};
-const keys = fileCheckpointKeys(mkdtempSync(join(tmpdir(), "rimelog-audit-keys-")));
+const dirs = testDirs("rimelog-audit-keys-");
+afterAll(() => dirs.remove());
+const keys = fileCheckpointKeys(dirs.keyDir);
+/** Grace's entries at the audit desk, written now. */
+const fromDesk = entryBuilder({ authorId: grace.id, deviceId: "audit-desk" });
 
 function finding(
   target: { id: string; cryostatId: string | null },
   verdict: "acceptable" | "needs_action",
 ): EntryInput {
-  return {
-    id: randomUUID(),
+  return fromDesk({
     cryostatId: target.cryostatId,
-    runId: null,
     kind: "audit.finding",
     payload: { targetEntryId: target.id, verdict, findings: "Checked.", flags: [] },
-    authorId: grace.id,
-    deviceId: "audit-desk",
-    recordedAt: new Date().toISOString(),
-    supersedes: null,
-    reason: null,
-  };
+  });
 }
 
 function signature(target: EntryInput, passwordHash: string | null, over: Record<string, unknown> = {}): EntryInput {
@@ -52,10 +43,8 @@ function signature(target: EntryInput, passwordHash: string | null, over: Record
         signingMessage({ signedEntryId: target.id, signedHash, meaning: "audited", signerId: grace.id }),
       )
     : undefined;
-  return {
-    id: randomUUID(),
+  return fromDesk({
     cryostatId: target.cryostatId,
-    runId: null,
     kind: "signature",
     payload: {
       signedEntryId: target.id,
@@ -66,34 +55,17 @@ function signature(target: EntryInput, passwordHash: string | null, over: Record
       ...(proof ? { confirmedBy: "password", confirmProof: proof } : {}),
       ...over,
     },
-    authorId: grace.id,
-    deviceId: "audit-desk",
-    recordedAt: new Date().toISOString(),
-    supersedes: null,
-    reason: null,
-  };
+  });
 }
 
 describe("audit queue", () => {
   it("queues the seeded transfers with their flags and takes a signed one out", async () => {
     const db = await freshDb({ seeded: true });
     // A one-person transfer (hand-made: the demo history's own may fall on a day without a transfer).
-    const tomasz = {
-      id: "u-tomasz",
-      email: "tomasz@larchmere.example",
-      name: "Tomasz Okafor",
-      role: "technician" as const,
-    };
-    const alone: EntryInput = {
-      id: randomUUID(),
+    const alone = entryInput({
       cryostatId: "plover",
-      runId: null,
       kind: "transfer",
-      authorId: tomasz.id,
       deviceId: "tab-9",
-      recordedAt: new Date().toISOString(),
-      supersedes: null,
-      reason: null,
       payload: {
         supplyDewar: "D-250-B",
         peoplePresent: ["u-tomasz"],
@@ -108,7 +80,7 @@ describe("audit queue", () => {
         durationMin: 35,
         anomalies: "",
       },
-    };
+    });
     expect((await appendEntries(db, tomasz, [alone])).rejected).toEqual([]);
     const queue = await auditQueue(db, { keys });
     const transfers = queue.filter((i) => i.entry.kind === "transfer");

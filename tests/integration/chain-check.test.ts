@@ -1,9 +1,3 @@
-// Chain check (R6) against a real database: rows changed, inserted, deleted, reordered or cut off
-// directly in SQL (with the append-only trigger disabled for the test) are named as the break; a
-// chain wholly recomputed after a change is caught by the server's signed checkpoints; checkpoints
-// signed with another key are not trusted.
-import { mkdtempSync } from "node:fs";
-import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { eq } from "drizzle-orm";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
@@ -16,18 +10,22 @@ import { verifyChain } from "@/lib/audit/chain";
 import type { CheckpointKeys } from "@/lib/audit/checkpoint";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
 import { fileCheckpointKeys, loadOrCreateKey, signCheckpoint } from "@/server/audit/keys";
+import { type TestDirs, testDirs } from "../support/dirs";
 import { freshDb } from "./fixture";
 
 let db: Db;
+let dirs: TestDirs;
 let keys: CheckpointKeys;
 
 beforeEach(async () => {
   db = await freshDb({ seeded: true });
-  keys = fileCheckpointKeys(mkdtempSync(join(tmpdir(), "rimelog-keys-")));
+  dirs = testDirs("rimelog-keys-");
+  keys = fileCheckpointKeys(dirs.keyDir);
   await db.$client.exec("ALTER TABLE entries DISABLE TRIGGER USER");
 });
 afterEach(async () => {
   await db.$client.close();
+  dirs.remove();
 });
 
 type Row = { id: string; seq: number; hash: string; prev_hash: string };
@@ -196,7 +194,7 @@ describe("chain check", () => {
 
   it("does not trust a checkpoint signed with another key", async () => {
     const rows = await wren();
-    const other = loadOrCreateKey(mkdtempSync(join(tmpdir(), "rimelog-other-")));
+    const other = loadOrCreateKey(join(dirs.root, "other-keys"));
     const forged = signCheckpoint(other, { chain: "wren", seq: rows.at(-1)!.seq, hash: "0".repeat(64) });
     await db.insert(chainCheckpoints).values({
       chain: "wren",

@@ -14,10 +14,19 @@ async function dumpOf(seed: boolean): Promise<File | Blob> {
   return dump;
 }
 
+/** The worker's one dump of each kind, made on first use. */
+function dumpFor(seeded: boolean): Promise<File | Blob> {
+  if (seeded) {
+    seededDump ??= dumpOf(true);
+    return seededDump;
+  }
+  emptyDump ??= dumpOf(false);
+  return emptyDump;
+}
+
 /** A fresh migrated database; `seeded` adds the demo lab (fixed clock: 2026-11-30 12:00 UTC). */
 export async function freshDb({ seeded = false } = {}): Promise<Db> {
-  const dump = seeded ? (seededDump ??= dumpOf(true)) : (emptyDump ??= dumpOf(false));
-  return openDb(undefined, await dump);
+  return openDb(undefined, await dumpFor(seeded));
 }
 
 export const DEMO_NOW = Date.parse("2026-11-30T12:00:00Z");

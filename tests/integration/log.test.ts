@@ -1,29 +1,10 @@
 // The append-only log on a real (in-memory) PGlite with the committed migrations.
-import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { appendEntries, chainEntries, pullEntries } from "@/db/queries/entries";
-import { DEMO_USERS } from "@/db/seed";
-import type { EntryInputOf, UncheckedEntry } from "@/lib/schemas/entry";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
+import { note } from "../support/entries";
+import { tomasz } from "../support/users";
 import { freshDb } from "./fixture";
-
-const tomasz = DEMO_USERS.find((u) => u.id === "u-tomasz")!;
-
-function note(text: string, over: Partial<Omit<UncheckedEntry, "kind" | "payload">> = {}): EntryInputOf<"note"> {
-  return {
-    id: randomUUID(),
-    cryostatId: "wren",
-    runId: null,
-    kind: "note",
-    payload: { text },
-    authorId: tomasz.id,
-    deviceId: "tab-1",
-    recordedAt: new Date().toISOString(),
-    supersedes: null,
-    reason: null,
-    ...over,
-  };
-}
 
 describe("append-only log", () => {
   it("seeds the demo lab with a valid hash chain per cryostat", async () => {

@@ -1,6 +1,5 @@
 // E-mail events: each event is queued once (the event key), whatever the number of pushes or ticks;
 // the fake transport renders the message with nodemailer and marks it sent.
-import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { appendEntries } from "@/db/queries/entries";
 import {
@@ -13,36 +12,13 @@ import {
 } from "@/db/queries/mail";
 import { mailOutbox } from "@/db/schema";
 import type { MailTransport } from "@/lib/mail/messages";
-import type { EntryInput } from "@/lib/schemas/entry";
 import { fakeTransport } from "@/server/mail/transport";
+import { entryBuilder } from "../support/entries";
+import { grace, tomasz } from "../support/users";
 import { DEMO_NOW, freshDb } from "./fixture";
 
-const tomasz = {
-  id: "u-tomasz",
-  email: "tomasz@larchmere.example",
-  name: "Tomasz Okafor",
-  role: "technician" as const,
-};
-const grace = {
-  id: "u-grace",
-  email: "grace@larchmere.example",
-  name: "Dr. Grace Oyelaran",
-  role: "safety_officer" as const,
-};
-
-function entry(over: Partial<EntryInput> & Pick<EntryInput, "kind" | "payload">, at = new Date()): EntryInput {
-  return {
-    id: randomUUID(),
-    cryostatId: "plover",
-    runId: null,
-    authorId: tomasz.id,
-    deviceId: "tab-1",
-    recordedAt: at.toISOString(),
-    supersedes: null,
-    reason: null,
-    ...over,
-  };
-}
+/** Tomasz's entries on Plover, written now unless the call says when. */
+const entry = entryBuilder({ cryostatId: "plover" });
 
 describe("mail outbox", () => {
   it("queues a message once per event key", async () => {
@@ -185,7 +161,13 @@ describe("mail outbox", () => {
     await enqueueMail(db, { eventKey: "e:1", to: ["a@larchmere.example"], subject: "One", body: "Body" });
     const sent: string[] = [];
     const real = fakeTransport();
-    const counting: MailTransport = { kind: "fake", send: async (m) => (sent.push(m.subject), real.send(m)) };
+    const counting: MailTransport = {
+      kind: "fake",
+      send: async (m) => {
+        sent.push(m.subject);
+        return real.send(m);
+      },
+    };
     expect(await deliverPending(db, counting)).toEqual({ sent: 1, failed: 0 });
     expect(await deliverPending(db, counting)).toEqual({ sent: 0, failed: 0 });
     expect(sent).toEqual(["One"]);

@@ -9,35 +9,21 @@ import { appendEntries, chainEntries } from "@/db/queries/entries";
 import { getRunRecord, listRuns } from "@/db/queries/runs";
 import { getTemplate, latestTemplates, saveTemplateVersion } from "@/db/queries/templates";
 import { users } from "@/db/schema";
-import { DEMO_USERS } from "@/db/seed";
 import { DEFAULT_TEMPLATES } from "@/db/seed-templates";
 import { deriveRun } from "@/lib/procedures/state";
-import type { EntryInput, EntryInputOf, EntryKind, Payload, UncheckedEntry } from "@/lib/schemas/entry";
+import type { EntryInput, Payload } from "@/lib/schemas/entry";
 import { templateInputSchema } from "@/lib/schemas/run";
+import type { SessionUser } from "@/lib/schemas/user";
 import { derivePinKey, formatPinRecord, hmacHex, signingMessage } from "@/lib/signing/proof";
 import { signatureEntry, signingSubject } from "@/lib/signing/sign";
+import { type Envelope, entryBuilder, ticking } from "../support/entries";
+import { ines, priya, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
-const tomasz = DEMO_USERS.find((u) => u.id === "u-tomasz")!;
-const priya = DEMO_USERS.find((u) => u.id === "u-priya")!;
-const ines = DEMO_USERS.find((u) => u.id === "u-ines")!;
-
-let clock = Date.parse("2026-12-01T08:00:00Z");
-type Envelope = Partial<Omit<UncheckedEntry, "kind" | "payload">>;
-function entry<K extends EntryKind>(over: Envelope & { kind: K; payload: Payload<K> }): EntryInputOf<K> {
-  clock += 60_000;
-  return {
-    id: randomUUID(),
-    cryostatId: "heron",
-    runId: null,
-    authorId: tomasz.id,
-    deviceId: "tab-1",
-    recordedAt: new Date(clock).toISOString(),
-    supersedes: null,
-    reason: null,
-    ...over,
-  };
-}
+/** One minute between entries, from 2026-12-01 08:00 UTC. */
+const clock = ticking("2026-12-01T08:00:00Z");
+/** Tomasz's entries on Heron. */
+const entry = entryBuilder({ cryostatId: "heron" }, clock);
 const step = (runId: string, payload: Payload<"run.step">, over: Envelope = {}) =>
   entry({ runId, kind: "run.step", payload, ...over });
 
@@ -54,7 +40,7 @@ async function cooldown(db: Db) {
   return { t, id, start };
 }
 
-async function pinSign(db: Db, target: EntryInput, signer: typeof tomasz) {
+async function pinSign(db: Db, target: EntryInput, signer: SessionUser) {
   const salt = randomBytes(16).toString("base64");
   const key = await derivePinKey("731904", salt, 1000);
   await db
@@ -62,7 +48,6 @@ async function pinSign(db: Db, target: EntryInput, signer: typeof tomasz) {
     .set({ pinHash: formatPinRecord(1000, salt, key) })
     .where(eq(users.id, signer.id));
   const subject = signingSubject(target, signer, "verified");
-  clock += 60_000;
   return signatureEntry({
     target,
     subject,
@@ -70,7 +55,7 @@ async function pinSign(db: Db, target: EntryInput, signer: typeof tomasz) {
     deviceId: target.deviceId,
     confirmedBy: "pin",
     proof: hmacHex(key, signingMessage(subject)),
-    recordedAt: new Date(clock).toISOString(),
+    recordedAt: clock().toISOString(),
   });
 }
 

@@ -5,15 +5,8 @@ import { describe, expect, it } from "vitest";
 import { appendEntries, chainEntries } from "@/db/queries/entries";
 import { changeRules, getRules } from "@/db/queries/rules";
 import { AppError } from "@/lib/errors";
+import { ines, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
-
-const ines = { id: "u-ines", email: "ines@larchmere.example", name: "Ines Vartanian", role: "facility_admin" as const };
-const tomasz = {
-  id: "u-tomasz",
-  email: "tomasz@larchmere.example",
-  name: "Tomasz Okafor",
-  role: "technician" as const,
-};
 
 describe("facility rules changes", () => {
   it("writes an audited rules.change entry with old and new values and puts the new version in force", async () => {

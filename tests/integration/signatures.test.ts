@@ -1,4 +1,4 @@
-// Signatures on the server (R3–R5): bound to the exact record by recordHash (RFC 8785 canonical
+// Signatures on the server: bound to the exact record by recordHash (RFC 8785 canonical
 // JSON, SHA-256), refused when the record changed after signing, refused for a role that may not
 // sign that meaning, and refused on procedure records without a checked PIN/password proof.
 import { createHash, randomBytes, randomUUID } from "node:crypto";
@@ -9,15 +9,8 @@ import type { Db } from "@/db/client";
 import { appendEntries } from "@/db/queries/entries";
 import { latestTemplates } from "@/db/queries/templates";
 import { users } from "@/db/schema";
-import { DEMO_USERS } from "@/db/seed";
-import type {
-  EntryInput,
-  EntryInputOf,
-  EntryKind,
-  Payload,
-  SignatureMeaning,
-  UncheckedEntry,
-} from "@/lib/schemas/entry";
+import type { EntryInput, SignatureMeaning, UncheckedEntry } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
 import {
   derivePinKey,
   formatPinRecord,
@@ -29,27 +22,12 @@ import {
 } from "@/lib/signing/proof";
 import { signatureEntry, signingSubject } from "@/lib/signing/sign";
 import { recordHash } from "@/lib/sync/hash";
+import { entryBuilder } from "../support/entries";
+import { grace, priya, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
-const tomasz = DEMO_USERS.find((u) => u.id === "u-tomasz")!;
-const priya = DEMO_USERS.find((u) => u.id === "u-priya")!;
-const grace = DEMO_USERS.find((u) => u.id === "u-grace")!;
-
-function entry<K extends EntryKind>(
-  over: Partial<Omit<UncheckedEntry, "kind" | "payload">> & { kind: K; payload: Payload<K> },
-): EntryInputOf<K> {
-  return {
-    id: randomUUID(),
-    cryostatId: "heron",
-    runId: null,
-    authorId: tomasz.id,
-    deviceId: "tab-1",
-    recordedAt: new Date().toISOString(),
-    supersedes: null,
-    reason: null,
-    ...over,
-  };
-}
+/** Tomasz's entries on Heron, written now. */
+const entry = entryBuilder({ cryostatId: "heron" });
 
 async function startRun(db: Db) {
   const t = (await latestTemplates(db)).find((x) => x.key === "cooldown-dry-dilution")!;
@@ -84,7 +62,7 @@ async function setPin(db: Db, userId: string, pin: string) {
 async function pinSignature(
   db: Db,
   target: EntryInput,
-  signer: typeof tomasz,
+  signer: SessionUser,
   meaning: SignatureMeaning,
   pin = "482916",
 ) {

@@ -2,23 +2,25 @@
 // same-origin only, served as a download; and the sync client uploads photos before entries.
 
 import { randomUUID } from "node:crypto";
-import { mkdtempSync, readdirSync, rmSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
-import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
+import { readdirSync } from "node:fs";
 import { afterAll, beforeEach, describe, expect, it, vi } from "vitest";
 import type { Db } from "@/db/client";
 import { AppError } from "@/lib/errors";
-import { RimelogDexie } from "@/lib/local/db";
-import { confirmSession, putAttachmentIn, recordEntriesIn } from "@/lib/local/store";
+import { putAttachmentIn, recordEntriesIn } from "@/lib/local/store";
 import type { SessionUser } from "@/lib/schemas/user";
-import { syncOnce, type Transport } from "@/lib/sync/client";
+import { syncOnce } from "@/lib/sync/client";
+import type { Transport } from "@/lib/sync/transport";
 import { sniffType } from "@/server/storage/objects";
+import { testDirs } from "../support/dirs";
+import { noteDraft } from "../support/entries";
+import { nothingNew, signedInTablet } from "../support/tablet";
+import { tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
-const dir = mkdtempSync(join(tmpdir(), "rimelog-files-"));
+const dirs = testDirs("rimelog-files-");
+const dir = dirs.storageDir;
 process.env.RIMELOG_STORAGE_DIR = dir;
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
+afterAll(() => dirs.remove());
 
 const state: { db?: Db; user: SessionUser | null } = { user: null };
 vi.mock("@/db", () => ({ getDb: async () => state.db }));
@@ -31,12 +33,6 @@ vi.mock("@/server/auth/require", () => ({
 const upload = (await import("@/app/api/attachments/route")).POST;
 const download = (await import("@/app/api/attachments/[id]/route")).GET;
 
-const tomasz: SessionUser = {
-  id: "u-tomasz",
-  email: "tomasz@larchmere.example",
-  name: "Tomasz Okafor",
-  role: "technician",
-};
 const JPEG = new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 0, 0x10, 0x4a, 0x46, 0x49, 0x46, 0, 1]);
 const ORIGIN = "http://localhost:3000";
 
@@ -97,10 +93,9 @@ describe("attachments", () => {
   });
 
   it("the sync client uploads a photo before pushing the entry that refers to it", async () => {
-    const tablet = new RimelogDexie("t-photo", { indexedDB: new IDBFactory(), IDBKeyRange });
-    await confirmSession(tablet, tomasz);
+    const tablet = await signedInTablet(tomasz, "t-photo");
     const photoId = await putAttachmentIn(tablet, new Blob([JPEG]), { fileName: "gauge.jpg", mime: "image/jpeg" });
-    await recordEntriesIn(tablet, [{ cryostatId: "wren", kind: "note", payload: { text: `photo ${photoId}` } }]);
+    await recordEntriesIn(tablet, [noteDraft(`photo ${photoId}`)]);
     const calls: string[] = [];
     const transport: Transport = {
       upload: async (a) => {
@@ -120,7 +115,7 @@ describe("attachments", () => {
           rejected: [],
         };
       },
-      pull: async () => ({ entries: [], cursor: 0, hasMore: false, reference: null, me: tomasz }),
+      pull: nothingNew(tomasz),
     };
     await syncOnce(tablet, transport);
     expect(calls).toEqual([`upload ${photoId}`, "push"]);

@@ -1,7 +1,7 @@
 // The tablet's push loop against the real server code: batches leave in order of writing while the
 // previous answer is still being written, a 413 halves the batch from the same place, another
 // person's queued rows in between are left alone, a failure half-way keeps every unanswered row
-// queued (S3), an answer kept as a receipt survives a crash before it reaches its entries, and rows
+// queued, an answer kept as a receipt survives a crash before it reaches its entries, and rows
 // queued by the schema-v2 app (no entry in the row) are still sent.
 import Dexie from "dexie";
 import { asc, eq } from "drizzle-orm";
@@ -10,27 +10,19 @@ import { beforeEach, describe, expect, it } from "vitest";
 import type { Db } from "@/db/client";
 import { toStoredRow } from "@/db/queries/stored";
 import { entries } from "@/db/schema";
-import { RimelogDexie, SCHEMA_VERSIONS } from "@/lib/local/db";
+import { SCHEMA_VERSIONS } from "@/lib/local/db";
 import { queryEntries, queryEntry } from "@/lib/local/queries";
 import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import type { EntryInput } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
-import { applyPushReply, syncOnce, type Transport, TransportError, toInput } from "@/lib/sync/client";
+import { syncOnce } from "@/lib/sync/client";
+import { applyPushReply, toInput } from "@/lib/sync/push";
+import { type Transport, TransportError } from "@/lib/sync/transport";
 import { applyPush, pullPage } from "@/server/sync/apply";
+import { localEntry, note, readingDraft } from "../support/entries";
+import { fakeTablet } from "../support/tablet";
+import { priya, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
-
-const tomasz: SessionUser = {
-  id: "u-tomasz",
-  email: "tomasz@larchmere.example",
-  name: "Tomasz Okafor",
-  role: "technician",
-};
-const priya: SessionUser = {
-  id: "u-priya",
-  email: "priya@larchmere.example",
-  name: "Priya Lindqvist",
-  role: "technician",
-};
 
 let db: Db;
 let factory: IDBFactory;
@@ -39,14 +31,17 @@ beforeEach(async () => {
   factory = new IDBFactory();
 });
 
-const tablet = (name = "t") => new RimelogDexie(name, { indexedDB: factory, IDBKeyRange });
+const tablet = (name = "t") => fakeTablet(name, factory);
 
 function readings(n: number, tag: string): EntryDraft[] {
-  return Array.from({ length: n }, (_, i) => ({
-    cryostatId: i % 2 ? "heron" : "wren",
-    kind: "reading",
-    payload: { quantity: "Temperature", stage: "still", value: 0.7 + i / 1000, unit: "K", comment: `${tag} ${i}` },
-  }));
+  return Array.from({ length: n }, (_, i) =>
+    readingDraft({
+      cryostatId: i % 2 ? "heron" : "wren",
+      stage: "still",
+      value: 0.7 + i / 1000,
+      comment: `${tag} ${i}`,
+    }),
+  );
 }
 
 /** The server, in process, for whoever `who()` says is signed in; records what was sent. */
@@ -121,7 +116,7 @@ describe("pushing a long outbox", () => {
     expect(result.accepted).toBe(36);
     expect(bodies.length).toBe(sent.length);
     expect(bodies.every((b) => b.ahead)).toBe(true);
-    bodies.forEach((b, i) => expect(b.ids).toEqual(sent[i]!.map((e) => e.id))); // never another batch's body
+    for (const [i, b] of bodies.entries()) expect(b.ids).toEqual(sent[i]!.map((e) => e.id)); // never another batch's body
     expect(sent.flat().map((e) => e.id)).toEqual(written);
     expect(await t.outbox.count()).toBe(0);
   });
@@ -212,21 +207,8 @@ describe("pushing a long outbox", () => {
     // The store as version 2 of the app left it: the entry in `entries`, a bare row in `outbox`.
     const old = new Dexie("upgrade", { indexedDB: factory, IDBKeyRange });
     for (const [version, stores] of SCHEMA_VERSIONS.filter(([v]) => v <= 2)) old.version(version).stores(stores);
-    const e: EntryInput = {
-      id: crypto.randomUUID(),
-      cryostatId: "wren",
-      runId: null,
-      kind: "note",
-      payload: { text: "written before the update" },
-      authorId: tomasz.id,
-      deviceId: "tab-old",
-      recordedAt: new Date().toISOString(),
-      supersedes: null,
-      reason: null,
-    };
-    await old
-      .table("entries")
-      .add({ ...e, sync: "pending", seq: null, hash: null, prevHash: null, receivedAt: null, rejection: null });
+    const e = note("written before the update", { deviceId: "tab-old" });
+    await old.table("entries").add(localEntry(e));
     await old.table("outbox").add({ entryId: e.id, authorId: tomasz.id, queuedAt: e.recordedAt, bytes: 300 });
     await old.table("meta").put({ key: "session", value: { user: tomasz, confirmedAt: new Date().toISOString() } });
     old.close();

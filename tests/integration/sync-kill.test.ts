@@ -1,50 +1,44 @@
-// S2: a server process killed (SIGKILL) in the middle of a large push leaves no half-applied
-// batch; after a restart the tablet's retry completes it and every entry is stored exactly once.
+// A pushed batch commits as a whole: a server process killed (SIGKILL) in the middle of a large
+// push leaves no half-applied batch; after a restart the tablet's retry completes it and every
+// entry is stored exactly once.
 import { spawn } from "node:child_process";
-import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { asc, eq, inArray } from "drizzle-orm";
-import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { afterAll, describe, expect, it } from "vitest";
 import { openDb } from "@/db/client";
 import { toStoredRow } from "@/db/queries/stored";
 import { entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
-import { RimelogDexie } from "@/lib/local/db";
-import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
-import type { SessionUser } from "@/lib/schemas/user";
-import { syncOnce, type Transport, toInput } from "@/lib/sync/client";
+import { type EntryDraft, recordEntriesIn } from "@/lib/local/store";
+import { syncOnce } from "@/lib/sync/client";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
 import { PUSH_LIMITS } from "@/lib/sync/protocol";
-import { applyPush, pullPage } from "@/server/sync/apply";
+import { toInput } from "@/lib/sync/push";
+import { applyPush } from "@/server/sync/apply";
+import { testDirs } from "../support/dirs";
+import { readingDraft } from "../support/entries";
+import { inProcessServer, signedInTablet } from "../support/tablet";
+import { tomasz } from "../support/users";
 
-const tomasz: SessionUser = {
-  id: "u-tomasz",
-  email: "tomasz@larchmere.example",
-  name: "Tomasz Okafor",
-  role: "technician",
-};
-const work = mkdtempSync(join(tmpdir(), "rimelog-kill-"));
-afterAll(() => rmSync(work, { recursive: true, force: true }));
+const dirs = testDirs("rimelog-kill-");
+const work = dirs.root;
+afterAll(() => dirs.remove());
 
 describe("killed in the middle of a push", () => {
   it("keeps no half-applied batch, and the retry stores every entry exactly once", async () => {
-    const dir = join(work, "db");
+    const dir = dirs.dataDir;
     const seeded = await openDb(dir);
     await seedIfEmpty(seeded);
     await seeded.$client.close();
 
     // The tablet: 4 large batches of readings waiting in its outbox.
-    const tablet = new RimelogDexie("kill-tablet", { indexedDB: new IDBFactory(), IDBKeyRange });
-    await confirmSession(tablet, tomasz);
+    const tablet = await signedInTablet(tomasz, "kill-tablet");
     const size = 250;
     for (let b = 0; b < 4; b++) {
-      const drafts: EntryDraft[] = Array.from({ length: size }, (_, i) => ({
-        cryostatId: b % 2 ? "heron" : "wren",
-        kind: "reading",
-        payload: { quantity: "Still", stage: "still", value: 0.8 + i / 1e4, unit: "K" },
-      }));
+      const drafts: EntryDraft[] = Array.from({ length: size }, (_, i) =>
+        readingDraft({ cryostatId: b % 2 ? "heron" : "wren", quantity: "Still", stage: "still", value: 0.8 + i / 1e4 }),
+      );
       await recordEntriesIn(tablet, drafts);
     }
     const all = (await tablet.outbox.toArray()).map((o) => o.entryId);
@@ -82,7 +76,11 @@ describe("killed in the middle of a push", () => {
         buf = parts.pop() ?? "";
         for (const l of parts) {
           lines.push(l);
-          if (l === "applying 2") setTimeout(() => (child.kill("SIGKILL"), resolve()), 40);
+          if (l === "applying 2")
+            setTimeout(() => {
+              child.kill("SIGKILL");
+              resolve();
+            }, 40);
         }
       });
       child.on("exit", () => resolve());
@@ -116,11 +114,7 @@ describe("killed in the middle of a push", () => {
 
     // The tablet never heard back, so everything is still in its outbox; it retries after the restart.
     expect(await tablet.outbox.count()).toBe(4 * size);
-    const transport: Transport = {
-      push: async (l) =>
-        JSON.parse(JSON.stringify(await applyPush(db, tomasz, JSON.parse(JSON.stringify({ entries: l }))))),
-      pull: async (since) => ({ ...(await pullPage(db, tomasz, { since })), reference: null, me: tomasz }),
-    };
+    const { transport } = inProcessServer(() => db, tomasz);
     await syncOnce(tablet, transport, { maxBatch: size, maxBytes: PUSH_LIMITS.maxBytes });
     expect(await tablet.outbox.count()).toBe(0);
     expect(await tablet.entries.where("sync").notEqual("synced").count()).toBe(0);

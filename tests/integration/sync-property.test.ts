@@ -1,33 +1,34 @@
-// Seeded random simulation of several tablets against the real server code (S1, S3, S5):
-// offline writes, pushes that are lost before or after the server applied them, delivered twice
-// or late, pulls that fail, tablet reloads, and (second property) server restarts on a data dir.
+// Seeded random simulation of several tablets against the real server code: retried, duplicated
+// and reordered pushes must end as one clean push would, and an outbox row may leave only once
+// answered. It throws at them offline writes, pushes that are lost before or after the server
+// applied them, delivered twice or late, pulls that fail, tablet reloads, and (second property)
+// server restarts on a data dir.
 // Afterwards every tablet and the server hold exactly the same entries, none lost, none
-// duplicated, each tablet's entries in the order it wrote them, and the hash chains are valid.
+// duplicated, each tablet's entries in the order it wrote them, every outbox empty, every pull
+// cursor at the server's last entry, and the hash chains are valid.
 // The tablets run the real store (lib/local, on fake-indexeddb) and sync client (lib/sync).
-import { mkdtempSync, rmSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
 import { and, asc, eq, gt, sql } from "drizzle-orm";
-import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
+import { IDBFactory } from "fake-indexeddb";
 import fc from "fast-check";
 import { afterAll, describe, expect, it } from "vitest";
 import { type Db, openDb } from "@/db/client";
 import { toStoredRow } from "@/db/queries/stored";
 import { chainHeads, entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
-import { RimelogDexie } from "@/lib/local/db";
+import type { RimelogDexie } from "@/lib/local/db";
 import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import type { SessionUser } from "@/lib/schemas/user";
-import { syncOnce, type Transport, TransportError } from "@/lib/sync/client";
+import { syncOnce } from "@/lib/sync/client";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
+import { type Transport, TransportError } from "@/lib/sync/transport";
 import { applyPush, pullPage } from "@/server/sync/apply";
+import { type TestDirs, testDirs } from "../support/dirs";
+import { noteDraft, readingDraft } from "../support/entries";
+import { fakeTablet, wire } from "../support/tablet";
+import { mateo, priya, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
-const USERS: SessionUser[] = [
-  { id: "u-tomasz", email: "tomasz@larchmere.example", name: "Tomasz Okafor", role: "technician" },
-  { id: "u-priya", email: "priya@larchmere.example", name: "Priya Lindqvist", role: "technician" },
-  { id: "u-mateo", email: "mateo@larchmere.example", name: "Mateo Brandt", role: "researcher" },
-];
+const USERS: SessionUser[] = [tomasz, priya, mateo];
 const CRYOSTATS = ["heron", "plover", "wren"] as const;
 
 type Fault = "ok" | "lose-request" | "lose-reply" | "duplicate" | "delay";
@@ -43,7 +44,6 @@ type Device = {
 };
 
 const offline = () => new TransportError("offline", "simulated network loss");
-const wire = <T>(x: T): T => JSON.parse(JSON.stringify(x)) as T; // what crosses HTTP
 
 function transportFor(server: Server, d: Device, healthy: () => boolean): Transport {
   const nextFault = (): Fault => (healthy() ? "ok" : (d.faults[d.f++ % d.faults.length] ?? "ok"));
@@ -100,8 +100,8 @@ const cmdArb = (devices: number, restarts: boolean) =>
 
 function draft(kind: "note" | "reading", cryostatId: string, i: number): EntryDraft {
   return kind === "note"
-    ? { cryostatId, kind: "note", payload: { text: `note ${i}` } }
-    : { cryostatId, kind: "reading", payload: { quantity: "4 K plate", stage: "4k", value: 3 + i / 100, unit: "K" } };
+    ? noteDraft(`note ${i}`, cryostatId)
+    : readingDraft({ cryostatId, quantity: "4 K plate", stage: "4k", value: 3 + i / 100 });
 }
 
 async function simulate(server: Server, plan: { faults: Fault[][]; cmds: Cmd[] }, restart?: () => Promise<void>) {
@@ -117,7 +117,7 @@ async function simulate(server: Server, plan: { faults: Fault[][]; cmds: Cmd[] }
     const d: Device = {
       name,
       factory,
-      store: new RimelogDexie(name, { indexedDB: factory, IDBKeyRange }),
+      store: fakeTablet(name, factory),
       user: USERS[i % USERS.length]!,
       faults,
       f: 0,
@@ -149,7 +149,7 @@ async function simulate(server: Server, plan: { faults: Fault[][]; cmds: Cmd[] }
     else if (c.t === "reload") {
       const d = devices[c.dev]!;
       d.store.close();
-      d.store = new RimelogDexie(d.name, { indexedDB: d.factory, IDBKeyRange });
+      d.store = fakeTablet(d.name, d.factory);
       transports[c.dev] = transportFor(server, d, () => healthy);
     } else if (c.t === "late") {
       const l = server.late.shift();
@@ -236,17 +236,19 @@ describe("sync under lost, duplicated and late pushes, reloads and restarts", ()
     await server.db.$client.close();
   }, 120_000);
 
-  const dirs: string[] = [];
-  afterAll(() => dirs.forEach((d) => rmSync(d, { recursive: true, force: true })));
+  const dirs: TestDirs[] = [];
+  afterAll(() => {
+    for (const d of dirs) d.remove();
+  });
 
   it("converges across server restarts (PGlite re-opened on the same data dir)", async () => {
-    const dir = mkdtempSync(join(tmpdir(), "rimelog-prop-"));
+    const dir = testDirs("rimelog-prop-");
     dirs.push(dir);
-    const server: Server = { db: await openDb(join(dir, "db")), late: [] };
+    const server: Server = { db: await openDb(dir.dataDir), late: [] };
     await seedIfEmpty(server.db);
     const restart = async () => {
       await server.db.$client.close();
-      server.db = await openDb(join(dir, "db"));
+      server.db = await openDb(dir.dataDir);
     };
     await fc.assert(
       fc.asyncProperty(planArb(true), async (plan) => {

@@ -2,16 +2,18 @@
 // wrong-type, cross-origin, signed-out and wrong-role pushes get a clear 4xx or a per-entry
 // refusal, nothing is written for them, and the tablet keeps its entries.
 import { randomUUID } from "node:crypto";
-import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import type { Db } from "@/db/client";
 import { entries } from "@/db/schema";
 import { AppError } from "@/lib/errors";
-import { RimelogDexie } from "@/lib/local/db";
-import { confirmSession, recordEntriesIn } from "@/lib/local/store";
+import { recordEntriesIn } from "@/lib/local/store";
 import type { SessionUser } from "@/lib/schemas/user";
-import { syncOnce, type Transport, TransportError } from "@/lib/sync/client";
+import { syncOnce } from "@/lib/sync/client";
 import { PUSH_LIMITS, type PullReply, type PushReply } from "@/lib/sync/protocol";
+import { type Transport, TransportError } from "@/lib/sync/transport";
+import { note, noteDraft } from "../support/entries";
+import { nothingNew, signedInTablet } from "../support/tablet";
+import { grace, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
 const state: { db?: Db; user: SessionUser | null } = { user: null };
@@ -27,35 +29,8 @@ vi.mock("@/server/auth/require", () => ({
 const { POST } = await import("@/app/api/sync/push/route");
 const { GET } = await import("@/app/api/sync/pull/route");
 
-const tomasz: SessionUser = {
-  id: "u-tomasz",
-  email: "tomasz@larchmere.example",
-  name: "Tomasz Okafor",
-  role: "technician",
-};
-const grace: SessionUser = {
-  id: "u-grace",
-  email: "grace@larchmere.example",
-  name: "Grace Oyelaran",
-  role: "safety_officer",
-};
 const ORIGIN = "http://localhost:3000";
 
-function note(text: string, over: Record<string, unknown> = {}) {
-  return {
-    id: randomUUID(),
-    cryostatId: "wren",
-    runId: null,
-    kind: "note",
-    payload: { text },
-    authorId: "u-tomasz",
-    deviceId: "tab-t",
-    recordedAt: new Date().toISOString(),
-    supersedes: null,
-    reason: null,
-    ...over,
-  };
-}
 function push(body: string, headers: Record<string, string> = {}) {
   return POST(
     new Request(`${ORIGIN}/api/sync/push`, {
@@ -179,21 +154,20 @@ describe("GET /api/sync/pull", () => {
 
 describe("the tablet after a refused push", () => {
   it("keeps its entries queued on a whole-batch 4xx, and marks (not drops) per-entry refusals", async () => {
-    const tablet = new RimelogDexie("t-refused", { indexedDB: new IDBFactory(), IDBKeyRange });
-    await confirmSession(tablet, tomasz);
-    await recordEntriesIn(tablet, [{ cryostatId: "wren", kind: "note", payload: { text: "kept" } }]);
+    const tablet = await signedInTablet(tomasz, "t-refused");
+    await recordEntriesIn(tablet, [noteDraft("kept")]);
     const refusing: Transport = {
       push: async () => {
         throw new TransportError("too_large", "too large", 413);
       },
-      pull: async () => ({ entries: [], cursor: 0, hasMore: false, reference: null, me: tomasz }),
+      pull: nothingNew(tomasz),
     };
     // A single entry the server will not take at any size is kept, marked refused, with the reason.
     await syncOnce(tablet, refusing);
     expect(await tablet.entries.count()).toBe(1);
     expect((await tablet.entries.toArray())[0]?.sync).toBe("rejected");
 
-    await recordEntriesIn(tablet, [{ cryostatId: "wren", kind: "note", payload: { text: "kept too" } }]);
+    await recordEntriesIn(tablet, [noteDraft("kept too")]);
     const down: Transport = {
       ...refusing,
       push: async () => Promise.reject(new TransportError("bad_request", "bad", 400)),

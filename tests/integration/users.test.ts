@@ -2,10 +2,8 @@
 import { describe, expect, it } from "vitest";
 import { chainEntries } from "@/db/queries/entries";
 import { changeUserAccess, getUser } from "@/db/queries/users";
-import { DEMO_USERS } from "@/db/seed";
+import { ines } from "../support/users";
 import { freshDb } from "./fixture";
-
-const ines = DEMO_USERS.find((u) => u.id === "u-ines")!;
 
 describe("changeUserAccess", () => {
   it("changes the role, ends sessions and writes a user.change entry", async () => {

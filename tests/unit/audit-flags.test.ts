@@ -1,7 +1,7 @@
 // Every audit flag on hand-made records, on both sides of its threshold. Thresholds come from the
 // facility rules (the demo lab's values, db/seed.ts DEMO_RULES: alarm 19.5 %, two-person rule on,
 // Plover minimum 25 %). The efficiency band 40–95 % is common practice (transfer losses of 20–40 %
-// are usual, shared/SCENARIO.md), overridable by the facility.
+// are usual), overridable by the facility.
 import { describe, expect, it } from "vitest";
 import { DEMO_RULES } from "@/db/seed";
 import {

@@ -64,8 +64,7 @@ function pdfText(bytes: Uint8Array): string {
   const s = Buffer.from(bytes).toString("latin1");
   const out: string[] = [];
   const re = /stream\r?\n/g;
-  let m: RegExpExecArray | null;
-  while ((m = re.exec(s))) {
+  for (let m = re.exec(s); m !== null; m = re.exec(s)) {
     const start = m.index + m[0].length;
     const end = s.indexOf("endstream", start);
     try {

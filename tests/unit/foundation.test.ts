@@ -1,16 +1,30 @@
 // Foundation pieces: the data-dir lock, sign-in throttling, the CSRF/body checks of route
-// handlers, canonical JSON and entry validation.
+// handlers, the route wrapper (access, input, errors on the wire), download headers, canonical
+// JSON and entry validation.
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
+import { z } from "zod";
 import { DataDirLockedError, lockDataDir } from "@/db/lock";
 import { mayRead, maySign, mayWrite } from "@/lib/auth/permissions";
-import type { AppError } from "@/lib/errors";
+import { AppError } from "@/lib/errors";
 import { parseEntry } from "@/lib/schemas/entry";
 import { canonicalJson, recordHash } from "@/lib/sync/hash";
 import { throttleDelayMs } from "@/server/auth/credentials";
+import { contentDisposition, downloadResponse } from "@/server/http/download";
 import { readJson } from "@/server/http/respond";
+import { route } from "@/server/http/route";
+
+const who = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string; role: string } }));
+vi.mock("@/db", () => ({ getDb: async () => ({ fake: "db" }) }));
+vi.mock("@/server/auth/require", () => ({
+  requireUser: async (...roles: string[]) => {
+    if (!who.user) throw new AppError("unauthorized", "session", "Sign in first.");
+    if (roles.length && !roles.includes(who.user.role)) throw new AppError("forbidden", "role", "Not this role.");
+    return who.user;
+  },
+}));
 
 describe("data directory lock", () => {
   it("refuses a second holder while the first is alive, and frees on release", () => {
@@ -71,6 +85,118 @@ describe("readJson (state-changing requests)", () => {
       "413 too_large:request",
     );
     expect(await codes(req("{nope", { "content-type": "application/json" }))).toBe("400 bad_request:request");
+  });
+});
+
+describe("the route wrapper", () => {
+  const tech = { id: "u-t", email: "t@x.example", name: "T", role: "technician" };
+  const post = (body: string, headers: Record<string, string> = {}) =>
+    req(body, { "content-type": "application/json", origin: "http://localhost:3000", ...headers });
+  const errorOf = async (res: Response) =>
+    ((await res.json()) as { error: { code: string; message: string; details: string[]; fields: unknown[] } }).error;
+
+  const handler = route(
+    {
+      access: ["technician", "facility_admin"],
+      surface: "transfer",
+      params: z.object({ id: z.string().min(3) }),
+      body: z.object({ payload: z.object({ supplyDewar: z.string(), litres: z.number().max(500) }) }),
+      maxBytes: 200,
+    },
+    async ({ user, params, body, db }) => Response.json({ who: user.id, id: params.id, body, db }),
+  );
+  const ctx = { params: Promise.resolve({ id: "wren" }) };
+
+  it("carries its declared access as data", () => {
+    expect(handler.access).toEqual(["technician", "facility_admin"]);
+    expect(Object.isFrozen(handler.access)).toBe(true);
+  });
+
+  it("answers 401 signed out and 403 for a role not declared, before reading the body", async () => {
+    who.user = null;
+    expect((await handler(post("{nope"), ctx)).status).toBe(401);
+    who.user = { ...tech, role: "researcher" };
+    expect((await handler(post("{nope"), ctx)).status).toBe(403);
+  });
+
+  it("hands the handler the user, the parsed params and body and the database", async () => {
+    who.user = tech;
+    const body = { payload: { supplyDewar: "D-7", litres: 60 } };
+    const res = await handler(post(JSON.stringify(body)), ctx);
+    expect(res.status).toBe(200);
+    expect(await res.json()).toEqual({ who: "u-t", id: "wren", body, db: { fake: "db" } });
+  });
+
+  it("answers a refused body with 400, each field's problem in plain words, and keeps details", async () => {
+    who.user = tech;
+    const error = await errorOf(await handler(post(JSON.stringify({ payload: { litres: 900 } })), ctx));
+    expect(error.code).toBe("bad_request:transfer");
+    expect(error.message).toBe("Check the highlighted fields.");
+    expect(error.fields).toEqual([
+      { path: "payload.supplyDewar", message: "Fill this in." },
+      { path: "payload.litres", message: "Must be at most 500." },
+    ]);
+    expect(error.details).toEqual(["payload.supplyDewar: Fill this in.", "payload.litres: Must be at most 500."]);
+    const params = await errorOf(await handler(post("{}"), { params: Promise.resolve({ id: "x" }) }));
+    expect(params.fields).toEqual([{ path: "id", message: "Use at least 3 characters." }]);
+  });
+
+  it("keeps readJson's rules for state changes: JSON type, same origin, size bound", async () => {
+    who.user = tech;
+    expect((await handler(post("{}", { "content-type": "text/plain" }), ctx)).status).toBe(415);
+    expect((await handler(post("{}", { origin: "http://evil.example" }), ctx)).status).toBe(403);
+    expect((await handler(post(JSON.stringify({ x: "y".repeat(300) })), ctx)).status).toBe(413);
+  });
+
+  it("maps a thrown AppError to its status, a zod failure to 400, anything else to 500 without internals", async () => {
+    who.user = tech;
+    const throwing = (e: unknown) =>
+      route({ access: "signed-in", surface: "x" }, async () => {
+        throw e;
+      })(new Request("http://localhost:3000/api/x"));
+    const conflict = await throwing(new AppError("conflict", "x", "Taken."));
+    expect([conflict.status, (await errorOf(conflict)).code]).toEqual([409, "conflict:x"]);
+    const zod = await throwing(z.object({ a: z.string() }).safeParse({}).error);
+    expect(zod.status).toBe(400);
+    expect((await errorOf(zod)).fields).toEqual([{ path: "a", message: expect.any(String) }]);
+    const oops = await throwing(new Error("relation users: secret detail"));
+    expect(oops.status).toBe(500);
+    expect(await oops.text()).not.toMatch(/secret|relation/);
+  });
+
+  it("lets anyone call a public route without looking at the session", async () => {
+    who.user = null;
+    const open = route({ access: "public", surface: "health" }, async ({ user }) => Response.json({ user }));
+    expect(open.access).toBe("public");
+    expect(await (await open(new Request("http://localhost:3000/api/health"))).json()).toEqual({ user: null });
+  });
+});
+
+describe("download headers", () => {
+  it("sends a plain ASCII file name and the real one per RFC 5987 (RFC 6266 section 4.3)", () => {
+    // RFC 6266 section 5 shows the same pair: filename="EURO rates"; filename*=utf-8''%e2%82%ac%20rates.
+    expect(contentDisposition("Règles (B014).pdf")).toBe(
+      "attachment; filename=\"R_gles (B014).pdf\"; filename*=UTF-8''R%C3%A8gles%20%28B014%29.pdf",
+    );
+    expect(contentDisposition('a"b\\c%41.txt')).toBe(
+      "attachment; filename=\"a_b_c_41.txt\"; filename*=UTF-8''a%22b%5Cc%2541.txt",
+    );
+    expect(contentDisposition("")).toBe("attachment; filename=\"download\"; filename*=UTF-8''download");
+  });
+
+  it("never caches, never sniffs, sandboxes stored files and gives the length of bytes", async () => {
+    const file = downloadResponse(new Uint8Array([1, 2, 3]), { type: "image/png", fileName: "g.png", sandbox: true });
+    expect(Object.fromEntries(file.headers)).toEqual({
+      "cache-control": "no-store",
+      "content-disposition": "attachment; filename=\"g.png\"; filename*=UTF-8''g.png",
+      "content-length": "3",
+      "content-security-policy": "sandbox; default-src 'none'",
+      "content-type": "image/png",
+      "x-content-type-options": "nosniff",
+    });
+    const csv = downloadResponse("a,b\r\n", { type: "text/csv; charset=utf-8", fileName: "t.csv" });
+    expect(csv.headers.get("content-security-policy")).toBeNull();
+    expect(await csv.text()).toBe("a,b\r\n");
   });
 });
 

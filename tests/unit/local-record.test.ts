@@ -1,8 +1,6 @@
 // The tablet store's write path on fake-indexeddb: one transaction for entry + outbox row,
 // validation and session checks before anything is written, photos kept as blobs.
-import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { describe, expect, it } from "vitest";
-import { RimelogDexie } from "@/lib/local/db";
 import { queryEntries, syncSummary } from "@/lib/local/queries";
 import {
   confirmSession,
@@ -12,17 +10,9 @@ import {
   putAttachmentIn,
   recordEntriesIn,
 } from "@/lib/local/store";
-
-const tomasz = {
-  id: "u-tomasz",
-  email: "tomasz@larchmere.example",
-  name: "Tomasz Okafor",
-  role: "technician" as const,
-};
-
-function tablet(): RimelogDexie {
-  return new RimelogDexie(`t-${crypto.randomUUID()}`, { indexedDB: new IDBFactory(), IDBKeyRange });
-}
+import { entryInput, localEntry, noteDraft } from "../support/entries";
+import { fakeTablet as tablet } from "../support/tablet";
+import { grace, priya, tomasz } from "../support/users";
 
 describe("tablet store: recording", () => {
   it("writes the entry and its outbox row together, stamped with author, device and time", async () => {
@@ -45,7 +35,7 @@ describe("tablet store: recording", () => {
     const db = tablet();
     await confirmSession(db, tomasz);
     const bad = recordEntriesIn(db, [
-      { cryostatId: "wren", kind: "note", payload: { text: "fine" } },
+      noteDraft("fine"),
       { cryostatId: "wren", kind: "helium.level", payload: { percent: 140 } },
     ]);
     await expect(bad).rejects.toBeInstanceOf(LocalWriteError);
@@ -56,13 +46,9 @@ describe("tablet store: recording", () => {
 
   it("refuses to record without a session, after the offline bound, or for a kind the role may not write", async () => {
     const db = tablet();
-    await expect(
-      recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "x" } }]),
-    ).rejects.toMatchObject({ code: "no_session" });
+    await expect(recordEntriesIn(db, [noteDraft("x")])).rejects.toMatchObject({ code: "no_session" });
     await confirmSession(db, tomasz, new Date(Date.now() - OFFLINE_SESSION_MS - 60_000));
-    await expect(
-      recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "x" } }]),
-    ).rejects.toMatchObject({ code: "session_expired" });
+    await expect(recordEntriesIn(db, [noteDraft("x")])).rejects.toMatchObject({ code: "session_expired" });
     await confirmSession(db, tomasz);
     await expect(
       recordEntriesIn(db, [
@@ -79,25 +65,14 @@ describe("tablet store: recording", () => {
   it("stamps each write for whoever is signed in now, even right after someone else wrote", async () => {
     // A write goes out prepared for the previous writer and is checked inside its transaction.
     const db = tablet();
-    const note = (text: string) => [{ cryostatId: "wren", kind: "note", payload: { text } }] as EntryDraft[];
+    const note = (text: string) => [noteDraft(text)];
     await confirmSession(db, tomasz);
     const [a] = await recordEntriesIn(db, note("tomasz"));
-    const priya = {
-      id: "u-priya",
-      email: "priya@larchmere.example",
-      name: "Priya Lindqvist",
-      role: "technician",
-    } as const;
     await confirmSession(db, priya);
     const [b] = await recordEntriesIn(db, note("priya"));
     expect([a!.authorId, b!.authorId]).toEqual(["u-tomasz", "u-priya"]);
     // The safety officer signs in on the same tablet: a magnet setting, Priya's to record, is not hers.
-    await confirmSession(db, {
-      id: "u-grace",
-      email: "grace@larchmere.example",
-      name: "Dr. Grace Oyelaran",
-      role: "safety_officer",
-    });
+    await confirmSession(db, grace);
     const field = [
       { cryostatId: "wren", kind: "field.setting", payload: { currentA: 10, fieldT: 1, persistent: false } },
     ] as EntryDraft[];
@@ -136,26 +111,23 @@ describe("tablet store: reading a cryostat's newest entries", () => {
   it("gives unsent entries first, then synced ones by server order, without the rest of the log", async () => {
     const db = tablet();
     await confirmSession(db, tomasz);
-    const synced = Array.from({ length: 30 }, (_, i) => ({
-      id: crypto.randomUUID(),
-      cryostatId: i % 2 ? "wren" : "heron",
-      runId: null,
-      kind: "note" as const,
-      payload: { text: `s${i}` },
-      authorId: "u-priya",
-      deviceId: "tab-p",
-      recordedAt: new Date(Date.UTC(2026, 10, 1, 0, i)).toISOString(),
-      supersedes: null,
-      reason: null,
-      sync: "synced" as const,
-      seq: 100 + i,
-      hash: "h",
-      prevHash: "p",
-      receivedAt: new Date().toISOString(),
-      rejection: null,
-    }));
+    const synced = Array.from({ length: 30 }, (_, i) =>
+      localEntry(
+        entryInput(
+          {
+            cryostatId: i % 2 ? "wren" : "heron",
+            kind: "note",
+            payload: { text: `s${i}` },
+            authorId: priya.id,
+            deviceId: "tab-p",
+          },
+          new Date(Date.UTC(2026, 10, 1, 0, i)),
+        ),
+        { seq: 100 + i, hash: "h", prevHash: "p", receivedAt: new Date().toISOString() },
+      ),
+    );
     await db.entries.bulkPut(synced);
-    const [mine] = await recordEntriesIn(db, [{ cryostatId: "wren", kind: "note", payload: { text: "unsent" } }]);
+    const [mine] = await recordEntriesIn(db, [noteDraft("unsent")]);
     const got = await queryEntries(db, { cryostatId: "wren", limit: 4 });
     expect(got.map((e) => e.id)).toEqual([mine!.id, synced[29]!.id, synced[27]!.id, synced[25]!.id]);
     const all = await queryEntries(db, { cryostatId: "wren" });

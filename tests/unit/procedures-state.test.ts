@@ -13,6 +13,7 @@ import {
   readingOutOfRange,
 } from "@/lib/procedures/state";
 import { recordHash } from "@/lib/sync/hash";
+import { type EntryFields, entryBuilder, ticking } from "../support/entries";
 
 const cooldown = DEFAULT_TEMPLATES.find((t) => t.key === "cooldown-dry-dilution")!;
 const template: PinnedTemplate = {
@@ -23,23 +24,11 @@ const template: PinnedTemplate = {
   steps: cooldown.steps,
 };
 
-let clock = Date.parse("2026-12-01T08:00:00Z");
+/** Tomasz's entries on Heron, one minute apart from 2026-12-01 08:00 UTC. */
+const entry = entryBuilder({ cryostatId: "heron" }, ticking("2026-12-01T08:00:00Z"));
 /** A fixture entry: only the payload fields a check reads (not a full entry the schema would pass). */
-function e(kind: string, payload: Record<string, unknown>, over: Partial<Omit<RunEntry, "kind" | "payload">> = {}) {
-  clock += 60_000;
-  return {
-    id: randomUUID(),
-    cryostatId: "heron",
-    runId: null,
-    kind,
-    payload,
-    authorId: "u-tomasz",
-    deviceId: "tab-1",
-    recordedAt: new Date(clock).toISOString(),
-    supersedes: null,
-    reason: null,
-    ...over,
-  } as RunEntry;
+function e(kind: string, payload: Record<string, unknown>, over: Partial<RunEntry> = {}): RunEntry {
+  return entry({ kind, payload, ...over } as EntryFields) as RunEntry;
 }
 function run() {
   const start = e("run.start", {

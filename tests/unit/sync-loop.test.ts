@@ -1,18 +1,10 @@
 // The sync loop's timing: a round asked for while one runs follows it, at once when the network
 // came back (a kick), after the debounce when it was a local write.
-import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { describe, expect, it } from "vitest";
-import { RimelogDexie } from "@/lib/local/db";
-import { confirmSession } from "@/lib/local/store";
-import type { Transport } from "@/lib/sync/client";
 import { SyncLoop } from "@/lib/sync/loop";
-
-const tomasz = {
-  id: "u-tomasz",
-  email: "tomasz@larchmere.example",
-  name: "Tomasz Okafor",
-  role: "technician" as const,
-};
+import type { Transport } from "@/lib/sync/transport";
+import { nothingNew, signedInTablet } from "../support/tablet";
+import { tomasz } from "../support/users";
 
 /** A transport whose pulls are counted (one a round here: nothing is queued) and may be held. */
 function countingTransport() {
@@ -23,7 +15,7 @@ function countingTransport() {
     async pull(since) {
       state.pulls += 1;
       if (state.hold) await new Promise<void>((r) => (release = r));
-      return { entries: [], cursor: since, hasMore: false, reference: null, me: tomasz };
+      return nothingNew(tomasz)(since, null);
     },
   };
   return { transport, state, release: () => release() };
@@ -38,8 +30,7 @@ const until = async (cond: () => boolean, ms: number) => {
 };
 
 async function loopWithRoundRunning(debounceMs: number) {
-  const db = new RimelogDexie(`t-${crypto.randomUUID()}`, { indexedDB: new IDBFactory(), IDBKeyRange });
-  await confirmSession(db, tomasz);
+  const db = await signedInTablet(tomasz);
   const t = countingTransport();
   const loop = new SyncLoop(db, t.transport, { debounceMs, intervalMs: 60_000 });
   loop.request(0);

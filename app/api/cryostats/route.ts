@@ -1,13 +1,10 @@
-import { getDb } from "@/db";
+// The room overview: every cryostat with its state and latest figures.
 import { roomOverview } from "@/db/queries/cryostats";
-import { requireUser } from "@/server/auth/require";
-import { handle, json } from "@/server/http/respond";
+import { json } from "@/server/http/respond";
+import { route } from "@/server/http/route";
 
 export const dynamic = "force-dynamic";
 
-export async function GET() {
-  return handle(async () => {
-    await requireUser();
-    return json({ cryostats: await roomOverview(await getDb()) });
-  });
-}
+export const GET = route({ access: "signed-in", surface: "cryostat" }, async ({ db }) =>
+  json({ cryostats: await roomOverview(db) }),
+);

@@ -1,12 +1,7 @@
-import { getDb } from "@/db";
-import { handle, json } from "@/server/http/respond";
+// Readiness, public: 200 once the database is open, migrated and seeded (the wrapper opens it).
+import { json } from "@/server/http/respond";
+import { route } from "@/server/http/route";
 
 export const dynamic = "force-dynamic";
 
-/** Readiness: 200 once the database is open, migrated and seeded. */
-export async function GET() {
-  return handle(async () => {
-    await getDb();
-    return json({ ok: true });
-  });
-}
+export const GET = route({ access: "public", surface: "health" }, async () => json({ ok: true }));

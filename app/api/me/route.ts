@@ -1,8 +1,7 @@
-import { requireUser } from "@/server/auth/require";
-import { handle, json } from "@/server/http/respond";
+// Who is signed in (the tablet learns the user from this, never from a page's HTML).
+import { json } from "@/server/http/respond";
+import { route } from "@/server/http/route";
 
 export const dynamic = "force-dynamic";
 
-export async function GET() {
-  return handle(async () => json({ user: await requireUser() }));
-}
+export const GET = route({ access: "signed-in", surface: "session" }, async ({ user }) => json({ user }));

@@ -27,8 +27,9 @@ export function assertChromiumInstalled(): string {
 }
 
 /**
- * Flags known to work here (shared/STACK.md "Browser tests"): no sandbox as root, no GPU, and no
- * background networking, which on a closed network would only produce refused connections.
+ * Flags known to work with Debian's Chromium in a container (DEVELOPERS.md, Tests): no sandbox as
+ * root, no GPU, and no background networking, which on a closed network would only produce refused
+ * connections.
  */
 export const CHROMIUM_ARGS = [
   "--headless",

@@ -1,7 +1,10 @@
-// The demo lab's accounts as the app seeds them (see shared/SCENARIO.md); one password for all.
-export const DEMO_PASSWORD = "cold-hall-demo";
+// The demo lab's accounts as the browser tests sign in with them: the people of
+// tests/support/users.ts (the accounts db/seed.ts seeds), one password for all, and a pattern
+// for each display name.
+import type { Role } from "@/lib/schemas/user";
+import { DEMO_PASSWORD, grace, ines, mateo, priya, tomasz, yuki } from "../../support/users";
 
-export type Role = "facility_admin" | "technician" | "researcher" | "safety_officer";
+export { DEMO_PASSWORD };
 
 export interface DemoUser {
   email: string;
@@ -11,12 +14,12 @@ export interface DemoUser {
 }
 
 export const DEMO_USERS = {
-  ines: { email: "ines@larchmere.example", role: "facility_admin", nameMatch: /Ines Vartanian/ },
-  tomasz: { email: "tomasz@larchmere.example", role: "technician", nameMatch: /Tomasz Okafor/ },
-  priya: { email: "priya@larchmere.example", role: "technician", nameMatch: /Priya Lindqvist/ },
-  mateo: { email: "mateo@larchmere.example", role: "researcher", nameMatch: /Mateo Brandt/ },
-  yuki: { email: "yuki@larchmere.example", role: "researcher", nameMatch: /Yuki Hallstr(ö|o)m/ },
-  grace: { email: "grace@larchmere.example", role: "safety_officer", nameMatch: /Grace Oyelaran/ },
+  ines: { email: ines.email, role: ines.role, nameMatch: /Ines Vartanian/ },
+  tomasz: { email: tomasz.email, role: tomasz.role, nameMatch: /Tomasz Okafor/ },
+  priya: { email: priya.email, role: priya.role, nameMatch: /Priya Lindqvist/ },
+  mateo: { email: mateo.email, role: mateo.role, nameMatch: /Mateo Brandt/ },
+  yuki: { email: yuki.email, role: yuki.role, nameMatch: /Yuki Hallstr(ö|o)m/ },
+  grace: { email: grace.email, role: grace.role, nameMatch: /Grace Oyelaran/ },
 } as const satisfies Record<string, DemoUser>;
 
 export const CRYOSTATS = ["Heron", "Plover", "Wren"] as const;

@@ -1,4 +1,4 @@
-// Gas accounting against CODATA 2018 molar volumes [pub], the REFERENCES.md [calc] example, mathjs
+// Gas accounting against CODATA 2018 molar volumes [pub], the lib/cryo/README.md [calc] example, mathjs
 // (gasConstant, molarVolume and unit conversions) and the CoolProp Z table (cryogens-eos.json).
 import Decimal from "decimal.js";
 import * as math from "mathjs";
@@ -35,7 +35,7 @@ describe("molar volumes and R", () => {
 });
 
 describe("gasAmount", () => {
-  it("10 L at 1.000 bar, 295.0 K → 0.407703 mol → 9.1382 L at 0 °C/1 atm (REFERENCES.md [calc])", () => {
+  it("10 L at 1.000 bar, 295.0 K → 0.407703 mol → 9.1382 L at 0 °C/1 atm (lib/cryo/README.md [calc])", () => {
     const a = gasAmount({ pressurePa: 1e5, volumeLitres: 10, temperatureK: 295 });
     expect(a.mol).toBeCloseTo(0.407703, 6);
     expect(a.litresAtReference).toBeCloseTo(9.1382, 4);

@@ -1,5 +1,5 @@
 // Liquid-helium bookkeeping against the CoolProp values in cryogens-eos.json ([eos]), the
-// REFERENCES.md table, simple-statistics (linear regression) and mathjs (matrix inverse for the
+// table in lib/cryo/README.md, simple-statistics (linear regression) and mathjs (matrix inverse for the
 // slope's standard error). Rules of thumb are marked as common practice.
 import * as math from "mathjs";
 import * as ss from "simple-statistics";
@@ -71,7 +71,7 @@ describe("gasLitresFromLiquid", () => {
   it.each([
     ["15C_1atm", 736.8],
     ["20C_1atm", 749.6],
-  ] as const)("1 L liquid → gas at %s 1 : %d (REFERENCES.md table [eos])", (ref, ratio) => {
+  ] as const)("1 L liquid → gas at %s 1 : %d (lib/cryo/README.md table [eos])", (ref, ratio) => {
     const gas = gasLitresFromLiquid(1, ref);
     expect(gas.gasLitres).toBeCloseTo(ratio, 1);
     expect(gas.reference).toBe(ref);
@@ -85,7 +85,7 @@ describe("gasLitresFromLiquid", () => {
     expect(gasLitresFromLiquid(1, "21.11C_1atm").expansionRatio).toBeLessThan(757);
   });
 
-  it("nitrogen 1 : 692.0 at 20 °C (REFERENCES.md [eos])", () => {
+  it("nitrogen 1 : 692.0 at 20 °C (lib/cryo/README.md [eos])", () => {
     expect(gasLitresFromLiquid(10, "20C_1atm", "nitrogen").gasLitres).toBeCloseTo(6920, -1);
   });
 

@@ -1,5 +1,5 @@
 // ITS-90 helium vapour-pressure scale against Metrologia 27, 3 (1990) / Donnelly & Barenghi,
-// J. Phys. Chem. Ref. Data 27, 1217 (1998), the [calc] values of REFERENCES.md, and the
+// J. Phys. Chem. Ref. Data 27, 1217 (1998), the [calc] values of lib/cryo/README.md, and the
 // independent CoolProp equation of state in cryogens-eos.json.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
@@ -22,7 +22,7 @@ describe("4He temperature from pressure", () => {
   it.each([
     [100_000, 4.208137],
     [10_000, 2.488559],
-  ])("%d Pa → %d K (REFERENCES.md [calc] from the published coefficients)", (p, t) => {
+  ])("%d Pa → %d K (lib/cryo/README.md [calc] from the published coefficients)", (p, t) => {
     expect(he4TemperatureFromPressure(p)).toBeCloseTo(t, 6);
   });
 
@@ -53,7 +53,7 @@ describe("4He pressure from temperature (inverse)", () => {
   it.each([
     [1.5, 471.54, 0.01],
     [4.0, 81_616, 1],
-  ])("%d K → %d Pa (REFERENCES.md [calc])", (t, p, tol) => {
+  ])("%d K → %d Pa (lib/cryo/README.md [calc])", (t, p, tol) => {
     expect(Math.abs(he4PressureFromTemperature(t) - p)).toBeLessThan(tol);
   });
 
@@ -80,7 +80,7 @@ describe("4He pressure from temperature (inverse)", () => {
   });
 });
 
-describe("3He (coefficients from memory, checked against REFERENCES.md [calc] values)", () => {
+describe("3He (coefficients from memory, checked against lib/cryo/README.md [calc] values)", () => {
   it.each([
     [1.0, 1160.1, 0.1],
     [2.0, 19_999, 1],

@@ -1,4 +1,4 @@
-// Magnet arithmetic against REFERENCES.md [calc] values (½LI², quench bound with the eos density and
+// Magnet arithmetic against lib/cryo/README.md [calc] values (½LI², quench bound with the eos density and
 // latent heat, dipole contour distances) and mathjs (μ0 and unit conversions).
 import * as math from "mathjs";
 import { describe, expect, it } from "vitest";
@@ -47,13 +47,13 @@ describe("rampTime", () => {
 });
 
 describe("stored energy and quench", () => {
-  it("10 H at 100 A → 50.0 kJ (REFERENCES.md); mathjs agrees on H·A² = J", () => {
+  it("10 H at 100 A → 50.0 kJ (lib/cryo/README.md); mathjs agrees on H·A² = J", () => {
     expect(storedEnergyJ(10, 100)).toBeCloseTo(50_000, 9);
     const e = math.multiply(0.5, math.multiply(math.unit(10, "H"), math.pow(math.unit(100, "A"), 2))) as math.Unit;
     expect(e.toNumber("J")).toBeCloseTo(storedEnergyJ(10, 100), 6);
   });
 
-  it("50 kJ boils at most 19.5 L of liquid helium, E/2.564 kJ per litre (REFERENCES.md [calc, eos])", () => {
+  it("50 kJ boils at most 19.5 L of liquid helium, E/2.564 kJ per litre (lib/cryo/README.md [calc, eos])", () => {
     expect(quenchBoilOffLitresMax(50_000)).toBeCloseTo(19.5, 1);
     expect(50_000 / quenchBoilOffLitresMax(50_000)).toBeCloseTo(2564, 0);
   });

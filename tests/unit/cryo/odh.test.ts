@@ -1,4 +1,4 @@
-// Oxygen-deficiency estimates against the FESHM 4240-style forms of REFERENCES.md ([calc] check
+// Oxygen-deficiency estimates against the FESHM 4240-style forms of lib/cryo/README.md ([calc] check
 // values; the manual's own text from memory) and the OSHA 29 CFR 1910.146 thresholds [pub].
 import { describe, expect, it } from "vitest";
 import {
@@ -16,13 +16,13 @@ import {
 const PER_MIN = 1 / 60;
 
 describe("continuous release", () => {
-  it("V = 100 m³, R = 1 m³/min, Q = 0: C(10 min) = 0.190016 (REFERENCES.md [calc])", () => {
+  it("V = 100 m³, R = 1 m³/min, Q = 0: C(10 min) = 0.190016 (lib/cryo/README.md [calc])", () => {
     const c = oxygenDuringRelease({ roomVolumeM3: 100, releaseM3PerS: PER_MIN, ventilationM3PerS: 0 }, 600);
     expect(c).toBeCloseTo(0.190016, 6);
     expect(c).toBeCloseTo(0.21 * Math.exp(-0.1), 12); // the no-ventilation form 0.21·e^{−Rt/V}
   });
 
-  it("Q = 5 m³/min supply: C(60 min) = 0.175956 (REFERENCES.md [calc])", () => {
+  it("Q = 5 m³/min supply: C(60 min) = 0.175956 (lib/cryo/README.md [calc])", () => {
     const c = oxygenDuringRelease({ roomVolumeM3: 100, releaseM3PerS: PER_MIN, ventilationM3PerS: 5 * PER_MIN }, 3600);
     expect(c).toBeCloseTo(0.175956, 6);
   });

@@ -1,4 +1,4 @@
-// IEC 60751 Callendar–Van Dusen against the standard's table values [pub] and REFERENCES.md [calc].
+// IEC 60751 Callendar–Van Dusen against the standard's table values [pub] and lib/cryo/README.md [calc].
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { ptResistance, ptTemperature, ptToleranceC } from "@/lib/cryo";
@@ -13,7 +13,7 @@ describe("ptResistance (IEC 60751 table, Pt100)", () => {
     expect(ptResistance(t)).toBeCloseTo(r, 2);
   });
 
-  it("−196 °C (LN2) → 20.2465 Ω (REFERENCES.md [calc])", () => {
+  it("−196 °C (LN2) → 20.2465 Ω (lib/cryo/README.md [calc])", () => {
     expect(ptResistance(-196)).toBeCloseTo(20.2465, 4);
   });
 

@@ -1,5 +1,5 @@
 // Transport arithmetic against the CODATA 2018 exact constants (2019 SI) [pub], mathjs physical
-// constants, REFERENCES.md [calc] values, and ml-levenberg-marquardt on synthetic Kondo data.
+// constants, lib/cryo/README.md [calc] values, and ml-levenberg-marquardt on synthetic Kondo data.
 // The empirical Kondo form (Goldhaber-Gordon et al., Phys. Rev. Lett. 81, 5225 (1998)) is quoted
 // from memory for its exact printed form.
 import * as math from "mathjs";
@@ -48,7 +48,7 @@ describe("constants (CODATA 2018, exact in the 2019 SI)", () => {
 });
 
 describe("Aharonov–Bohm ring", () => {
-  it("1 µm mean diameter → ΔB = 5.2657 mT (REFERENCES.md [calc]); mathjs unit check in mT", () => {
+  it("1 µm mean diameter → ΔB = 5.2657 mT (lib/cryo/README.md [calc]); mathjs unit check in mT", () => {
     const period = aharonovBohmPeriodT({ meanDiameterM: 1e-6 });
     expect(period * 1e3).toBeCloseTo(5.2657, 4);
     const viaMathjs = math.divide(

@@ -2,7 +2,6 @@
 // The /calc page: one cached page, sections picked client-side by the URL hash (#magnet, …),
 // so every calculator works offline once the page is in the service worker's cache.
 import { type ReactNode, useEffect, useState } from "react";
-import { useCryostatList } from "@/components/cryo/use-cryo-data";
 import { HeliumSection, MagnetSection } from "./helium-magnet";
 import { GasSection, OxygenSection } from "./safety-gas";
 import { CalibrationSection, Its90Section, PlatinumSection } from "./thermometry";
@@ -26,8 +25,6 @@ function fromHash(): string {
 
 export function Calculators() {
   const [active, setActive] = useState<string | null>(null);
-  // Fetch (and remember) the cryostats on any online visit, so the presets are there offline.
-  useCryostatList();
   useEffect(() => {
     setActive(fromHash());
     const onHash = () => setActive(fromHash());

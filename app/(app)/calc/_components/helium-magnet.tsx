@@ -5,7 +5,6 @@ import { useState } from "react";
 import { Calculator, parsePairs } from "@/components/cryo/calc-kit";
 import { durationText, figure } from "@/components/cryo/derive";
 import { EstimateNote } from "@/components/cryo/estimate-note";
-import { useCryostatList } from "@/components/cryo/use-cryo-data";
 import { Caution } from "@/components/safety/caution";
 import { type Choice, OptionList } from "@/components/ui/form";
 import {
@@ -27,6 +26,7 @@ import {
   storedEnergyJ,
   transferEfficiency,
 } from "@/lib/cryo";
+import { type LocalCryostat, useCryostats } from "@/lib/local/hooks";
 import type { CryostatConfig } from "@/lib/schemas/cryostat";
 
 /** "20C_1atm" → "20 °C, 1 atm". */
@@ -83,13 +83,11 @@ function calibrationText(c: LevelCalibration): string {
 }
 
 export function HeliumSection() {
-  const list = useCryostatList();
-  const withReservoir = (list.data ?? []).filter(
+  const list = useCryostats() ?? [];
+  const withReservoir = list.filter(
     (
       c,
-    ): c is {
-      id: string;
-      name: string;
+    ): c is LocalCryostat & {
       config: CryostatConfig & { reservoir: NonNullable<CryostatConfig["reservoir"]> };
     } => Boolean(c.config.reservoir),
   );
@@ -244,8 +242,8 @@ const CUSTOM_MAGNET: MagnetSpec & { inductanceH: number; rampLimitTPerMin: numbe
 };
 
 export function MagnetSection() {
-  const list = useCryostatList();
-  const magnets = (list.data ?? []).filter((c) => c.config.magnet);
+  const list = useCryostats() ?? [];
+  const magnets = list.filter((c) => c.config.magnet);
   const [preset, setPreset] = useState("");
   const chosen = magnets.find((c) => c.id === preset) ?? magnets[0];
   const m = chosen?.config.magnet ?? CUSTOM_MAGNET;

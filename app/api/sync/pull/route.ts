@@ -1,14 +1,12 @@
 // GET /api/sync/pull?since=SEQ&ref=HASH — entries after the cursor (paged, filtered to what the
 // role may read) and, when the tablet's copy is stale, the reference data. Never cached.
 import { z } from "zod";
-import { getDb } from "@/db";
-import { AppError } from "@/lib/errors";
+import { loadReference } from "@/db/queries/reference";
 import { PULL_PAGE, type PullReply } from "@/lib/sync/protocol";
-import { requireUser } from "@/server/auth/require";
-import { handle, json } from "@/server/http/respond";
+import { json } from "@/server/http/respond";
+import { route } from "@/server/http/route";
 import { pullPage } from "@/server/sync/apply";
 import { ensureServerTick } from "@/server/tick";
-import { loadReference } from "./reference";
 
 export const dynamic = "force-dynamic";
 
@@ -18,20 +16,22 @@ const query = z.object({
   ref: z.string().max(100).optional(),
 });
 
-export async function GET(req: Request) {
-  return handle(async () => {
-    const user = await requireUser();
-    const q = query.safeParse(Object.fromEntries(new URL(req.url).searchParams));
-    if (!q.success) throw new AppError("bad_request", "cursor", "The pull cursor `since` must be a whole number ≥ 0.");
-    const db = await getDb();
-    const page = await pullPage(db, user, q.data);
+export const GET = route(
+  {
+    access: "signed-in",
+    surface: "cursor",
+    query,
+    invalid: "The pull cursor `since` must be a whole number ≥ 0.",
+  },
+  async ({ db, user, query: q }) => {
+    const page = await pullPage(db, user, q);
     let reference: PullReply["reference"] = null;
-    if (q.data.ref !== undefined) {
+    if (q.ref !== undefined) {
       const ref = await loadReference(db);
-      if (ref.hash !== q.data.ref) reference = ref;
+      if (ref.hash !== q.ref) reference = ref;
     }
     const reply: PullReply = { ...page, reference, me: user };
     ensureServerTick();
     return json(reply);
-  });
-}
+  },
+);

@@ -1,10 +1,10 @@
+// One cryostat's log, newest first, a page at a time (filtered to what the role may read).
 import { z } from "zod";
-import { getDb } from "@/db";
 import { getCryostat } from "@/db/queries/cryostats";
 import { listCryostatEntries } from "@/db/queries/entries";
 import { AppError } from "@/lib/errors";
-import { requireUser } from "@/server/auth/require";
-import { handle, json } from "@/server/http/respond";
+import { json } from "@/server/http/respond";
+import { route } from "@/server/http/route";
 
 export const dynamic = "force-dynamic";
 
@@ -13,14 +13,16 @@ const query = z.object({
   limit: z.coerce.number().int().min(1).max(100).default(30),
 });
 
-export async function GET(req: Request, ctx: { params: Promise<{ id: string }> }) {
-  return handle(async () => {
-    const user = await requireUser();
-    const { id } = await ctx.params;
-    const q = query.safeParse(Object.fromEntries(new URL(req.url).searchParams));
-    if (!q.success) throw new AppError("bad_request", "cursor", "The page cursor must be a positive whole number.");
-    const db = await getDb();
+export const GET = route(
+  {
+    access: "signed-in",
+    surface: "cryostat",
+    params: z.object({ id: z.string() }),
+    query,
+    invalid: { surface: "cursor", message: "The page cursor must be a positive whole number." },
+  },
+  async ({ db, user, params: { id }, query: q }) => {
     if (!(await getCryostat(db, { id }))) throw new AppError("not_found", "cryostat", `No cryostat "${id}".`);
-    return json(await listCryostatEntries(db, { cryostatId: id, role: user.role, ...q.data }));
-  });
-}
+    return json(await listCryostatEntries(db, { cryostatId: id, role: user.role, ...q }));
+  },
+);

@@ -1,20 +1,18 @@
 // Chart series of one cryostat (stage temperatures, helium levels and transfers, field settings).
-import { getDb } from "@/db";
+import { z } from "zod";
 import { getCryostat } from "@/db/queries/cryostats";
 import { cryostatSeries } from "@/db/queries/series";
 import { AppError } from "@/lib/errors";
-import { requireUser } from "@/server/auth/require";
-import { handle, json } from "@/server/http/respond";
+import { json } from "@/server/http/respond";
+import { route } from "@/server/http/route";
 
 export const dynamic = "force-dynamic";
 
-export async function GET(_req: Request, ctx: { params: Promise<{ id: string }> }) {
-  return handle(async () => {
-    await requireUser();
-    const { id } = await ctx.params;
-    const db = await getDb();
+export const GET = route(
+  { access: "signed-in", surface: "cryostat", params: z.object({ id: z.string() }) },
+  async ({ db, params: { id } }) => {
     const cryostat = await getCryostat(db, { id });
     if (!cryostat) throw new AppError("not_found", "cryostat", `No cryostat "${id}".`);
     return json(await cryostatSeries(db, { cryostat }));
-  });
-}
+  },
+);
