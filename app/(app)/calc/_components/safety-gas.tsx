@@ -7,6 +7,7 @@ import { Caution } from "@/components/safety/caution";
 // accounting (tank amounts, mixture loss between warmup and cooldown).
 import {
   classifyOxygen,
+  continuousReleaseOxygen,
   type GasReference,
   gasAmount,
   gasLitresFromLiquid,
@@ -14,12 +15,13 @@ import {
   MOLAR_VOLUME_REFERENCES,
   type MolarVolumeReference,
   mixtureLoss,
-  oxygenAfterDisplacement,
-  oxygenAfterMixedRelease,
-  oxygenDuringRelease,
+  type OxygenEstimate,
   quenchGasVolume,
+  type SuddenRelease,
   steadyStateOxygen,
+  suddenReleaseOxygen,
   timeToOxygenFraction,
+  type VentilationKind,
   ventilationFromAirChanges,
 } from "@/lib/cryo";
 import { REFERENCE_OPTIONS, refLabel } from "./helium-magnet";
@@ -43,11 +45,24 @@ function oxygenRow(label: string, fraction: number): ResultRow {
   };
 }
 
+/** Both sudden-release figures, each named by its model, the conservative one first. */
+function suddenRows(release: SuddenRelease): ResultRow[] {
+  const s = suddenReleaseOxygen(release);
+  return s.estimates.map((e: OxygenEstimate) =>
+    oxygenRow(e === s.conservative ? `${e.label} — conservative figure` : e.label, e.fraction),
+  );
+}
+
+const VENTILATION_OPTIONS: { value: VentilationKind; label: string }[] = [
+  { value: "supply", label: "Supply: fresh air blown in" },
+  { value: "exhaust", label: "Exhaust: room air extracted" },
+];
+
 const caution = <EstimateNote topic="oxygen" />;
 const thresholds = (
   <p className="text-base text-muted">
-    Alarm 19.5 % (OSHA 29 CFR 1910.146: oxygen-deficient below it), leave at 18 % (common practice) — the facility sets
-    its own points.
+    Fresh air 20.9 % O₂. Alarm below 19.5 % (OSHA 29 CFR 1910.146: oxygen-deficient below it), leave below 18 % (common
+    practice) — the facility sets its own points.
   </p>
 );
 
@@ -57,7 +72,7 @@ export function OxygenSection() {
       <Caution topic="oxygen" className="lg:col-span-2" />
       <Calculator
         title="Sudden release"
-        intro="A volume of gas released at once into the room."
+        intro="A volume of gas released at once into the room. Two models: the gas pushes room air out unmixed (the worst case), or it mixes in while mixed air leaves — the same well-mixed room as the continuous release, released fast."
         fields={[
           {
             key: "v",
@@ -68,13 +83,7 @@ export function OxygenSection() {
           },
           { key: "g", label: "Gas released (room conditions)", unit: "m³", initial: "20", match: /Released/ },
         ]}
-        compute={({ n }) => [
-          oxygenRow("Mixed, pushing air out", oxygenAfterMixedRelease({ roomVolumeM3: n.v!, gasVolumeM3: n.g! })),
-          oxygenRow(
-            "Displacing air, no mixing (worst case)",
-            oxygenAfterDisplacement({ roomVolumeM3: n.v!, gasVolumeM3: n.g! }),
-          ),
-        ]}
+        compute={({ n }) => suddenRows({ roomVolumeM3: n.v!, gasVolumeM3: n.g! })}
         footer={
           <>
             {thresholds}
@@ -84,6 +93,7 @@ export function OxygenSection() {
       />
       <Calculator
         title="Continuous release with ventilation"
+        intro="Well-mixed room: fresh air and gas come in, the same volume of mixed air leaves. With exhaust ventilation the fresh air drawn in is the extract minus the release, so the room fares worse than with the same supply."
         fields={[
           {
             key: "v",
@@ -99,18 +109,21 @@ export function OxygenSection() {
             initial: String(ROOM_DEFAULTS.airChangesPerHour),
             match: /Air changes|Ventilation/,
           },
+          { kind: "select", key: "kind", label: "Ventilation", initial: "exhaust", options: VENTILATION_OPTIONS },
           { key: "r", label: "Release rate (gas)", unit: "m³/min", initial: "1", match: /Release rate/ },
           { key: "t", label: "After", unit: "min", initial: "10", match: /Time/ },
         ]}
-        compute={({ n }) => {
+        compute={({ n, s }) => {
           const release = {
             roomVolumeM3: n.v!,
             releaseM3PerS: n.r! / 60,
             ventilationM3PerS: ventilationFromAirChanges(n.v!, n.ach!),
+            ventilationKind: s.kind as VentilationKind,
           };
+          const at = continuousReleaseOxygen(release, n.t! * 60);
           const to = timeToOxygenFraction(release, 0.195);
           return [
-            oxygenRow(`After ${figure(n.t!)} min`, oxygenDuringRelease(release, n.t! * 60)),
+            oxygenRow(`After ${figure(n.t!)} min — ${at.label}`, at.fraction),
             oxygenRow("Settles at", steadyStateOxygen(release)),
             to.reached
               ? { label: "Reaches 19.5 % after", text: durationText(to.timeS / 60), tone: "warn" }
@@ -142,14 +155,7 @@ export function OxygenSection() {
           const gas = quenchGasVolume(n.l!, s.ref as GasReference);
           return [
             { label: "Helium gas", text: `${figure(gas.gasM3, 3)} m³ at ${refLabel(s.ref)}` },
-            oxygenRow(
-              "Mixed, pushing air out",
-              oxygenAfterMixedRelease({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 }),
-            ),
-            oxygenRow(
-              "Displacing air (worst case)",
-              oxygenAfterDisplacement({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 }),
-            ),
+            ...suddenRows({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 }),
           ];
         }}
         footer={
