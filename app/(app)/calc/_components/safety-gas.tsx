@@ -6,6 +6,7 @@ import { Caution } from "@/components/safety/caution";
 // Oxygen deficiency estimates (room B-014 defaults: 220 m³, 4 air changes per hour) and gas
 // accounting (tank amounts, mixture loss between warmup and cooldown).
 import {
+  absolutePressurePa,
   classifyOxygen,
   continuousReleaseOxygen,
   type GasReference,
@@ -16,6 +17,7 @@ import {
   type MolarVolumeReference,
   mixtureLoss,
   type OxygenEstimate,
+  type PressureReading,
   quenchGasVolume,
   type SuddenRelease,
   steadyStateOxygen,
@@ -174,15 +176,36 @@ export function OxygenSection() {
 
 const MOLAR_OPTIONS = MOLAR_VOLUME_REFERENCES.map((r) => ({ value: r, label: refLabel(r) }));
 
+const READS_OPTIONS: { value: PressureReading; label: string }[] = [
+  { value: "gauge", label: "Gauge: above the room's air pressure" },
+  { value: "absolute", label: "Absolute: above vacuum" },
+];
+
+/** The gauge/absolute choice and the room's barometric pressure (used only for a gauge reading). */
+const readsFields = (initial: PressureReading) =>
+  [
+    { kind: "select", key: "reads", label: "The gauge reads", initial, options: READS_OPTIONS },
+    {
+      key: "baro",
+      label: "Room barometric pressure (for a gauge reading)",
+      unit: "hPa",
+      initial: "1013.25",
+      match: /Barometric|below vacuum/,
+    },
+  ] as const;
+
+const absoluteText = (pa: number) => `${figure(pa / 1e5, 5)} bar (${figure(pa / 100, 5)} mbar)`;
+
 export function GasSection() {
   return (
     <>
       <Calculator
         title="Gas in a tank or cylinder"
-        intro="n = pV/(ZRT), absolute pressure. For helium at 20 °C the compressibility Z is taken from the equation of state (1–300 bar) unless you give one."
+        intro="n = pV/(ZRT) takes the absolute pressure. Cylinder gauges usually read gauge pressure (above the room's air): the room's barometric pressure is then added. For helium at 20 °C the compressibility Z is taken from the equation of state (1–300 bar) unless you give one."
         fields={[
           { kind: "select", key: "unit", label: "Pressure unit", initial: "bar", options: PRESSURE_OPTIONS },
-          { key: "p", label: "Pressure (absolute)", initial: "200", match: /^Pressure/ },
+          { key: "p", label: "Pressure as read", initial: "200", match: /^Pressure/ },
+          ...readsFields("gauge"),
           { key: "v", label: "Volume", unit: "L", initial: "50", match: /volume/i },
           { key: "t", label: "Temperature", unit: "°C", initial: "20", match: /^Temperature/ },
           {
@@ -195,7 +218,11 @@ export function GasSection() {
           { kind: "select", key: "ref", label: "Litres at", initial: "0C_1atm", options: MOLAR_OPTIONS },
         ]}
         compute={({ n, s }) => {
-          const pa = n.p! * (PRESSURE_UNITS[s.unit!] ?? NaN);
+          const pa = absolutePressurePa(
+            n.p! * (PRESSURE_UNITS[s.unit!] ?? NaN),
+            s.reads as PressureReading,
+            n.baro! * 100,
+          );
           let z = n.z!;
           let zNote = "given";
           if (!Number.isFinite(z)) {
@@ -212,6 +239,7 @@ export function GasSection() {
             s.ref as MolarVolumeReference,
           );
           return [
+            { label: "Absolute pressure used", text: absoluteText(pa) },
             { label: "Amount", text: `${figure(g.mol, 4)} mol` },
             { label: `Gas at ${refLabel(s.ref)}`, text: `${figure(g.litresAtReference, 4)} L` },
             {
@@ -223,7 +251,9 @@ export function GasSection() {
         }}
         footer={
           <p className="text-base text-muted">
-            High-pressure cylinders: the usual cylinder cautions and the supplier&apos;s instructions apply.
+            A gauge reading needs the room&apos;s barometric pressure (1013.25 hPa is the standard atmosphere; the
+            room&apos;s own barometer is better). High-pressure cylinders: the usual cylinder cautions, the
+            supplier&apos;s instructions and the facility&apos;s rules apply.
           </p>
         }
       />
@@ -232,16 +262,18 @@ export function GasSection() {
         intro="The same storage tank read twice with all the mixture in it."
         fields={[
           { key: "v", label: "Tank volume", unit: "L", initial: "40", match: /Tank volume/ },
+          ...readsFields("absolute"),
           { key: "p1", label: "Pressure before", unit: "mbar", initial: "812", match: /^Pressure.*before|^Pressure/ },
           { key: "t1", label: "Temperature before", unit: "K", initial: "295", match: /^Temperature/ },
           { key: "p2", label: "Pressure after", unit: "mbar", initial: "806" },
           { key: "t2", label: "Temperature after", unit: "K", initial: "295" },
         ]}
-        compute={({ n }) => {
+        compute={({ n, s }) => {
+          const abs = (mbar: number) => absolutePressurePa(mbar * 100, s.reads as PressureReading, n.baro! * 100);
           const loss = mixtureLoss(
             n.v!,
-            { pressurePa: n.p1! * 100, temperatureK: n.t1! },
-            { pressurePa: n.p2! * 100, temperatureK: n.t2! },
+            { pressurePa: abs(n.p1!), temperatureK: n.t1! },
+            { pressurePa: abs(n.p2!), temperatureK: n.t2! },
           );
           return [
             {
