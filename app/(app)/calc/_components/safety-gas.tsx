@@ -1,5 +1,5 @@
 "use client";
-import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS, type ResultRow } from "@/components/cryo/calc-kit";
+import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS, type ResultRow, readsFields } from "@/components/cryo/calc-kit";
 import { durationText, figure } from "@/components/cryo/derive";
 import { EstimateNote } from "@/components/cryo/estimate-note";
 import { Caution } from "@/components/safety/caution";
@@ -175,24 +175,6 @@ export function OxygenSection() {
 }
 
 const MOLAR_OPTIONS = MOLAR_VOLUME_REFERENCES.map((r) => ({ value: r, label: refLabel(r) }));
-
-const READS_OPTIONS: { value: PressureReading; label: string }[] = [
-  { value: "gauge", label: "Gauge: above the room's air pressure" },
-  { value: "absolute", label: "Absolute: above vacuum" },
-];
-
-/** The gauge/absolute choice and the room's barometric pressure (used only for a gauge reading). */
-const readsFields = (initial: PressureReading) =>
-  [
-    { kind: "select", key: "reads", label: "The gauge reads", initial, options: READS_OPTIONS },
-    {
-      key: "baro",
-      label: "Room barometric pressure (for a gauge reading)",
-      unit: "hPa",
-      initial: "1013.25",
-      match: /Barometric|below vacuum/,
-    },
-  ] as const;
 
 const absoluteText = (pa: number) => `${figure(pa / 1e5, 5)} bar (${figure(pa / 100, 5)} mbar)`;
 
