@@ -85,8 +85,8 @@ describe("calculators", () => {
     // 20.9 %·190/220 = 18.05 % O2, the conservative figure; mixed with outflow 20.9 %·e^(−30/220) = 18.24 %.
     await page.getByLabel("Gas released").fill("30");
     const sudden = page.locator('dl[aria-label="Sudden release: results"]');
-    await expect.poll(() => sudden.innerText()).toContain("18.1 % O₂");
-    expect(await sudden.innerText()).toContain("18.2 % O₂");
+    await expect.poll(() => sudden.innerText()).toContain("18.05 % O₂");
+    expect(await sudden.innerText()).toContain("18.24 % O₂");
     expect(await sudden.innerText()).toContain("conservative figure");
 
     for (const [section, theme] of [

@@ -42,7 +42,8 @@ function oxygenRow(label: string, fraction: number): ResultRow {
   const c = classifyOxygen(fraction);
   return {
     label,
-    text: `${figure(fraction * 100, 3)} % O₂ — ${STATUS_TEXT[c.status]}`,
+    // Two decimals, so a figure just below a threshold never reads as the threshold itself.
+    text: `${(fraction * 100).toFixed(2)} % O₂ — ${STATUS_TEXT[c.status]}`,
     tone: c.status === "normal" ? "ok" : c.status === "alarm" ? "warn" : "danger",
   };
 }
