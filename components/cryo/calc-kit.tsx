@@ -7,6 +7,7 @@ import { type ReactNode, useId, useState } from "react";
 import { OptionList } from "@/components/ui/form";
 import { Panel } from "@/components/ui/panel";
 import { parseTypedNumber } from "@/lib/typed-number";
+import type { PressureReading } from "@/lib/cryo";
 import { readNumber } from "./derive";
 
 export type NumberSpec = {
@@ -179,6 +180,24 @@ export function Calculator({
     </Panel>
   );
 }
+
+const READS_OPTIONS: { value: PressureReading; label: string }[] = [
+  { value: "gauge", label: "Gauge: above the room's air pressure" },
+  { value: "absolute", label: "Absolute: above vacuum" },
+];
+
+/** The gauge/absolute choice and the room's barometric pressure (used only for a gauge reading). */
+export const readsFields = (initial: PressureReading) =>
+  [
+    { kind: "select", key: "reads", label: "The gauge reads", initial, options: READS_OPTIONS },
+    {
+      key: "baro",
+      label: "Room barometric pressure (for a gauge reading)",
+      unit: "hPa",
+      initial: "1013.25",
+      match: /Barometric|below vacuum/,
+    },
+  ] as const;
 
 /** Pressure units a gauge may read, to Pa. Torr = 101 325/760 Pa (exact by definition). */
 export const PRESSURE_UNITS: Record<string, number> = { mbar: 100, Pa: 1, kPa: 1000, bar: 1e5, Torr: 101_325 / 760 };

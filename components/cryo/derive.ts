@@ -1,6 +1,7 @@
 // Derived values shown beside a reading as it is typed: pure functions, no React, no I/O, so the
 // same rules run in the reading form, the procedure step and the unit tests. Each rule maps one
-// kind of reading to figures from lib/cryo (ITS-90 4He vapour pressure, the reservoir level
+// kind of reading to figures from lib/cryo (ITS-90 4He or 3He vapour pressure over a pure bath or
+// pot — never a dilution fridge's still, whose vapour comes from a mixture —, the reservoir level
 // calibration and boil-off fit, the magnet's coil constant and ramp limit, a sensor calibration
 // table). A value outside a formula's range comes back as a message, never as NaN or a throw.
 import {
@@ -10,6 +11,7 @@ import {
   currentFromField,
   fieldFromCurrent,
   forecastMinimumLevel,
+  he3TemperatureFromPressure,
   he4TemperatureFromPressure,
   litresFromLevel,
   ptTemperature,
@@ -106,16 +108,33 @@ export function readNumber(value: DeriveInput["value"]): number | undefined {
 const PRESSURE_TO_PA: Record<string, number> = { Pa: 1, mbar: 100, bar: 1e5, kPa: 1000 };
 const RESISTANCE_TO_OHM: Record<string, number> = { Ω: 1, ohm: 1, kΩ: 1000 };
 
-/** Quantities read as a 4He vapour pressure (a pumped pot, a VTI, a bath): not tanks or lines. */
+/** A dilution refrigerator's still: the vapour is ³He over a dilute mixture. */
+function isStill(input: DeriveInput): boolean {
+  return /\bstill\b/.test(`${input.quantity.toLowerCase()} ${input.stage ?? ""}`);
+}
+
+/** Which pure-helium scale a vapour pressure is read on: ³He when the quantity or stage says so. */
+function isotopeOf(input: DeriveInput): "he3" | "he4" {
+  return /³he|\b3\s*-?\s*he\b|\bhe\s*-?\s*3\b|helium\s*-?\s*3/i.test(`${input.quantity} ${input.stage ?? ""}`)
+    ? "he3"
+    : "he4";
+}
+
+/** Quantities read as a vapour pressure over a pure helium bath (a pumped pot, a VTI, a bath): not tanks or lines. */
 function isVapourPressure(input: DeriveInput): boolean {
   const q = input.quantity.toLowerCase();
   if (/tank|dump|cylinder|mixture|line|inlet|ivc|ovc|vacuum|supply|return/.test(q)) return false;
+  if (isStill(input)) return false;
   if (input.stage && input.stage === input.cryostat.config.vapourPressureStage) return true;
-  return (
-    /\b1\s*k\b|pot|vti|still|vapou?r|bath/.test(q) ||
-    (input.stage !== undefined && /pot|vti|still|bath/.test(input.stage))
-  );
+  return /\b1\s*k\b|pot|vti|vapou?r|bath/.test(q) || (input.stage !== undefined && /pot|vti|bath/.test(input.stage));
 }
+
+/** What a still pressure does tell: a labelled note instead of a temperature no scale gives. */
+const STILL_NOTE: Derived = {
+  status: "ok",
+  items: [],
+  note: "Still pressure: the vapour is mostly ³He evaporating from the dilute ³He/⁴He mixture, so no helium vapour-pressure scale gives the still's temperature. Read the still thermometer.",
+};
 
 function isLevel(input: DeriveInput): boolean {
   return input.unit === "%" && /helium|level|he\b|lhe/i.test(input.quantity);
@@ -126,14 +145,13 @@ function errorOf(e: unknown): Derived {
   return { status: "error", message: String(e) };
 }
 
-function vapourPressure(pressure: number, unit: string): Derived {
+function vapourPressure(pressure: number, unit: string, isotope: "he3" | "he4"): Derived {
   const toPa = PRESSURE_TO_PA[unit];
   if (toPa === undefined) return NONE;
-  const k = he4TemperatureFromPressure(pressure * toPa);
-  return {
-    status: "ok",
-    items: [{ label: "Temperature (ITS-90, ⁴He vapour pressure)", value: k, unit: "K", text: temperatureText(k) }],
-  };
+  const k =
+    isotope === "he3" ? he3TemperatureFromPressure(pressure * toPa) : he4TemperatureFromPressure(pressure * toPa);
+  const label = `Temperature (ITS-90, ${isotope === "he3" ? "³He" : "⁴He"} vapour pressure)`;
+  return { status: "ok", items: [{ label, value: k, unit: "K", text: temperatureText(k) }] };
 }
 
 function helium(input: DeriveInput, percent: number): Derived {
@@ -263,7 +281,10 @@ export function deriveReading(input: DeriveInput): Derived {
   const value = readNumber(input.value);
   if (value === undefined) return NONE;
   try {
-    if (input.unit in PRESSURE_TO_PA && isVapourPressure(input)) return vapourPressure(value, input.unit);
+    if (input.unit in PRESSURE_TO_PA && isStill(input)) return STILL_NOTE;
+    if (input.unit in PRESSURE_TO_PA && isVapourPressure(input)) {
+      return vapourPressure(value, input.unit, isotopeOf(input));
+    }
     if (isLevel(input)) return helium(input, value);
     if (input.unit === "A") return magnetCurrent(input, value);
     if ((input.unit === "T" || input.unit === "mT") && input.cryostat.config.magnet) {

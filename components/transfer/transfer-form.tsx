@@ -332,7 +332,7 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
                   label="Supply dewar mass after (kg)"
                   hint={
                     suppliedLitres !== undefined
-                      ? `≈ ${trim(suppliedLitres)} L of liquid (density 0.1247 kg/L)`
+                      ? `≈ ${trim(suppliedLitres)} L of liquid (density 0.1247 kg/L: liquid at 1 atm, the normal boiling point)`
                       : undefined
                   }
                   value={f.massAfter}

@@ -94,7 +94,8 @@ export type QuenchFigures = {
   storedEnergyJ: number | null;
   gasM3: number | null;
   gasReference: typeof GAS_REFERENCE;
-  /** Estimated oxygen fraction (0–1) after the gas mixes into the room, when its volume is known. */
+  /** Estimated oxygen fraction (0–1) after the gas mixes into the room while mixed air leaves
+   * (lib/cryo oxygenAfterMixedRelease, C_air·e^(−Vgas/V)), when the room volume is known. */
   oxygenEstimateFraction: number | null;
 };
 

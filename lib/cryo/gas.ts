@@ -2,11 +2,13 @@
 // at a named reference condition, helium compressibility at 20 °C, and the mixture lost between a
 // warmup and the next cooldown. Sources: CODATA 2018 (R exact; molar volumes 22.413 969 54 L/mol
 // at 0 °C/101.325 kPa and 22.710 954 64 L/mol at 0 °C/100 kPa); helium Z from data/cryogens-eos.json
-// (CoolProp, Ortiz-Vega et al. 2019). Treat high-pressure gas with the usual cylinder cautions.
+// (CoolProp, Ortiz-Vega et al. 2019). The gas law takes absolute pressure; cylinder gauges read
+// gauge pressure (above the room's air): absolutePressurePa adds the room's barometric pressure.
+// Treat high-pressure gas with the usual cylinder cautions.
 
 import { GAS_CONSTANT_J_PER_MOL_K, STANDARD_ATMOSPHERE_PA, ZERO_CELSIUS_K } from "./constants";
 import eos from "./data/cryogens-eos.json";
-import { fmt, requireInRange, requirePositive } from "./errors";
+import { fmt, requireFinite, requireInRange, requirePositive } from "./errors";
 import { linearInterpolate } from "./interp";
 
 export const MOLAR_VOLUME_REFERENCES = ["0C_1atm", "0C_100kPa", "15C_1atm", "20C_1atm"] as const;
@@ -22,6 +24,44 @@ export const MOLAR_VOLUME_L_PER_MOL: Readonly<Record<MolarVolumeReference, numbe
   "15C_1atm": idealMolarVolumeLPerMol(ZERO_CELSIUS_K + 15, STANDARD_ATMOSPHERE_PA),
   "20C_1atm": idealMolarVolumeLPerMol(ZERO_CELSIUS_K + 20, STANDARD_ATMOSPHERE_PA),
 };
+
+/** How a gauge reads: above the room's air pressure ("gauge", most cylinder gauges) or above vacuum. */
+export type PressureReading = "gauge" | "absolute";
+
+/** Room barometric pressures accepted, Pa: sea level to about 5 000 m altitude, with weather. */
+export const BAROMETRIC_RANGE_PA = { min: 50_000, max: 110_000 } as const;
+
+/**
+ * Absolute pressure from a gauge reading: a gauge reading plus the room's barometric pressure
+ * (default the standard atmosphere, 1013.25 hPa); an absolute reading as read. Refuses a result
+ * below vacuum.
+ */
+export function absolutePressurePa(
+  pressurePa: number,
+  reads: PressureReading,
+  barometricPa: number = STANDARD_ATMOSPHERE_PA,
+): number {
+  requireFinite("Pressure (Pa)", pressurePa);
+  if (reads !== "gauge" && reads !== "absolute") {
+    throw new RangeError(`Say whether the pressure is gauge or absolute (got "${String(reads)}")`);
+  }
+  requireFinite("Barometric pressure (hPa)", barometricPa);
+  requireInRange("Barometric pressure", barometricPa / 100, {
+    min: BAROMETRIC_RANGE_PA.min / 100,
+    max: BAROMETRIC_RANGE_PA.max / 100,
+    unit: "hPa",
+    text: `plausible room barometric pressure (${BAROMETRIC_RANGE_PA.min / 100}–${BAROMETRIC_RANGE_PA.max / 100} hPa)`,
+  });
+  const absolute = reads === "gauge" ? pressurePa + barometricPa : pressurePa;
+  if (absolute < 0) {
+    throw new RangeError(
+      reads === "gauge"
+        ? `Pressure ${fmt(pressurePa / 100)} hPa gauge is below vacuum at a barometric pressure of ${fmt(barometricPa / 100)} hPa`
+        : `Pressure ${fmt(pressurePa)} Pa absolute is below vacuum`,
+    );
+  }
+  return absolute;
+}
 
 /** Above this pressure the ideal gas law is flagged when no Z was given (He: +0.5 % at 10 bar). */
 export const IDEAL_GAS_WARNING_PA = 5e5;

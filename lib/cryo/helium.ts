@@ -1,9 +1,10 @@
 // Liquid-helium bookkeeping: litres from a level meter or a weighed dewar, gas equivalents,
 // boil-off rate and the forecast of the minimum level, transfer efficiency, boil-off from a heat
-// load. Property data: data/cryogens-eos.json (CoolProp; helium after Ortiz-Vega et al. 2019).
+// load. Property data: data/cryogens-eos.json (CoolProp; helium after Ortiz-Vega et al. 2019), at
+// the normal boiling point (1 atm) unless the bath's pressure or temperature is given.
 // Rules of thumb (1 W ≈ 1.38 L/h; transfer losses 20–40 %) are common practice, not physics.
 
-import { CRYOGENS, type Cryogen, joulesPerLiquidLitre } from "./cryogens";
+import { type BathState, CRYOGENS, type Cryogen, type SaturatedLiquid, saturatedLiquid } from "./cryogens";
 import { CryoInputError, fmt, requireFinite, requireInRange, requireNonNegative, requirePositive } from "./errors";
 import { linearInterpolate } from "./interp";
 import { linearFit } from "./lsq";
@@ -50,11 +51,25 @@ export function litresFromLevel(levelPercent: number, calibration: LevelCalibrat
 /** Liquid helium density at the normal boiling point in kg/L (eos file: 124.669 kg/m³). */
 export const HELIUM_LIQUID_DENSITY_KG_PER_L = CRYOGENS.helium.liquidDensityKgPerM3 / 1000;
 
-/** Litres of liquid from a weighed dewar's net mass (gross minus tare). */
+/** Litres of liquid from a weighed dewar's net mass (gross minus tare), at the given density
+ * (default: liquid helium at the normal boiling point, 1 atm; litresFromMassAt takes the bath). */
 export function litresFromMass(netMassKg: number, densityKgPerL = HELIUM_LIQUID_DENSITY_KG_PER_L): number {
   requireNonNegative("Net mass (kg)", netMassKg);
   requirePositive("Density (kg/L)", densityKgPerL);
   return netMassKg / densityKgPerL;
+}
+
+export interface LitresFromMass {
+  readonly litres: number;
+  /** The liquid's state the density is taken at (atNormalBoilingPoint: 1 atm only). */
+  readonly liquid: SaturatedLiquid;
+}
+
+/** Litres of saturated liquid from a net mass, at the bath's pressure or temperature (default 1 atm). */
+export function litresFromMassAt(netMassKg: number, bath?: BathState, cryogen: Cryogen = "helium"): LitresFromMass {
+  requireNonNegative("Net mass (kg)", netMassKg);
+  const liquid = saturatedLiquid(cryogen, bath);
+  return { litres: (netMassKg / liquid.liquidDensityKgPerM3) * 1000, liquid };
 }
 
 export interface LevelReading {
@@ -183,11 +198,17 @@ export function transferEfficiency(gainedLitres: number, takenLitres: number): T
 export interface HeatLoadBoilOff {
   readonly litresPerHour: number;
   readonly litresPerDay: number;
+  /** The liquid's state the figure holds at (atNormalBoilingPoint: 1 atm only). */
+  readonly liquid: SaturatedLiquid;
 }
 
-/** Liquid evaporated by a steady heat load: Q/(ρ·L) at the normal boiling point. */
-export function boilOffFromHeatLoad(powerW: number, cryogen: Cryogen = "helium"): HeatLoadBoilOff {
+/**
+ * Liquid evaporated by a steady heat load: Q/(ρ·L), with ρ and L at the bath's pressure or
+ * temperature (eos saturation table), or at the normal boiling point (1 atm) when no bath is given.
+ */
+export function boilOffFromHeatLoad(powerW: number, cryogen: Cryogen = "helium", bath?: BathState): HeatLoadBoilOff {
   requireNonNegative("Heat load (W)", powerW);
-  const litresPerSecond = powerW / joulesPerLiquidLitre(cryogen);
-  return { litresPerHour: litresPerSecond * 3600, litresPerDay: litresPerSecond * 86_400 };
+  const liquid = saturatedLiquid(cryogen, bath);
+  const litresPerSecond = (powerW / (liquid.liquidDensityKgPerM3 * liquid.latentHeatJPerKg)) * 1000;
+  return { litresPerHour: litresPerSecond * 3600, litresPerDay: litresPerSecond * 86_400, liquid };
 }

@@ -31,17 +31,29 @@ export function ptResistance(tCelsius: number, r0Ohm = 100): number {
   return r0Ohm * cvdRatio(tCelsius);
 }
 
-/** Temperature in °C from a platinum sensor's resistance (inverse of ptResistance). */
+/** The standard's table prints resistances to 0.01 Ω (Pt100: 18.52 Ω at −200 °C, 390.48 Ω at 850 °C). */
+const roundToTable = (r: number) => Math.round(r * 100) / 100;
+
+/**
+ * Temperature in °C from a platinum sensor's resistance (inverse of ptResistance). The range is
+ * −200…850 °C, edges included: both the exact edge resistances and the table's 0.01 Ω values
+ * (18.52 Ω for a Pt100, which is 0.000 08 Ω below the exact 18.520 08 Ω) are accepted; a reading
+ * between the two is the edge temperature.
+ */
 export function ptTemperature(rOhm: number, r0Ohm = 100): number {
   requirePositive("R0 (Ω)", r0Ohm);
-  const rMin = r0Ohm * cvdRatio(PT_TEMPERATURE_MIN_C);
-  const rMax = r0Ohm * cvdRatio(PT_TEMPERATURE_MAX_C);
+  const rMinExact = r0Ohm * cvdRatio(PT_TEMPERATURE_MIN_C);
+  const rMaxExact = r0Ohm * cvdRatio(PT_TEMPERATURE_MAX_C);
+  const rMin = Math.min(rMinExact, roundToTable(rMinExact));
+  const rMax = Math.max(rMaxExact, roundToTable(rMaxExact));
   requireInRange("Resistance", rOhm, {
     min: rMin,
     max: rMax,
     unit: "Ω",
     text: `${RANGE_TEXT.slice(0, -1)}, ${rMin.toFixed(2)}–${rMax.toFixed(2)} Ω for R0 = ${r0Ohm} Ω)`,
   });
+  if (rOhm <= rMinExact) return PT_TEMPERATURE_MIN_C;
+  if (rOhm >= rMaxExact) return PT_TEMPERATURE_MAX_C;
   const ratio = rOhm / r0Ohm;
   if (ratio >= 1) {
     // Above 0 °C the equation is a quadratic; take the physical root.

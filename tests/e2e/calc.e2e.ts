@@ -81,11 +81,13 @@ describe("calculators", () => {
     // Another section of the same cached page, still offline.
     await page.getByRole("link", { name: "Oxygen", exact: true }).click();
     await page.getByRole("heading", { level: 2, name: "Oxygen deficiency", exact: true }).waitFor();
-    // 30 m³ into the 220 m³ room, mixed: 0.21·220/250 = 18.48 % O2 (hand arithmetic, FESHM 4240 form).
+    // 30 m³ into the 220 m³ room (hand arithmetic, lib/cryo/README.md forms): displacement
+    // 20.9 %·190/220 = 18.05 % O2, the conservative figure; mixed with outflow 20.9 %·e^(−30/220) = 18.24 %.
     await page.getByLabel("Gas released").fill("30");
-    await expect
-      .poll(() => page.locator('dl[aria-label="Sudden release: results"]').innerText())
-      .toContain("18.5 % O₂");
+    const sudden = page.locator('dl[aria-label="Sudden release: results"]');
+    await expect.poll(() => sudden.innerText()).toContain("18.05 % O₂");
+    expect(await sudden.innerText()).toContain("18.24 % O₂");
+    expect(await sudden.innerText()).toContain("conservative figure");
 
     for (const [section, theme] of [
       ["its90", "light"],

@@ -63,6 +63,45 @@ describe("vapour pressure → ITS-90 4He temperature", () => {
   });
 });
 
+describe("still pressure: no vapour-pressure temperature", () => {
+  // The still's vapour is ³He evaporating from a dilute ³He/⁴He mixture: neither ITS-90 helium scale
+  // (Metrologia 27, 3 (1990): saturated vapour over pure ⁴He or pure ³He) gives its temperature.
+  const vapourItems = (d: Derived) =>
+    d.status === "ok" ? d.items.filter((i) => /vapour pressure/i.test(i.label)) : [];
+
+  it("0.08 mbar on Heron's still gives no figure and no scale error, only a labelled note", () => {
+    for (const input of [
+      { cryostat: HERON, quantity: "Still pressure", unit: "mbar", value: "0.08" },
+      { cryostat: HERON, quantity: "Pressure", unit: "mbar", value: "0.08", stage: "still" },
+    ]) {
+      const d = deriveReading(input);
+      expect(d.status).toBe("ok");
+      expect(vapourItems(d)).toEqual([]);
+      if (d.status === "ok") {
+        expect(d.items).toEqual([]);
+        expect(d.note).toMatch(/³He.*dilute.*mixture/);
+      }
+    }
+  });
+
+  it("even when the cryostat names the still as its vapour-pressure stage", () => {
+    const odd: CryostatLike = { id: "odd", config: { ...HERON.config, vapourPressureStage: "still" } };
+    const d = deriveReading({ cryostat: odd, quantity: "Pressure", unit: "mbar", value: 0.08, stage: "still" });
+    expect(d.status).toBe("ok"); // not the ⁴He scale's range error
+    expect(vapourItems(d)).toEqual([]);
+    // a still pressure high enough to lie inside the ⁴He scale still gets no ⁴He temperature
+    expect(vapourItems(deriveReading({ cryostat: odd, quantity: "Still pressure", unit: "mbar", value: 20 }))).toEqual(
+      [],
+    );
+  });
+
+  it("a pure ³He pot keeps its thermometry, on the ³He scale: 1160.1 Pa → 1.000 K (lib/cryo/README.md [calc])", () => {
+    const [t] = items(deriveReading({ cryostat: HERON, quantity: "³He pot pressure", unit: "mbar", value: 11.601 }));
+    expect(t?.label).toBe("Temperature (ITS-90, ³He vapour pressure)");
+    expect(t?.value).toBeCloseTo(1.0, 3);
+  });
+});
+
 describe("helium level → litres and days left", () => {
   it("50 % on Plover is 48.5 L by the reservoir's table (linear between 10 % = 8.5 L and 90 % = 88.5 L, hand arithmetic)", () => {
     const [litres] = items(deriveReading({ cryostat: PLOVER, quantity: "Helium level", unit: "%", value: 50 }));

@@ -4,11 +4,13 @@ import Decimal from "decimal.js";
 import * as math from "mathjs";
 import { describe, expect, it } from "vitest";
 import {
+  absolutePressurePa,
   GAS_CONSTANT_J_PER_MOL_K,
   gasAmount,
   heliumCompressibility20C,
   MOLAR_VOLUME_L_PER_MOL,
   mixtureLoss,
+  STANDARD_ATMOSPHERE_PA,
 } from "@/lib/cryo";
 
 describe("molar volumes and R", () => {
@@ -85,5 +87,38 @@ describe("mixtureLoss", () => {
   it("a pressure rise shows as a negative loss (air leaking in)", () => {
     const loss = mixtureLoss(40, { pressurePa: 80_000, temperatureK: 295 }, { pressurePa: 82_000, temperatureK: 295 });
     expect(loss.litresLost).toBeLessThan(0);
+  });
+});
+
+describe("absolutePressurePa (gauge readings)", () => {
+  it("gauge + barometric; the default barometric is the standard atmosphere, 1013.25 hPa (exact by definition [pub])", () => {
+    expect(STANDARD_ATMOSPHERE_PA).toBe(101_325);
+    expect(absolutePressurePa(200e5, "gauge")).toBe(200e5 + 101_325); // 201.013 25 bar absolute [calc]
+    expect(absolutePressurePa(0, "gauge", 95_000)).toBe(95_000);
+    expect(absolutePressurePa(-20_000, "gauge", 95_000)).toBe(75_000); // a compound gauge below atmosphere
+    expect(absolutePressurePa(81_200, "absolute")).toBe(81_200); // an absolute reading is used as read
+    expect(absolutePressurePa(81_200, "absolute", 95_000)).toBe(81_200);
+  });
+
+  it("10 L at 0 bar gauge under 1000 hPa is the 1.000 bar example: 0.407703 mol at 295.0 K (lib/cryo/README.md [calc])", () => {
+    const a = gasAmount({ pressurePa: absolutePressurePa(0, "gauge", 100_000), volumeLitres: 10, temperatureK: 295 });
+    expect(a.mol).toBeCloseTo(0.407703, 6);
+  });
+
+  it("a 200 bar gauge reading is 0.5 % more gas than the same number taken as absolute ([calc])", () => {
+    const cyl = { volumeLitres: 50, temperatureK: 293.15 };
+    const asGauge = gasAmount({ ...cyl, pressurePa: absolutePressurePa(200e5, "gauge") });
+    const asAbsolute = gasAmount({ ...cyl, pressurePa: absolutePressurePa(200e5, "absolute") });
+    expect(asGauge.mol / asAbsolute.mol).toBeCloseTo(1 + 101_325 / 200e5, 12);
+  });
+
+  it("refuses a reading below vacuum, an implausible barometric pressure and an unknown kind", () => {
+    expect(() => absolutePressurePa(-120_000, "gauge")).toThrow(/below vacuum/);
+    expect(() => absolutePressurePa(-1, "absolute")).toThrow(RangeError);
+    expect(() => absolutePressurePa(1e5, "gauge", 1013.25)).toThrow(
+      /Barometric pressure 10\.13 hPa is below the plausible room barometric pressure \(500–1100 hPa\)/,
+    );
+    expect(() => absolutePressurePa(1e5, "psig" as never)).toThrow(/gauge or absolute/);
+    expect(() => absolutePressurePa(Number.NaN, "gauge")).toThrow(/finite/);
   });
 });

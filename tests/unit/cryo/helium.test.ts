@@ -11,9 +11,12 @@ import {
   forecastMinimumLevel,
   gasLitresFromLiquid,
   HELIUM_LIQUID_DENSITY_KG_PER_L,
+  he4TemperatureFromPressure,
   type LevelReading,
   litresFromLevel,
   litresFromMass,
+  litresFromMassAt,
+  saturatedLiquid,
   transferEfficiency,
 } from "@/lib/cryo";
 
@@ -195,5 +198,80 @@ describe("boilOffFromHeatLoad", () => {
     const perW = math.unit(1 / (124.6692678654977 * 20564.394565990526), "m^3/J");
     const lPerH = math.multiply(math.multiply(perW, math.unit(1, "W")), math.unit(1, "h")) as math.Unit;
     expect(boilOffFromHeatLoad(1).litresPerHour).toBeCloseTo(lPerH.toNumber("L"), 10);
+  });
+});
+
+// The saturation table of cryogens-eos.json (CoolProp 8.0.0; helium after Ortiz-Vega et al., J. Phys.
+// Chem. Ref. Data 2019; nitrogen after Span et al., J. Phys. Chem. Ref. Data 29 (2000)) [eos].
+describe("saturatedLiquid: properties at the bath's pressure or temperature", () => {
+  it("no bath given: the normal boiling point at 1 atm (124.67 kg/m³, 20.564 kJ/kg [eos])", () => {
+    const l = saturatedLiquid("helium");
+    expect(l.atNormalBoilingPoint).toBe(true);
+    expect(l.pressurePa).toBe(101_325);
+    expect(l.liquidDensityKgPerM3).toBeCloseTo(124.669, 3);
+    expect(l.latentHeatJPerKg).toBeCloseTo(20_564.4, 1);
+  });
+
+  it("helium at 3.0 K / 24 061 Pa: 141.20 kg/m³, 23.506 kJ/kg (eos saturation table row [eos])", () => {
+    for (const bath of [{ temperatureK: 3.0 }, { pressurePa: 24_061.385012 }]) {
+      const l = saturatedLiquid("helium", bath);
+      expect(l.atNormalBoilingPoint).toBe(false);
+      expect(l.temperatureK).toBeCloseTo(3.0, 9);
+      expect(l.pressurePa).toBeCloseTo(24_061.385, 3);
+      expect(l.liquidDensityKgPerM3).toBeCloseTo(141.2004, 4);
+      expect(l.latentHeatJPerKg).toBeCloseTo(23_506.32, 2);
+    }
+  });
+
+  it("between rows the bath temperature agrees with ITS-90 (Metrologia 27, 3 (1990)) within 5 mK", () => {
+    for (const pa of [15_000, 50_000, 150_000]) {
+      expect(
+        Math.abs(saturatedLiquid("helium", { pressurePa: pa }).temperatureK - he4TemperatureFromPressure(pa)),
+      ).toBeLessThan(0.005);
+    }
+  });
+
+  it("nitrogen at 70 K: 838.51 kg/m³, 208.07 kJ/kg (eos saturation table row [eos])", () => {
+    const l = saturatedLiquid("nitrogen", { temperatureK: 70 });
+    expect(l.liquidDensityKgPerM3).toBeCloseTo(838.515, 3);
+    expect(l.latentHeatJPerKg).toBeCloseTo(208_068.67, 2);
+  });
+
+  it("outside the table it refuses and says the 1 atm figure does not hold there", () => {
+    expect(() => saturatedLiquid("helium", { temperatureK: 1.5 })).toThrow(
+      /below the equation-of-state saturation table's range for helium \(2\.2–5 K/,
+    );
+    expect(() => saturatedLiquid("helium", { pressurePa: 470 })).toThrow(/1 atm figures do not hold/);
+    expect(() => saturatedLiquid("helium", { pressurePa: 3e5 })).toThrow(/above/);
+  });
+});
+
+describe("boil-off and litres at the bath's condition", () => {
+  it("1 W in a helium bath pumped to 3.0 K boils 1.0846 L/h, not the 1.40 L/h of 1 atm (eos row 3.0 K: 3600/(141.2004·23.50632) [calc])", () => {
+    const b = boilOffFromHeatLoad(1, "helium", { temperatureK: 3.0 });
+    expect(b.litresPerHour).toBeCloseTo(1.08463, 4);
+    expect(b.liquid.temperatureK).toBeCloseTo(3.0, 9);
+    expect(b.liquid.atNormalBoilingPoint).toBe(false);
+  });
+
+  it("a dewar pressurised to 130 056 Pa (4.5 K) boils 1.6340 L/h per W (eos row 4.5 K [calc])", () => {
+    expect(boilOffFromHeatLoad(1, "helium", { pressurePa: 130_056.1468 }).litresPerHour).toBeCloseTo(1.634, 3);
+  });
+
+  it("without a bath the figure says it holds at 1 atm", () => {
+    const b = boilOffFromHeatLoad(1);
+    expect(b.liquid.atNormalBoilingPoint).toBe(true);
+    expect(b.litresPerHour).toBeCloseTo(1.40419, 4); // 3600/(124.6693·20.5644) [calc, eos]
+  });
+
+  it("litres from mass: 14.120 kg of helium at 3.0 K is 100.0 L (141.2004 kg/m³ [eos]); at 1 atm 113.26 L", () => {
+    const at3K = litresFromMassAt(14.120044468, { temperatureK: 3.0 });
+    expect(at3K.litres).toBeCloseTo(100, 6);
+    expect(at3K.liquid.atNormalBoilingPoint).toBe(false);
+    const atNbp = litresFromMassAt(14.120044468);
+    expect(atNbp.litres).toBeCloseTo(litresFromMass(14.120044468), 12);
+    expect(atNbp.liquid.atNormalBoilingPoint).toBe(true);
+    expect(atNbp.litres).toBeCloseTo(113.26, 2); // 14.12004/0.1246693 [calc, eos]
+    expect(() => litresFromMassAt(-1)).toThrow(RangeError);
   });
 });

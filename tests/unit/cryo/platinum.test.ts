@@ -45,6 +45,19 @@ describe("ptTemperature (inverse)", () => {
     expect(() => ptTemperature(400)).toThrow(RangeError);
   });
 
+  it("the lower edge named in the message is accepted: 18.52 Ω is −200 °C in the IEC 60751 table [pub]", () => {
+    expect(ptTemperature(18.52)).toBeCloseTo(-200, 9);
+    expect(ptTemperature(185.2, 1000)).toBeCloseTo(-200, 9); // Pt1000 table: 185.20 Ω at −200 °C [pub]
+    expect(ptTemperature(ptResistance(-200))).toBeCloseTo(-200, 9); // the exact 18.520 08 Ω [calc]
+    expect(() => ptTemperature(18.51)).toThrow(/below the IEC 60751 range \(-200…850 °C, 18\.52–390\.48 Ω/);
+  });
+
+  it("the upper edge likewise: 390.48 Ω (table) and the exact 390.481 Ω are 850 °C [pub, calc]", () => {
+    expect(ptTemperature(390.48)).toBeCloseTo(850, 1);
+    expect(ptTemperature(ptResistance(850))).toBeCloseTo(850, 9);
+    expect(() => ptTemperature(390.49)).toThrow(/above the IEC 60751 range/);
+  });
+
   it("ptTemperature(ptResistance(t)) ≈ t over the whole range (fast-check property)", () => {
     fc.assert(
       fc.property(fc.double({ min: -200, max: 850, noNaN: true }), fc.constantFrom(100, 500, 1000), (t, r0) => {

@@ -2,12 +2,14 @@
 // Helium bookkeeping and magnet calculators. Presets come from the cryostats remembered at the
 // last online visit (reservoir calibration, magnet parameters); every figure can be overridden.
 import { useState } from "react";
-import { Calculator, parsePairs } from "@/components/cryo/calc-kit";
+import { Calculator, type Inputs, parsePairs, type ResultRow, readsFields } from "@/components/cryo/calc-kit";
 import { durationText, figure } from "@/components/cryo/derive";
 import { EstimateNote } from "@/components/cryo/estimate-note";
 import { Caution } from "@/components/safety/caution";
 import { type Choice, OptionList } from "@/components/ui/form";
 import {
+  absolutePressurePa,
+  type BathState,
   boilOffFromHeatLoad,
   boilOffRate,
   contourDistance,
@@ -19,10 +21,13 @@ import {
   gasLitresFromLiquid,
   type LevelCalibration,
   litresFromLevel,
-  litresFromMass,
+  litresFromMassAt,
   type MagnetSpec,
+  type PressureReading,
   quenchBoilOffLitresMax,
   rampTime,
+  SATURATION_RANGE,
+  type SaturatedLiquid,
   storedEnergyJ,
   transferEfficiency,
 } from "@/lib/cryo";
@@ -73,6 +78,47 @@ function PresetPicker({
     </label>
   );
 }
+
+/** The bath's pressure or temperature; both empty: the normal boiling point (1 atm). */
+const BATH_FIELDS = [
+  {
+    key: "bp",
+    label: "Bath pressure (empty: 1 atm)",
+    unit: "mbar",
+    initial: "",
+    optional: true,
+    match: /^Bath pressure|below vacuum/,
+  },
+  ...readsFields("absolute"),
+  { key: "bt", label: "…or bath temperature", unit: "K", initial: "", optional: true, match: /^Bath temperature/ },
+] as const;
+
+function bathFrom({ n, s }: Inputs): BathState | undefined {
+  if (Number.isFinite(n.bp))
+    return { pressurePa: absolutePressurePa(n.bp! * 100, s.reads as PressureReading, n.baro! * 100) };
+  if (Number.isFinite(n.bt)) return { temperatureK: n.bt! };
+  return undefined;
+}
+
+function liquidRows(l: SaturatedLiquid): ResultRow[] {
+  return [
+    {
+      label: "Liquid taken at",
+      text: l.atNormalBoilingPoint
+        ? `1 atm only: normal boiling point, ${figure(l.temperatureK, 4)} K`
+        : `${figure(l.temperatureK, 4)} K, ${figure(l.pressurePa / 100, 4)} mbar absolute (saturated)`,
+    },
+    {
+      label: "Density, latent heat",
+      text: `${figure(l.liquidDensityKgPerM3, 5)} kg/m³, ${figure(l.latentHeatJPerKg / 1000, 4)} kJ/kg`,
+    },
+  ];
+}
+
+const bathNote = (cryogen: "helium" | "nitrogen") => {
+  const r = SATURATION_RANGE[cryogen];
+  return `A bath's pressure or temperature is taken from the equation-of-state saturation table (${cryogen}: ${figure(r.temperatureMinK)}–${figure(r.temperatureMaxK)} K); outside it nothing is given, the 1 atm figures included.`;
+};
 
 const CUSTOM_LEVEL: LevelCalibration = { kind: "linear", litresPerPercent: 1, offsetLitres: 0 };
 
@@ -166,9 +212,13 @@ export function HeliumSection() {
       />
       <Calculator
         title="Weighed dewar → litres"
-        intro="Net mass (gross minus tare) at liquid density 0.1247 kg/L (normal boiling point)."
-        fields={[{ key: "kg", label: "Net mass", unit: "kg", initial: "12.5", match: /mass/i }]}
-        compute={({ n }) => [{ label: "Liquid helium", text: `${figure(litresFromMass(n.kg!), 4)} L` }]}
+        intro="Net mass (gross minus tare) of liquid helium, at the liquid density of the dewar's pressure or temperature; left empty, at the normal boiling point (0.1247 kg/L, 1 atm only)."
+        fields={[{ key: "kg", label: "Net mass", unit: "kg", initial: "12.5", match: /mass/i }, ...BATH_FIELDS]}
+        compute={(inputs) => {
+          const m = litresFromMassAt(inputs.n.kg!, bathFrom(inputs));
+          return [{ label: "Liquid helium", text: `${figure(m.litres, 4)} L` }, ...liquidRows(m.liquid)];
+        }}
+        footer={<p className="text-base text-muted">{bathNote("helium")}</p>}
       />
       <Calculator
         title="Liquid → gas"
@@ -218,16 +268,25 @@ export function HeliumSection() {
       />
       <Calculator
         title="Heat load → boil-off"
-        fields={[{ key: "w", label: "Heat load", unit: "W", initial: "0.1", match: /Heat/ }, CRYOGEN_FIELD]}
-        compute={({ n, s }) => {
-          const b = boilOffFromHeatLoad(n.w!, s.cry as "helium" | "nitrogen");
+        fields={[
+          { key: "w", label: "Heat load", unit: "W", initial: "0.1", match: /Heat/ },
+          CRYOGEN_FIELD,
+          ...BATH_FIELDS,
+        ]}
+        compute={(inputs) => {
+          const b = boilOffFromHeatLoad(inputs.n.w!, inputs.s.cry as "helium" | "nitrogen", bathFrom(inputs));
           return [
             { label: "Boil-off", text: `${figure(b.litresPerHour, 3)} L/h` },
             { label: "Per day", text: `${figure(b.litresPerDay, 3)} L/day` },
+            ...liquidRows(b.liquid),
           ];
         }}
         footer={
-          <p className="text-base text-muted">Q/(ρ·L) at the normal boiling point; 1 W ≈ 1.4 L/h of liquid helium.</p>
+          <p className="text-base text-muted">
+            Q/(ρ·L), liquid litres at the bath&apos;s condition; at 1 atm, 1 W ≈ 1.4 L/h of liquid helium.{" "}
+            {bathNote("helium")} Nitrogen: {figure(SATURATION_RANGE.nitrogen.temperatureMinK)}–
+            {figure(SATURATION_RANGE.nitrogen.temperatureMaxK)} K.
+          </p>
         }
       />
     </>

@@ -1,12 +1,14 @@
 "use client";
-import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS, type ResultRow } from "@/components/cryo/calc-kit";
+import { Calculator, PRESSURE_OPTIONS, PRESSURE_UNITS, type ResultRow, readsFields } from "@/components/cryo/calc-kit";
 import { durationText, figure } from "@/components/cryo/derive";
 import { EstimateNote } from "@/components/cryo/estimate-note";
 import { Caution } from "@/components/safety/caution";
 // Oxygen deficiency estimates (room B-014 defaults: 220 m³, 4 air changes per hour) and gas
 // accounting (tank amounts, mixture loss between warmup and cooldown).
 import {
+  absolutePressurePa,
   classifyOxygen,
+  continuousReleaseOxygen,
   type GasReference,
   gasAmount,
   gasLitresFromLiquid,
@@ -14,12 +16,14 @@ import {
   MOLAR_VOLUME_REFERENCES,
   type MolarVolumeReference,
   mixtureLoss,
-  oxygenAfterDisplacement,
-  oxygenAfterMixedRelease,
-  oxygenDuringRelease,
+  type OxygenEstimate,
+  type PressureReading,
   quenchGasVolume,
+  type SuddenRelease,
   steadyStateOxygen,
+  suddenReleaseOxygen,
   timeToOxygenFraction,
+  type VentilationKind,
   ventilationFromAirChanges,
 } from "@/lib/cryo";
 import { REFERENCE_OPTIONS, refLabel } from "./helium-magnet";
@@ -38,16 +42,30 @@ function oxygenRow(label: string, fraction: number): ResultRow {
   const c = classifyOxygen(fraction);
   return {
     label,
-    text: `${figure(fraction * 100, 3)} % O₂ — ${STATUS_TEXT[c.status]}`,
+    // Two decimals, so a figure just below a threshold never reads as the threshold itself.
+    text: `${(fraction * 100).toFixed(2)} % O₂ — ${STATUS_TEXT[c.status]}`,
     tone: c.status === "normal" ? "ok" : c.status === "alarm" ? "warn" : "danger",
   };
 }
 
+/** Both sudden-release figures, each named by its model, the conservative one first. */
+function suddenRows(release: SuddenRelease): ResultRow[] {
+  const s = suddenReleaseOxygen(release);
+  return s.estimates.map((e: OxygenEstimate) =>
+    oxygenRow(e === s.conservative ? `${e.label} — conservative figure` : e.label, e.fraction),
+  );
+}
+
+const VENTILATION_OPTIONS: { value: VentilationKind; label: string }[] = [
+  { value: "supply", label: "Supply: fresh air blown in" },
+  { value: "exhaust", label: "Exhaust: room air extracted" },
+];
+
 const caution = <EstimateNote topic="oxygen" />;
 const thresholds = (
   <p className="text-base text-muted">
-    Alarm 19.5 % (OSHA 29 CFR 1910.146: oxygen-deficient below it), leave at 18 % (common practice) — the facility sets
-    its own points.
+    Fresh air 20.9 % O₂. Alarm below 19.5 % (OSHA 29 CFR 1910.146: oxygen-deficient below it), leave below 18 % (common
+    practice) — the facility sets its own points.
   </p>
 );
 
@@ -57,7 +75,7 @@ export function OxygenSection() {
       <Caution topic="oxygen" className="lg:col-span-2" />
       <Calculator
         title="Sudden release"
-        intro="A volume of gas released at once into the room."
+        intro="A volume of gas released at once into the room. Two models: the gas pushes room air out unmixed (the worst case), or it mixes in while mixed air leaves — the same well-mixed room as the continuous release, released fast."
         fields={[
           {
             key: "v",
@@ -68,13 +86,7 @@ export function OxygenSection() {
           },
           { key: "g", label: "Gas released (room conditions)", unit: "m³", initial: "20", match: /Released/ },
         ]}
-        compute={({ n }) => [
-          oxygenRow("Mixed, pushing air out", oxygenAfterMixedRelease({ roomVolumeM3: n.v!, gasVolumeM3: n.g! })),
-          oxygenRow(
-            "Displacing air, no mixing (worst case)",
-            oxygenAfterDisplacement({ roomVolumeM3: n.v!, gasVolumeM3: n.g! }),
-          ),
-        ]}
+        compute={({ n }) => suddenRows({ roomVolumeM3: n.v!, gasVolumeM3: n.g! })}
         footer={
           <>
             {thresholds}
@@ -84,6 +96,7 @@ export function OxygenSection() {
       />
       <Calculator
         title="Continuous release with ventilation"
+        intro="Well-mixed room: fresh air and gas come in, the same volume of mixed air leaves. With exhaust ventilation the fresh air drawn in is the extract minus the release, so the room fares worse than with the same supply."
         fields={[
           {
             key: "v",
@@ -99,18 +112,21 @@ export function OxygenSection() {
             initial: String(ROOM_DEFAULTS.airChangesPerHour),
             match: /Air changes|Ventilation/,
           },
+          { kind: "select", key: "kind", label: "Ventilation", initial: "exhaust", options: VENTILATION_OPTIONS },
           { key: "r", label: "Release rate (gas)", unit: "m³/min", initial: "1", match: /Release rate/ },
           { key: "t", label: "After", unit: "min", initial: "10", match: /Time/ },
         ]}
-        compute={({ n }) => {
+        compute={({ n, s }) => {
           const release = {
             roomVolumeM3: n.v!,
             releaseM3PerS: n.r! / 60,
             ventilationM3PerS: ventilationFromAirChanges(n.v!, n.ach!),
+            ventilationKind: s.kind as VentilationKind,
           };
+          const at = continuousReleaseOxygen(release, n.t! * 60);
           const to = timeToOxygenFraction(release, 0.195);
           return [
-            oxygenRow(`After ${figure(n.t!)} min`, oxygenDuringRelease(release, n.t! * 60)),
+            oxygenRow(`After ${figure(n.t!)} min — ${at.label}`, at.fraction),
             oxygenRow("Settles at", steadyStateOxygen(release)),
             to.reached
               ? { label: "Reaches 19.5 % after", text: durationText(to.timeS / 60), tone: "warn" }
@@ -142,14 +158,7 @@ export function OxygenSection() {
           const gas = quenchGasVolume(n.l!, s.ref as GasReference);
           return [
             { label: "Helium gas", text: `${figure(gas.gasM3, 3)} m³ at ${refLabel(s.ref)}` },
-            oxygenRow(
-              "Mixed, pushing air out",
-              oxygenAfterMixedRelease({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 }),
-            ),
-            oxygenRow(
-              "Displacing air (worst case)",
-              oxygenAfterDisplacement({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 }),
-            ),
+            ...suddenRows({ roomVolumeM3: n.v!, gasVolumeM3: gas.gasM3 }),
           ];
         }}
         footer={
@@ -168,15 +177,18 @@ export function OxygenSection() {
 
 const MOLAR_OPTIONS = MOLAR_VOLUME_REFERENCES.map((r) => ({ value: r, label: refLabel(r) }));
 
+const absoluteText = (pa: number) => `${figure(pa / 1e5, 5)} bar (${figure(pa / 100, 5)} mbar)`;
+
 export function GasSection() {
   return (
     <>
       <Calculator
         title="Gas in a tank or cylinder"
-        intro="n = pV/(ZRT), absolute pressure. For helium at 20 °C the compressibility Z is taken from the equation of state (1–300 bar) unless you give one."
+        intro="n = pV/(ZRT) takes the absolute pressure. Cylinder gauges usually read gauge pressure (above the room's air): the room's barometric pressure is then added. For helium at 20 °C the compressibility Z is taken from the equation of state (1–300 bar) unless you give one."
         fields={[
           { kind: "select", key: "unit", label: "Pressure unit", initial: "bar", options: PRESSURE_OPTIONS },
-          { key: "p", label: "Pressure (absolute)", initial: "200", match: /^Pressure/ },
+          { key: "p", label: "Pressure as read", initial: "200", match: /^Pressure/ },
+          ...readsFields("gauge"),
           { key: "v", label: "Volume", unit: "L", initial: "50", match: /volume/i },
           { key: "t", label: "Temperature", unit: "°C", initial: "20", match: /^Temperature/ },
           {
@@ -189,7 +201,11 @@ export function GasSection() {
           { kind: "select", key: "ref", label: "Litres at", initial: "0C_1atm", options: MOLAR_OPTIONS },
         ]}
         compute={({ n, s }) => {
-          const pa = n.p! * (PRESSURE_UNITS[s.unit!] ?? NaN);
+          const pa = absolutePressurePa(
+            n.p! * (PRESSURE_UNITS[s.unit!] ?? NaN),
+            s.reads as PressureReading,
+            n.baro! * 100,
+          );
           let z = n.z!;
           let zNote = "given";
           if (!Number.isFinite(z)) {
@@ -206,6 +222,7 @@ export function GasSection() {
             s.ref as MolarVolumeReference,
           );
           return [
+            { label: "Absolute pressure used", text: absoluteText(pa) },
             { label: "Amount", text: `${figure(g.mol, 4)} mol` },
             { label: `Gas at ${refLabel(s.ref)}`, text: `${figure(g.litresAtReference, 4)} L` },
             {
@@ -217,7 +234,9 @@ export function GasSection() {
         }}
         footer={
           <p className="text-base text-muted">
-            High-pressure cylinders: the usual cylinder cautions and the supplier&apos;s instructions apply.
+            A gauge reading needs the room&apos;s barometric pressure (1013.25 hPa is the standard atmosphere; the
+            room&apos;s own barometer is better). High-pressure cylinders: the usual cylinder cautions, the
+            supplier&apos;s instructions and the facility&apos;s rules apply.
           </p>
         }
       />
@@ -226,16 +245,18 @@ export function GasSection() {
         intro="The same storage tank read twice with all the mixture in it."
         fields={[
           { key: "v", label: "Tank volume", unit: "L", initial: "40", match: /Tank volume/ },
+          ...readsFields("absolute"),
           { key: "p1", label: "Pressure before", unit: "mbar", initial: "812", match: /^Pressure.*before|^Pressure/ },
           { key: "t1", label: "Temperature before", unit: "K", initial: "295", match: /^Temperature/ },
           { key: "p2", label: "Pressure after", unit: "mbar", initial: "806" },
           { key: "t2", label: "Temperature after", unit: "K", initial: "295" },
         ]}
-        compute={({ n }) => {
+        compute={({ n, s }) => {
+          const abs = (mbar: number) => absolutePressurePa(mbar * 100, s.reads as PressureReading, n.baro! * 100);
           const loss = mixtureLoss(
             n.v!,
-            { pressurePa: n.p1! * 100, temperatureK: n.t1! },
-            { pressurePa: n.p2! * 100, temperatureK: n.t2! },
+            { pressurePa: abs(n.p1!), temperatureK: n.t1! },
+            { pressurePa: abs(n.p2!), temperatureK: n.t2! },
           );
           return [
             {
