@@ -14,6 +14,7 @@ import {
   type SignatureMeaning,
 } from "@/lib/schemas/entry";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
+import { hmacHex, passwordProofKey, signingMessage } from "@/lib/signing/proof";
 import { recordHash } from "@/lib/sync/hash";
 import type { Db } from "./client";
 import { appendEntries } from "./queries/entries";
@@ -465,8 +466,14 @@ function toEntry(d: Draft): EntryInput {
   return parsed.entry;
 }
 
-/** Signatures: handovers handed over by the author and accepted by the recipient; transfers signed as performed. */
-function withSignatures(list: EntryInput[]): EntryInput[] {
+/**
+ * Signatures: handovers handed over by the author and accepted by the recipient; transfers signed
+ * as performed. Each is confirmed the way a person signing online confirms it: with a password
+ * proof for exactly that record and meaning (lib/signing/proof.ts), so the server checks it like
+ * any other and the auditor sees the identity confirmed.
+ */
+function withSignatures(list: EntryInput[], passwordHash: string): EntryInput[] {
+  const proofKey = passwordProofKey(passwordHash);
   const out: EntryInput[] = [];
   for (const e of list) {
     out.push(e);
@@ -488,7 +495,18 @@ function withSignatures(list: EntryInput[]): EntryInput[] {
           cryostatId: e.cryostatId,
           kind: "signature",
           author: u.id,
-          payload: { signedEntryId: e.id, meaning, signerName: u.name, signerRole: u.role, signedHash: recordHash(e) },
+          payload: {
+            signedEntryId: e.id,
+            meaning,
+            signerName: u.name,
+            signerRole: u.role,
+            signedHash: recordHash(e),
+            confirmedBy: "password",
+            confirmProof: hmacHex(
+              proofKey,
+              signingMessage({ signedEntryId: e.id, signedHash: recordHash(e), meaning, signerId: u.id }),
+            ),
+          },
         }),
       );
     }
@@ -512,7 +530,7 @@ export async function seedIfEmpty(db: Db, now = Date.now()): Promise<boolean> {
       .insert(procedureTemplates)
       .values(DEFAULT_TEMPLATES.map((t) => ({ ...t, id: randomUUID(), version: 1, createdBy: "u-ines" })));
   }
-  const all = withSignatures(demoHistory(now).map(toEntry));
+  const all = withSignatures(demoHistory(now).map(toEntry), passwordHash);
   // Written through the normal append path (checks, hash chain, projections), each entry checked
   // in its author's own role, in batches.
   const authors = new Map(DEMO_USERS.map((u) => [u.id, u]));

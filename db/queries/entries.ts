@@ -4,7 +4,8 @@ import { createHash } from "node:crypto";
 import { and, desc, eq, getTableColumns, gt, inArray, lt, notInArray, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { chainHeads, cryostats, devices, entries, users } from "@/db/schema";
-import { mayRead, maySign, mayWrite, readableKindsExcluded } from "@/lib/auth/permissions";
+import { mayRead, maySign, readableKindsExcluded } from "@/lib/auth/permissions";
+import { placeRefusal, textRefusal, timeRefusal } from "@/lib/record/rules";
 import type { EntryInput, StoredEntry } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
 import { chainOf, genesisHash, linkText, recordHash } from "@/lib/sync/hash";
@@ -35,8 +36,15 @@ export async function appendEntries(
   db: Db,
   user: SessionUser,
   batch: EntryInput[],
-  /** Import and demo seeding only: entries may carry these other authors, each checked in their own role. */
-  { importAuthors }: { importAuthors?: Map<string, SessionUser> } = {},
+  {
+    importAuthors,
+    now = new Date(),
+  }: {
+    /** Import and demo seeding only: entries may carry these other authors, each checked in their own role. */
+    importAuthors?: Map<string, SessionUser>;
+    /** The server's clock (tests set it): receivedAt, and what "ahead of the server's clock" means. */
+    now?: Date;
+  } = {},
 ): Promise<PushResult> {
   return db.transaction(async (tx) => {
     const t = tx as unknown as Db;
@@ -63,7 +71,11 @@ export async function appendEntries(
         .filter((d) => d.revokedAt)
         .map((d) => d.id),
     );
-    const knownCryostats = new Set((await t.select({ id: cryostats.id }).from(cryostats)).map((c) => c.id));
+    const cryostatById = new Map(
+      (await t.select({ id: cryostats.id, name: cryostats.name, config: cryostats.config }).from(cryostats)).map(
+        (c) => [c.id, c],
+      ),
+    );
 
     const [{ maxSeq } = { maxSeq: 0 }] = await t
       .select({ maxSeq: sql<number>`coalesce(max(${entries.seq}), 0)::int` })
@@ -74,9 +86,9 @@ export async function appendEntries(
     const rows: (typeof entries.$inferInsert)[] = [];
     const written: StoredEntry[] = []; // the same rows as the projectors read them
     const seenInBatch = new Map<string, EntryInput>();
-    const receivedAt = new Date();
+    const receivedAt = now;
 
-    for (const e of batch) {
+    for (const [index, e] of batch.entries()) {
       const reject = (code: string, message: string) => rejected.push({ id: e.id, code, message });
       const stored = existingById.get(e.id);
       if (stored) {
@@ -112,12 +124,13 @@ export async function appendEntries(
         );
         continue;
       }
-      if (!mayWrite(actor.role, e.kind)) {
-        reject("forbidden:kind", `A ${actor.role.replace("_", " ")} may not record entries of kind "${e.kind}".`);
-        continue;
-      }
-      if (e.cryostatId !== null && !knownCryostats.has(e.cryostatId)) {
-        reject("bad_request:cryostat", `Unknown cryostat "${e.cryostatId}".`);
+      // The record rules that need no look at the log (lib/record/rules.ts).
+      const plain =
+        textRefusal(e) ??
+        timeRefusal(e, receivedAt.getTime()) ??
+        placeRefusal(e, actor, e.cryostatId === null ? null : (cryostatById.get(e.cryostatId) ?? null));
+      if (plain) {
+        reject(plain.code, plain.message);
         continue;
       }
       if (e.kind === "signature") {
@@ -127,7 +140,9 @@ export async function appendEntries(
           continue;
         }
       }
-      const problem = checkedAgainstLog(e) ? await validateAgainstLog(t, e, seenInBatch, actor) : null;
+      const problem = checkedAgainstLog(e)
+        ? await validateAgainstLog(t, e, seenInBatch, actor, batch.slice(index + 1))
+        : null;
       if (problem) {
         reject(problem.code, problem.message);
         continue;

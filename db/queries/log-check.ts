@@ -8,12 +8,17 @@ import type { SessionUser } from "@/lib/schemas/user";
 
 export type Problem = { code: string; message: string };
 
-/** A check of the entries of some kinds: it is handed the entry typed by its kind. */
+/**
+ * A check of the entries of some kinds: it is handed the entry typed by its kind, the entries of
+ * the batch accepted before it (`batch`, by id) and the entries after it, not yet checked
+ * (`ahead`: where a signature sent with the entry is found).
+ */
 export type Check<E extends EntryInput = EntryInput> = (
   db: Db,
   e: E,
   batch: Map<string, EntryInput>,
   user: SessionUser,
+  ahead: readonly EntryInput[],
 ) => Promise<Problem | null>;
 
 export type LogCheck = {
@@ -29,7 +34,7 @@ export function forKinds<K extends EntryKind>(
 ): LogCheck {
   return {
     when: (e) => isKindOf(e, kinds),
-    check: async (db, e, batch, user) => (isKindOf(e, kinds) ? check(db, e, batch, user) : null),
+    check: async (db, e, batch, user, ahead) => (isKindOf(e, kinds) ? check(db, e, batch, user, ahead) : null),
   };
 }
 

@@ -3,7 +3,14 @@
 // transaction has committed; the sync loop sends it later. See lib/local/README.md.
 import type { EntryKind } from "@/lib/schemas/entry";
 import { localDb, type StoredLocalEntry } from "./db";
-import { type EntryDraft, putAttachmentIn, type RecordedOf, recordDrafts, recordEntriesIn } from "./store";
+import {
+  type EntryDraft,
+  putAttachmentIn,
+  type RecordedOf,
+  recordDrafts,
+  recordEntriesIn,
+  recordSignedIn,
+} from "./store";
 
 export type { Rejection, StoredLocalEntry, SyncState } from "./db";
 export type { DraftOf, EntryDraft, LocalWriteCode, RecordedOf } from "./store";
@@ -23,6 +30,17 @@ export async function recordEntry<K extends EntryKind>(draft: EntryDraft<K>): Pr
 /** Record several entries atomically (all or none), in the given order; each comes back typed by its kind. */
 export async function recordEntries<const D extends readonly EntryDraft[]>(drafts: D): Promise<RecordedOf<D>> {
   return recordEntriesIn(localDb(), drafts);
+}
+
+/**
+ * Record an entry and its writer's signature on it atomically (see recordSignedIn in store.ts):
+ * a run's completion, a correction of someone else's record.
+ */
+export async function recordSigned<K extends EntryKind>(
+  draft: EntryDraft<K>,
+  sign: (entry: StoredLocalEntry<K>) => Promise<EntryDraft<"signature">>,
+): Promise<[StoredLocalEntry<K>, StoredLocalEntry<"signature">]> {
+  return recordSignedIn(localDb(), draft, sign);
 }
 
 /**

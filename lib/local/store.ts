@@ -1,7 +1,9 @@
 // Writing on the tablet: an entry and its outbox row in one Dexie transaction (and a photo blob),
 // with the offline session and device id the entry is stamped with. Every function takes the
 // Dexie instance first so tests can run several simulated tablets side by side.
+
 import { mayWrite } from "@/lib/auth/permissions";
+import { textRefusal } from "@/lib/record/rules";
 import { type EntryInput, type EntryKind, type PayloadInput, parseEntry } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
 import { canonicalJson } from "@/lib/sync/hash";
@@ -126,6 +128,9 @@ export function buildEntry(draft: AnyDraft, authorId: string, deviceId: string, 
       `This ${draft.kind} entry is not complete: ${parsed.problems.join("; ")}`,
       parsed.problems,
     );
+  // The server refuses text it cannot store; say so before the entry is saved, not after the push.
+  const text = textRefusal(parsed.entry);
+  if (text) throw new LocalWriteError("invalid", text.message, [text.message]);
   return parsed.entry;
 }
 
@@ -152,7 +157,14 @@ function prepare(
     }
   }
   // Built (and so validated) before anything is written: an invalid draft writes nothing.
-  const built = drafts.map((d) => buildEntry(d, signer.user.id, signer.deviceId, now));
+  return ready(
+    drafts.map((d) => buildEntry(d, signer.user.id, signer.deviceId, now)),
+    now,
+  );
+}
+
+/** The stored rows and outbox rows of entries already built. */
+function ready(built: EntryInput[], now: Date): { stored: StoredLocalEntry[]; rows: OutboxRow[] } {
   const rows = built.map((e) => ({
     entryId: e.id,
     authorId: e.authorId,
@@ -269,6 +281,43 @@ async function recordList(db: RimelogDexie, drafts: readonly AnyDraft[], now: Da
   }
   emitLocalWrite();
   return stored;
+}
+
+/**
+ * Record an entry together with its writer's signature on it, in one transaction: both or
+ * neither, so they reach the server in the same push (the server refuses a run's completion, or
+ * a correction of someone else's record, that arrives without its signature). `sign` is handed
+ * the entry exactly as it will be stored (its hash is what the signature binds) and returns the
+ * signature's draft; it may be slow (a PIN check, a password proof from the server), so it runs
+ * before the write, and the write is refused if someone else signed in meanwhile.
+ */
+export async function recordSignedIn<K extends EntryKind>(
+  db: RimelogDexie,
+  draft: EntryDraft<K>,
+  sign: (entry: StoredLocalEntry<K>) => Promise<EntryDraft<"signature">>,
+  now = new Date(),
+): Promise<[StoredLocalEntry<K>, StoredLocalEntry<"signature">]> {
+  let stored: StoredLocalEntry[];
+  try {
+    const session = await db.getMeta("session");
+    const problem = sessionProblem(session, now.getTime());
+    if (problem || !session) throw problem;
+    const signer = { user: session.user, deviceId: await ensureDeviceId(db) };
+    const [record] = prepare([draft], signer, now).stored;
+    if (!record) throw new Error("recordSignedIn: nothing to record");
+    const signature = buildEntry(await sign(record as StoredLocalEntry<K>), signer.user.id, signer.deviceId, now);
+    const both = ready([record, signature], now);
+    if (!(await writePrepared(db, signer, both, now)))
+      throw new LocalWriteError(
+        "no_session",
+        "Someone else signed in on this tablet while you were signing: nothing was saved. Sign in again and repeat it.",
+      );
+    stored = both.stored;
+  } catch (e) {
+    throw toLocalWriteError(e);
+  }
+  emitLocalWrite();
+  return stored as [StoredLocalEntry<K>, StoredLocalEntry<"signature">];
 }
 
 /** Keep a photo or file on the tablet for upload; entries refer to it by the returned id. */

@@ -3,11 +3,12 @@
 // signed), abort with a reason, and signing a completion whose signature did not go through.
 import { useState } from "react";
 import { SignDialog } from "@/components/signature/sign-dialog";
-import { writeSignature } from "@/components/signature/write-signature";
+import { recordAndSign, writeSignature } from "@/components/signature/write-signature";
 import { Button } from "@/components/ui/button";
 import { Panel } from "@/components/ui/panel";
 import { recordEntry, type StoredLocalEntry } from "@/lib/local/record";
 import type { RunState } from "@/lib/procedures/state";
+import { completionRefusal } from "@/lib/record/rules";
 import { type Ctx, errorText } from "./context";
 
 export function RunEnd({ ctx, state }: { ctx: Ctx; state: RunState<StoredLocalEntry> }) {
@@ -31,9 +32,7 @@ export function RunEnd({ ctx, state }: { ctx: Ctx; state: RunState<StoredLocalEn
         </Button>
       </div>
       {!state.canComplete && (
-        <p className="text-muted">
-          Complete becomes possible when every required step is done and every hold point is signed.
-        </p>
+        <p className="text-muted">{completionRefusal(state, { completionSigned: true })?.message}</p>
       )}
       {aborting && (
         <div className="flex flex-col gap-2">
@@ -76,13 +75,13 @@ export function RunEnd({ ctx, state }: { ctx: Ctx; state: RunState<StoredLocalEn
           title="Complete the procedure"
           onClose={() => setSigning(false)}
           onSign={async (c) => {
-            const done = await recordEntry({
-              cryostatId: ctx.cryostatId,
-              runId: state.runId,
-              kind: "run.complete",
-              payload: {},
-            });
-            await writeSignature(done, ctx.me, "performed", c);
+            // The completion and its signature in one write: the server refuses a completion sent without it.
+            await recordAndSign(
+              { cryostatId: ctx.cryostatId, runId: state.runId, kind: "run.complete", payload: {} },
+              ctx.me,
+              "performed",
+              c,
+            );
           }}
         >
           <p>

@@ -1,0 +1,128 @@
+// The server's side of the record rules (lib/record/rules.ts): each check looks up the facts a
+// rule needs — the corrected record, the signed record, the run so far, the signatures sent with
+// an entry — and lets the pure rule decide. The tablet runs the same rules on its own copy.
+import { and, eq, or } from "drizzle-orm";
+import type { Db } from "@/db/client";
+import { entries, procedureTemplates, signatures, users } from "@/db/schema";
+import { deriveRun, type PinnedTemplate, type RunEntry } from "@/lib/procedures/state";
+import { completionRefusal, correctionRefusal, signatureRefusal } from "@/lib/record/rules";
+import { type EntryInput, isKind, type SignatureMeaning } from "@/lib/schemas/entry";
+import type { SessionUser } from "@/lib/schemas/user";
+import { verifyConfirmation } from "@/lib/signing/proof";
+import { recordHash } from "@/lib/sync/hash";
+import { type Check, forKinds, type LogCheck } from "./log-check";
+import { toStoredRow } from "./stored";
+
+async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Promise<EntryInput | undefined> {
+  const inBatch = batch.get(id);
+  if (inBatch) return inBatch;
+  const [row] = await db.select().from(entries).where(eq(entries.id, id));
+  return row ? toStoredRow(row) : undefined;
+}
+
+/** The signer's name and role as the facility's user record holds them (never the payload's). */
+async function actorOf(db: Db, user: SessionUser) {
+  const [u] = await db.select({ name: users.name, role: users.role }).from(users).where(eq(users.id, user.id));
+  return { id: user.id, name: u?.name ?? user.name, role: u?.role ?? user.role };
+}
+
+/**
+ * Does `ahead` (the rest of the batch) hold a signature by `signerId` on exactly `target`, with
+ * one of the meanings given and a proof that checks out? Used where a rule needs an entry to be
+ * signed by its writer as it is sent (a correction of another's record, a run's completion).
+ */
+async function signedWith(
+  db: Db,
+  target: EntryInput,
+  signerId: string,
+  meanings: readonly SignatureMeaning[],
+  ahead: readonly EntryInput[],
+): Promise<boolean> {
+  const hash = recordHash(target);
+  const sig = ahead.find(
+    (s) =>
+      isKind(s, "signature") &&
+      s.authorId === signerId &&
+      s.payload.signedEntryId === target.id &&
+      s.payload.signedHash === hash &&
+      meanings.includes(s.payload.meaning),
+  );
+  if (!sig || !isKind(sig, "signature") || !sig.payload.confirmedBy || !sig.payload.confirmProof) return false;
+  const [secrets] = await db
+    .select({ pinHash: users.pinHash, passwordHash: users.passwordHash })
+    .from(users)
+    .where(eq(users.id, signerId));
+  if (!secrets) return false;
+  const p = sig.payload;
+  return verifyConfirmation(
+    { signedEntryId: p.signedEntryId, signedHash: p.signedHash, meaning: p.meaning, signerId },
+    p.confirmedBy!,
+    p.confirmProof!,
+    { pinRecord: secrets.pinHash, passwordHash: secrets.passwordHash },
+  );
+}
+
+const signatureCheck: Check<EntryInput<"signature">> = async (db, e, batch, user) => {
+  const p = e.payload;
+  const target = await findEntry(db, p.signedEntryId, batch);
+  const inBatch = [...batch.values()].some(
+    (s) =>
+      isKind(s, "signature") &&
+      s.authorId === e.authorId &&
+      s.payload.signedEntryId === p.signedEntryId &&
+      s.payload.meaning === p.meaning,
+  );
+  const [stored] = inBatch
+    ? [true]
+    : await db
+        .select({ id: signatures.entryId })
+        .from(signatures)
+        .where(
+          and(
+            eq(signatures.signedEntryId, p.signedEntryId),
+            eq(signatures.signerId, e.authorId),
+            eq(signatures.meaning, p.meaning),
+          ),
+        )
+        .limit(1);
+  return signatureRefusal({ signature: e, target, alreadySigned: Boolean(stored) }, await actorOf(db, user));
+};
+
+const correctionCheck: Check = async (db, e, batch, user, ahead) => {
+  const original = await findEntry(db, e.supersedes!, batch);
+  const needsSignature = original !== undefined && original.authorId !== user.id;
+  const signedByCorrector = needsSignature ? await signedWith(db, e, user.id, ["verified", "performed"], ahead) : false;
+  return correctionRefusal(e, original, user, { signedByCorrector });
+};
+
+const completionCheck: Check<EntryInput<"run.complete">> = async (db, e, batch, user, ahead) => {
+  if (!e.runId) return { code: "bad_request:run", message: "A procedure entry must name its run." };
+  const runId = e.runId;
+  const stored = (
+    await db
+      .select()
+      .from(entries)
+      .where(or(eq(entries.runId, runId), eq(entries.id, runId)))
+  ).map(toStoredRow);
+  const sent = [...batch.values()].filter((x) => x.runId === runId || x.id === runId);
+  const list: RunEntry[] = [...stored, ...sent];
+  const start = list.find((x) => isKind(x, "run.start") && x.id === runId);
+  if (!start || !isKind(start, "run.start"))
+    return {
+      code: "bad_request:run",
+      message: "The run this entry belongs to has not reached the server; send its start first.",
+    };
+  const [t] = await db.select().from(procedureTemplates).where(eq(procedureTemplates.id, start.payload.templateId));
+  if (!t)
+    return { code: "bad_request:run", message: "The procedure template version of this run is not on the server." };
+  const template: PinnedTemplate = { id: t.id, key: t.key, version: t.version, title: t.title, steps: t.steps };
+  const state = deriveRun(runId, template, list);
+  const completionSigned = await signedWith(db, e, user.id, ["performed"], ahead);
+  return completionRefusal(state, { completionSigned });
+};
+
+export const recordChecks: LogCheck[] = [
+  forKinds(["signature"], signatureCheck),
+  { when: (e) => e.supersedes !== null, check: correctionCheck },
+  forKinds(["run.complete"], completionCheck),
+];
