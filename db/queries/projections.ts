@@ -11,6 +11,8 @@ import { recordHash } from "@/lib/sync/hash";
 import { auditChecks } from "./audit";
 import { type Check, forKinds, type LogCheck, type Problem, type Projector } from "./log-check";
 import { mailProjector } from "./mail";
+import { peopleChecks } from "./people-check";
+import { runTransferChecks } from "./run-transfer";
 import { projectRuns, runChecks } from "./runs";
 import { toStoredRow } from "./stored";
 
@@ -60,6 +62,8 @@ const checks: LogCheck[] = [
   { when: (e) => e.supersedes !== null, check: correctionTarget },
   ...runChecks,
   ...auditChecks,
+  ...peopleChecks,
+  ...runTransferChecks,
 ];
 const projectors: Projector[] = [
   async (db, rows) => {
