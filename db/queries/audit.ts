@@ -140,7 +140,10 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
     .map(toStoredRow)
     .filter((t) => isKind(t, "transfer"));
   // Transfers made by a procedure run carry the run's flags (lib/procedures/transfer-record.ts).
-  const runFlags = await runFlagsByTransfer(db, rows.filter((r) => r.kind === "transfer"));
+  const runFlags = await runFlagsByTransfer(
+    db,
+    rows.filter((r) => r.kind === "transfer"),
+  );
 
   return rows.map((row) => {
     const entry = toStoredRow(row);

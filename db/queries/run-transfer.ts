@@ -67,7 +67,9 @@ function differingFields(built: Record<string, unknown>, sent: Record<string, un
 function mismatch(run: LoadedRun, payload: EntryInput<"transfer">["payload"]): Problem | null {
   const built = transferFromRun(run.state, { calibration: run.calibration });
   if (!built.ok)
-    return bad(`The run's steps do not make a transfer record yet: ${built.problems.join(" ")} Finish the steps first.`);
+    return bad(
+      `The run's steps do not make a transfer record yet: ${built.problems.join(" ")} Finish the steps first.`,
+    );
   const diff = differingFields(built.payload, payload);
   return diff.length
     ? {
@@ -82,7 +84,8 @@ const runTransferCheck: Check<EntryInput<"transfer">> = async (db, e, batch) => 
   if (!e.runId) return null;
   const run = await loadRun(db, e.runId, batch);
   if (!run) return bad("The run this transfer names has not reached the server; send its start first.");
-  if (run.state.start?.cryostatId !== e.cryostatId) return bad("A run's transfer record belongs to the run's cryostat.");
+  if (run.state.start?.cryostatId !== e.cryostatId)
+    return bad("A run's transfer record belongs to the run's cryostat.");
   if (!run.makesRecord) return bad(`"${run.title}" does not make a transfer record; record the transfer on its own.`);
   if (run.state.status === "aborted") return bad("This run was aborted; an aborted run makes no transfer record.");
   const others = inForce(run.transfers).filter((t) => t.id !== e.supersedes);
