@@ -82,6 +82,10 @@ describe("people present at a transfer", () => {
       detail: expect.stringContaining("Jane Roe"),
     });
     expect(v.peopleNames).toEqual([tomasz.name, "Jane Roe (visitor)"]);
+    // The demo lab's own visitor (db/seed.ts) went through the same checks and is flagged too.
+    const demo = queue.filter((i) => i.peopleNames.includes("Noor Castellanos (visitor)"));
+    expect(demo).toHaveLength(1);
+    expect(demo[0]!.flags.map((f) => f.code)).toContain("visitor_present");
   });
 });
 
