@@ -3,6 +3,8 @@
 // facility admin edits them into new versions (a run keeps the version it started from).
 // Ranges are common practice for fridges of this size or the invented demo lab's own values
 // (db/seed.ts); a facility replaces them with its own in the template editor.
+// The helium transfer's steps name the transfer record's fields they fill (`recordField`,
+// lib/schemas/template.ts): a completed run of it is one transfer record in the audit queue.
 
 import type { TemplateStep } from "@/lib/schemas/template";
 import type { CryostatKind } from "./schema";
@@ -405,18 +407,21 @@ const transfer: TemplateDraft = {
     },
     {
       id: "people",
+      recordField: "peoplePresent",
       kind: "check",
       secondPerson: true,
       text: "Two people present for the whole transfer; name the second person.",
     },
     {
       id: "ppe",
+      recordField: "ppeConfirmed",
       kind: "check",
       secondPerson: false,
       text: "Face shield, cryogenic gloves, long sleeves and closed shoes worn by both people.",
     },
     {
       id: "oxygen-before",
+      recordField: "oxygenMonitorChecked",
       kind: "reading",
       quantity: "Oxygen monitor reading before the transfer",
       unit: "%",
@@ -426,6 +431,7 @@ const transfer: TemplateDraft = {
     },
     {
       id: "level-before",
+      recordField: "levelBeforePercent",
       kind: "reading",
       quantity: "Helium level before",
       unit: "%",
@@ -434,6 +440,7 @@ const transfer: TemplateDraft = {
     },
     {
       id: "pressure-before",
+      recordField: "pressureBeforeMbar",
       kind: "reading",
       quantity: "Bath pressure before",
       unit: "mbar",
@@ -444,6 +451,7 @@ const transfer: TemplateDraft = {
     },
     {
       id: "supply-before",
+      recordField: "supplyMassBeforeKg",
       kind: "reading",
       quantity: "Supply dewar mass before",
       unit: "kg",
@@ -460,12 +468,14 @@ const transfer: TemplateDraft = {
     },
     {
       id: "line",
+      recordField: "durationMin",
       kind: "check",
       secondPerson: false,
       text: "Transfer line inspected, cooled on the supply side, inserted into the cryostat; supply pressurised gently from the regulator only.",
     },
     {
       id: "oxygen-lowest",
+      recordField: "oxygenLowestPercent",
       kind: "reading",
       quantity: "Lowest oxygen reading during the transfer",
       unit: "%",
@@ -476,6 +486,7 @@ const transfer: TemplateDraft = {
     },
     {
       id: "level-after",
+      recordField: "levelAfterPercent",
       kind: "reading",
       quantity: "Helium level after",
       unit: "%",
@@ -487,6 +498,7 @@ const transfer: TemplateDraft = {
     },
     {
       id: "pressure-after",
+      recordField: "pressureAfterMbar",
       kind: "reading",
       quantity: "Bath pressure after",
       unit: "mbar",
@@ -497,6 +509,7 @@ const transfer: TemplateDraft = {
     },
     {
       id: "supply-after",
+      recordField: "supplyMassAfterKg",
       kind: "reading",
       quantity: "Supply dewar mass after",
       unit: "kg",
@@ -505,12 +518,18 @@ const transfer: TemplateDraft = {
     },
     {
       id: "line-out",
+      recordField: "durationMin",
       kind: "check",
       secondPerson: false,
       text: "Line removed, ports capped, supply dewar depressurised and its valves closed.",
     },
     { id: "level-photo", kind: "photo", text: "Photograph the level meter after the transfer." },
-    { id: "remarks", kind: "note", text: "Anything unusual: losses, ice plugs, a second dewar used." },
+    {
+      id: "remarks",
+      recordField: "anomalies",
+      kind: "note",
+      text: "Anything unusual: losses, ice plugs, a second dewar used.",
+    },
   ],
 };
 

@@ -321,16 +321,21 @@ export function demoHistory(now: number): Draft[] {
       level = Math.min(92, before + gained);
       transfers += 1;
       // The audit has something to find: the third transfer was done alone, the fifth without
-      // an oxygen-monitor reading.
+      // an oxygen-monitor reading; at the sixth a visitor watched (listed as one: lib/record/people.ts).
       const single = transfers === 3;
       const noOxygen = transfers === 5;
+      const visited = transfers === 6;
       push({
         at: t0 + 2 * HOUR,
         cryostatId: "plover",
         kind: "transfer",
         payload: {
           supplyDewar: d % 3 ? "D-250-A" : "D-250-B",
-          peoplePresent: single ? ["u-tomasz"] : ["u-tomasz", "u-priya"],
+          peoplePresent: single
+            ? ["u-tomasz"]
+            : visited
+              ? ["u-tomasz", "u-priya", "visitor:Noor Castellanos"]
+              : ["u-tomasz", "u-priya"],
           ppeConfirmed: true,
           oxygenMonitorChecked: !noOxygen,
           ...(noOxygen ? {} : { oxygenLowestPercent: round(20.6 + noise(0.2), 1) }),
@@ -342,7 +347,11 @@ export function demoHistory(now: number): Draft[] {
           suppliedBy: "level",
           gainedLitres: gained,
           durationMin: round(35 + noise(8), 0),
-          anomalies: single ? "Second person called away; finished alone." : "",
+          anomalies: single
+            ? "Second person called away; finished alone."
+            : visited
+              ? "A service engineer from the level-meter maker watched the transfer."
+              : "",
         },
         author: "u-tomasz",
       });

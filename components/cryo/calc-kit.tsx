@@ -6,8 +6,8 @@
 import { type ReactNode, useId, useState } from "react";
 import { OptionList } from "@/components/ui/form";
 import { Panel } from "@/components/ui/panel";
-import { parseTypedNumber } from "@/lib/typed-number";
 import type { PressureReading } from "@/lib/cryo";
+import { parseTypedNumber } from "@/lib/typed-number";
 import { readNumber } from "./derive";
 
 export type NumberSpec = {

@@ -8,6 +8,7 @@ import { ROLE_LABEL } from "@/lib/auth/permissions";
 import { formatDate, kindLabel } from "@/lib/format";
 import { useCryostat } from "@/lib/local/hooks";
 import { describeRange } from "@/lib/procedures/state";
+import { personLabel } from "@/lib/record/people";
 import { describeEntry, Photo } from "./step-bits";
 import type { RunView } from "./use-run";
 
@@ -15,7 +16,7 @@ export function RunRecord({ view, names }: { view: RunView; names: Record<string
   const { state, template, start } = view;
   const cryostat = useCryostat(start.cryostatId ?? "");
   const sigsOn = (id: string) => state.signatures.filter((g) => g.signedEntryId === id);
-  const who = (id: string) => names[id] ?? id;
+  const who = (id: string) => personLabel(id, names);
   const ends = [state.completed?.entry, state.aborted?.entry].filter(Boolean);
   return (
     <article aria-label="Run record" className="run-record flex flex-col gap-4 print:gap-2 print:text-[11pt]">

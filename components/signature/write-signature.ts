@@ -1,8 +1,8 @@
 "use client";
 // Writing a signature through the tablet store: bound to the exact stored record (recordHash of
 // what the store wrote), with the identity proof made for that record and meaning.
-import { type EntryDraft, recordEntry, recordSigned, type StoredLocalEntry } from "@/lib/local/record";
-import type { EntryKind, SignatureMeaning, UncheckedEntry } from "@/lib/schemas/entry";
+import { type EntryDraft, type RecordedOf, recordEntry, recordSigned, type StoredLocalEntry } from "@/lib/local/record";
+import type { SignatureMeaning, UncheckedEntry } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
 import { signaturePayload, signingSubject } from "@/lib/signing/sign";
 import type { Confirmation } from "./sign-dialog";
@@ -33,13 +33,15 @@ export async function writeSignature(
   return recordEntry(await signatureDraft(target, me, meaning, c));
 }
 
-/** Record `draft` and sign it in one write (both or neither): a completion, a correction of another's record. */
-export async function recordAndSign<K extends EntryKind>(
-  draft: EntryDraft<K>,
+/**
+ * Record the drafts and sign each with the same meaning and confirmation, in one write (all or
+ * none): a completion (and the transfer record it makes), a correction of another's record.
+ */
+export async function recordAndSign<const D extends readonly EntryDraft[]>(
+  drafts: D,
   me: SessionUser,
   meaning: SignatureMeaning,
   c: Confirmation,
-): Promise<StoredLocalEntry<K>> {
-  const [record] = await recordSigned(draft, (entry) => signatureDraft(entry, me, meaning, c));
-  return record;
+): Promise<RecordedOf<D>> {
+  return recordSigned(drafts, (entry) => signatureDraft(entry, me, meaning, c));
 }

@@ -1,7 +1,9 @@
 "use client";
 // Quick entry of a helium transfer on the tablet (works offline: written to the tablet store, synced
 // later). Shows the transfer cautions with the facility's values, and computes efficiency, gas sent
-// to recovery and boil-off since the previous transfer as the figures are typed.
+// to recovery and boil-off since the previous transfer as the figures are typed. People present
+// are the facility's users or named visitors; the same rule as the server's
+// (lib/record/people.ts) runs before saving.
 import { useMemo, useState } from "react";
 import { Caution } from "@/components/safety/caution";
 import { useMe } from "@/components/shell/use-me";
@@ -23,6 +25,7 @@ import { litresFromLevel, litresFromMass } from "@/lib/cryo";
 import { trim } from "@/lib/format";
 import { useCryostats, useEntries, useFacilityRules, useUsers } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
+import { parseListedPerson, peopleProblems, VISITOR_NAME_MAX, visitorEntry } from "@/lib/record/people";
 import { type PayloadInput, payloadOf } from "@/lib/schemas/entry";
 import { typedNumber } from "@/lib/typed-number";
 
@@ -62,6 +65,17 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
   });
   const set = <K extends keyof typeof f>(k: K, v: (typeof f)[K]) => setF((x) => ({ ...x, [k]: v }));
   const people = f.people.length || !me ? f.people : [me.id];
+  const [visitorName, setVisitorName] = useState("");
+  const visitors = people.flatMap((p) => {
+    const v = parseListedPerson(p);
+    return v.kind === "visitor" ? [{ entry: p, name: v.name }] : [];
+  });
+  function addVisitor() {
+    if (!visitorName.trim()) return;
+    const entry = visitorEntry(visitorName);
+    if (!people.includes(entry)) set("people", [...people, entry]);
+    setVisitorName("");
+  }
 
   const [saved, setSaved] = useState<StoredLocalEntry | null>(null);
   const [signed, setSigned] = useState(false);
@@ -112,6 +126,11 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
 
   async function save() {
     setError(null);
+    const listed = peopleProblems(people, users ?? []);
+    if (listed.length) {
+      setError({ title: "Check the people present: nothing was saved.", problems: listed });
+      return;
+    }
     setBusy(true);
     try {
       // Empty or mistyped figures go as NaN: the shared schema refuses them with the field's name.
@@ -241,6 +260,47 @@ export function TransferForm({ initialCryostatId }: { initialCryostatId?: string
                   {u.name}
                 </label>
               ))}
+              {visitors.map((v) => (
+                <label
+                  key={v.entry}
+                  className="flex min-h-12 items-center gap-2 rounded-xl border-2 border-warn px-3"
+                  title="A visitor is flagged for the safety officer's audit."
+                >
+                  <input
+                    type="checkbox"
+                    className="h-6 w-6"
+                    checked
+                    onChange={() =>
+                      set(
+                        "people",
+                        people.filter((p) => p !== v.entry),
+                      )
+                    }
+                  />
+                  {v.name} (visitor)
+                </label>
+              ))}
+            </div>
+            <div className="mt-2 flex flex-wrap items-end gap-2">
+              <Field id="t-visitor" label="Add a visitor (not a user of the facility)">
+                <input
+                  id="t-visitor"
+                  className={INPUT_CLASS}
+                  value={visitorName}
+                  maxLength={VISITOR_NAME_MAX}
+                  placeholder="Full name"
+                  onChange={(e) => setVisitorName(e.target.value)}
+                  onKeyDown={(e) => {
+                    if (e.key === "Enter") {
+                      e.preventDefault();
+                      addVisitor();
+                    }
+                  }}
+                />
+              </Field>
+              <Button type="button" disabled={!visitorName.trim()} onClick={addVisitor}>
+                Add visitor
+              </Button>
             </div>
             {rules?.values.twoPersonTransfer && people.length < 2 && (
               <p className="mt-2 font-semibold text-warn">

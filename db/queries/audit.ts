@@ -8,11 +8,13 @@ import type { Db } from "@/db/client";
 import { cryostats, type EntryRow, entries, facilityRules, signatures, users } from "@/db/schema";
 import { quenchFigures, transferFigures } from "@/lib/audit/figures";
 import { type AuditRecord, type FlagCode, flagsFor } from "@/lib/audit/flags";
+import { personLabel } from "@/lib/record/people";
 import { type EntryInput, isKind, payloadOf } from "@/lib/schemas/entry";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import { chainOf } from "@/lib/sync/hash";
 import { chainBreaks } from "./chain";
 import { type Check, forKinds, type LogCheck } from "./log-check";
+import { runFlagsByTransfer } from "./run-transfer";
 import { toStoredRow } from "./stored";
 
 export const AUDITED_KINDS = ["transfer", "quench", "incident"] as const;
@@ -137,13 +139,22 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
   )
     .map(toStoredRow)
     .filter((t) => isKind(t, "transfer"));
+  // Transfers made by a procedure run carry the run's flags (lib/procedures/transfer-record.ts).
+  const runFlags = await runFlagsByTransfer(
+    db,
+    rows.filter((r) => r.kind === "transfer"),
+  );
 
   return rows.map((row) => {
     const entry = toStoredRow(row);
     const sigs = sigsBy.get(row.id) ?? [];
     const findings = findingsBy.get(row.id) ?? [];
     const signedFindings = findings.filter((f) => f.signatures.some((s) => s.meaning === "audited"));
-    const rec: AuditRecord = { ...entry, signatures: sigs.filter((s) => s.meaning !== "audited") };
+    const rec: AuditRecord = {
+      ...entry,
+      signatures: sigs.filter((s) => s.meaning !== "audited"),
+      run: runFlags.get(row.id) ?? null,
+    };
     const flags = rules ? flagsFor(rec, { rules, chainBreakSeq: breaks.get(chainOf(row.cryostatId)) ?? null }) : [];
     const c = row.cryostatId ? cryos.get(row.cryostatId) : undefined;
     let figures: AuditItem["figures"] = null;
@@ -171,7 +182,7 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
       entry,
       cryostatName: c?.name ?? row.cryostatId ?? "Facility",
       authorName: people.get(row.authorId) ?? row.authorId,
-      peopleNames: (payloadOf(entry, "transfer")?.peoplePresent ?? []).map((id) => people.get(id) ?? id),
+      peopleNames: (payloadOf(entry, "transfer")?.peoplePresent ?? []).map((id) => personLabel(id, people)),
       flags,
       signatures: sigs,
       findings,

@@ -9,7 +9,9 @@ import type { SessionUser } from "@/lib/schemas/user";
 import { auditChecks } from "./audit";
 import type { LogCheck, Problem, Projector } from "./log-check";
 import { mailProjector } from "./mail";
+import { peopleChecks } from "./people-check";
 import { recordChecks } from "./record-checks";
+import { runTransferChecks } from "./run-transfer";
 import { projectRuns, runChecks } from "./runs";
 
 export type { Problem };
@@ -19,6 +21,8 @@ const checks: LogCheck[] = [
   ...recordChecks,
   ...runChecks,
   ...auditChecks,
+  ...peopleChecks,
+  ...runTransferChecks,
 ];
 const projectors: Projector[] = [
   async (db, rows) => {

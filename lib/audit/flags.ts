@@ -2,6 +2,7 @@
 // rules. A flag is raised (returned) or not (null); the audit queue, the transfer table, the CSV
 // and the PDF report all show the same flags, computed by `flagsFor`.
 import { transferEfficiency } from "@/lib/cryo";
+import { visitorsIn } from "@/lib/record/people";
 import type { EntryFields } from "@/lib/schemas/entry";
 import type { FacilityRulesValues } from "@/lib/schemas/rules";
 
@@ -15,6 +16,8 @@ export const FLAG_CODES = [
   "level_below_minimum",
   "missing_signature",
   "chain_broken",
+  "visitor_present",
+  "procedure_flags",
 ] as const;
 export type FlagCode = (typeof FLAG_CODES)[number];
 
@@ -28,6 +31,8 @@ export const FLAG_LABEL: Record<FlagCode, string> = {
   level_below_minimum: "Level below minimum",
   missing_signature: "Missing signature",
   chain_broken: "Hash chain broken",
+  visitor_present: "Visitor listed as present",
+  procedure_flags: "Flagged during the procedure",
 };
 
 export type Flag = { code: FlagCode; label: string; detail: string };
@@ -42,6 +47,11 @@ export type AuditRecord = EntryFields<"id" | "cryostatId"> & {
   seq: number;
   /** Signatures on this record (meaning, signer), not counting the officer's own audit signature. */
   signatures: { meaning: string; signerId: string }[];
+  /**
+   * For a transfer record made by a procedure run: the run's title and its flags as the auditor
+   * reads them (lib/procedures/transfer-record.ts runFlagsForAudit). Absent for other records.
+   */
+  run?: { title: string; flags: string[] } | null;
 };
 
 export type AuditContext = {
@@ -155,6 +165,23 @@ export function chainBrokenFlag(r: AuditRecord, { chainBreakSeq }: AuditContext)
   );
 }
 
+/** Someone listed as present is a visitor, not a user of the facility (lib/record/people.ts). */
+export function visitorFlag(r: AuditRecord): Flag | null {
+  if (r.kind !== "transfer") return null;
+  const visitors = visitorsIn(r.payload.peoplePresent);
+  if (!visitors.length) return null;
+  return flag(
+    "visitor_present",
+    `Listed as present but not a user of the facility: ${visitors.join(", ")} (visitor${visitors.length > 1 ? "s" : ""}).`,
+  );
+}
+
+/** A transfer made by a procedure run whose steps were flagged (out-of-range readings, hold points…). */
+export function procedureFlag(r: AuditRecord): Flag | null {
+  if (r.kind !== "transfer" || !r.run?.flags.length) return null;
+  return flag("procedure_flags", `In the run "${r.run.title}": ${r.run.flags.join("; ")}`);
+}
+
 export const FLAG_RULES: readonly ((r: AuditRecord, ctx: AuditContext) => Flag | null)[] = [
   singlePersonFlag,
   ppeFlag,
@@ -165,6 +192,8 @@ export const FLAG_RULES: readonly ((r: AuditRecord, ctx: AuditContext) => Flag |
   levelBelowMinimumFlag,
   missingSignatureFlag,
   chainBrokenFlag,
+  visitorFlag,
+  procedureFlag,
 ];
 
 export function flagsFor(r: AuditRecord, ctx: AuditContext): Flag[] {

@@ -33,14 +33,15 @@ export async function recordEntries<const D extends readonly EntryDraft[]>(draft
 }
 
 /**
- * Record an entry and its writer's signature on it atomically (see recordSignedIn in store.ts):
- * a run's completion, a correction of someone else's record.
+ * Record entries and their writer's signature on each, atomically (see recordSignedIn in
+ * store.ts): a run's completion (with the transfer record it makes), a correction of someone
+ * else's record. Each entry comes back typed by its kind.
  */
-export async function recordSigned<K extends EntryKind>(
-  draft: EntryDraft<K>,
-  sign: (entry: StoredLocalEntry<K>) => Promise<EntryDraft<"signature">>,
-): Promise<[StoredLocalEntry<K>, StoredLocalEntry<"signature">]> {
-  return recordSignedIn(localDb(), draft, sign);
+export async function recordSigned<const D extends readonly EntryDraft[]>(
+  drafts: D,
+  sign: (entry: StoredLocalEntry) => Promise<EntryDraft<"signature">>,
+): Promise<RecordedOf<D>> {
+  return recordSignedIn(localDb(), drafts, sign);
 }
 
 /**

@@ -284,40 +284,41 @@ async function recordList(db: RimelogDexie, drafts: readonly AnyDraft[], now: Da
 }
 
 /**
- * Record an entry together with its writer's signature on it, in one transaction: both or
- * neither, so they reach the server in the same push (the server refuses a run's completion, or
- * a correction of someone else's record, that arrives without its signature). `sign` is handed
- * the entry exactly as it will be stored (its hash is what the signature binds) and returns the
+ * Record entries together with their writer's signature on each, in one transaction: all or
+ * none, so they reach the server in the same push (the server refuses a run's completion, or a
+ * correction of someone else's record, that arrives without its signature). `sign` is handed
+ * each entry exactly as it will be stored (its hash is what the signature binds) and returns the
  * signature's draft; it may be slow (a PIN check, a password proof from the server), so it runs
- * before the write, and the write is refused if someone else signed in meanwhile.
+ * before the write, and the write is refused if someone else signed in meanwhile. The entries
+ * are stored in the drafts' order, then their signatures in the same order.
  */
-export async function recordSignedIn<K extends EntryKind>(
+export async function recordSignedIn<const D extends readonly AnyDraft[]>(
   db: RimelogDexie,
-  draft: EntryDraft<K>,
-  sign: (entry: StoredLocalEntry<K>) => Promise<EntryDraft<"signature">>,
+  drafts: D,
+  sign: (entry: StoredLocalEntry) => Promise<EntryDraft<"signature">>,
   now = new Date(),
-): Promise<[StoredLocalEntry<K>, StoredLocalEntry<"signature">]> {
+): Promise<RecordedOf<D>> {
   let stored: StoredLocalEntry[];
   try {
     const session = await db.getMeta("session");
     const problem = sessionProblem(session, now.getTime());
     if (problem || !session) throw problem;
     const signer = { user: session.user, deviceId: await ensureDeviceId(db) };
-    const [record] = prepare([draft], signer, now).stored;
-    if (!record) throw new Error("recordSignedIn: nothing to record");
-    const signature = buildEntry(await sign(record as StoredLocalEntry<K>), signer.user.id, signer.deviceId, now);
-    const both = ready([record, signature], now);
-    if (!(await writePrepared(db, signer, both, now)))
+    const records = prepare(drafts, signer, now).stored;
+    const signatures: EntryInput[] = [];
+    for (const r of records) signatures.push(buildEntry(await sign(r), signer.user.id, signer.deviceId, now));
+    const all = ready([...records, ...signatures], now);
+    if (!(await writePrepared(db, signer, all, now)))
       throw new LocalWriteError(
         "no_session",
         "Someone else signed in on this tablet while you were signing: nothing was saved. Sign in again and repeat it.",
       );
-    stored = both.stored;
+    stored = all.stored.slice(0, records.length);
   } catch (e) {
     throw toLocalWriteError(e);
   }
   emitLocalWrite();
-  return stored as [StoredLocalEntry<K>, StoredLocalEntry<"signature">];
+  return stored as RecordedOf<D>;
 }
 
 /** Keep a photo or file on the tablet for upload; entries refer to it by the returned id. */

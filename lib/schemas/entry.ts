@@ -53,6 +53,11 @@ export const handoverPayload = z.object({
 
 export const transferPayload = z.object({
   supplyDewar: text(40),
+  /**
+   * Who was present: each a facility user's id ("u-priya"), or a visitor written as
+   * "visitor:" and their name ("visitor:Jane Roe"). The rule (known active users, named visitors,
+   * nobody twice) is lib/record/people.ts; the server enforces it, the audit flags visitors.
+   */
   peoplePresent: z.array(z.string().min(1)).min(1),
   ppeConfirmed: z.boolean(),
   oxygenMonitorChecked: z.boolean(),

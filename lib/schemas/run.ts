@@ -3,7 +3,7 @@
 // entries (lib/procedures/state.ts), so two tablets writing to one run both keep their entries.
 import { z } from "zod";
 import { CRYOSTAT_KINDS } from "./cryostat";
-import { templateStepSchema } from "./template";
+import { REQUIRED_RECORD_FIELDS, SINGLE_RECORD_FIELDS, templateStepSchema } from "./template";
 import { UNITS } from "./units";
 
 // Kept here (not imported from db/schema) so lib/ stays free of the database layer.
@@ -23,7 +23,10 @@ export const runStepPayload = z.discriminatedUnion("kind", [
   z.object({
     stepId,
     kind: z.literal("check"),
-    /** The second person present, for steps the template marks "requires a second person". */
+    /**
+     * The second person present, for steps the template marks "requires a second person": a
+     * facility user's id, or "visitor:" and a visitor's name (rule: lib/record/people.ts).
+     */
     secondPersonId: z.string().min(1).max(60).optional(),
     comment: z.string().max(1000).optional(),
   }),
@@ -81,6 +84,14 @@ export const templateInputSchema = z
       if (seen.has(s.id))
         ctx.addIssue({ code: "custom", path: ["steps", i, "id"], message: "step ids must be unique" });
       seen.add(s.id);
+      if ("recordField" in s && s.recordField && (SINGLE_RECORD_FIELDS as readonly string[]).includes(s.recordField)) {
+        if (t.steps.slice(0, i).some((o) => "recordField" in o && o.recordField === s.recordField))
+          ctx.addIssue({
+            code: "custom",
+            path: ["steps", i, "recordField"],
+            message: `only one step may fill the transfer record's ${s.recordField}`,
+          });
+      }
       if (s.kind === "reading" && s.min !== undefined && s.max !== undefined && s.min > s.max) {
         ctx.addIssue({
           code: "custom",
@@ -89,5 +100,15 @@ export const templateInputSchema = z
         });
       }
     });
+    const mapped = new Set(t.steps.flatMap((s) => ("recordField" in s && s.recordField ? [s.recordField] : [])));
+    if (mapped.size) {
+      const missing = REQUIRED_RECORD_FIELDS.filter((f) => !mapped.has(f));
+      if (missing.length)
+        ctx.addIssue({
+          code: "custom",
+          path: ["steps"],
+          message: `a procedure that makes a transfer record needs steps for: ${missing.join(", ")}`,
+        });
+    }
   });
 export type TemplateInput = z.infer<typeof templateInputSchema>;

@@ -1,13 +1,18 @@
 "use client";
 // The end of a run: complete and sign (once every required step is done and every hold point is
 // signed), abort with a reason, and signing a completion whose signature did not go through.
+// A procedure that makes a transfer record (the helium transfer) writes that record with the
+// completion, in one write, and signs both (lib/procedures/transfer-record.ts builds it).
 import { useState } from "react";
 import { SignDialog } from "@/components/signature/sign-dialog";
 import { recordAndSign, writeSignature } from "@/components/signature/write-signature";
 import { Button } from "@/components/ui/button";
 import { Panel } from "@/components/ui/panel";
-import { recordEntry, type StoredLocalEntry } from "@/lib/local/record";
+import { trim } from "@/lib/format";
+import { useCryostat } from "@/lib/local/hooks";
+import { recordEntries, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
 import type { RunState } from "@/lib/procedures/state";
+import { makesTransferRecord, transferFromRun } from "@/lib/procedures/transfer-record";
 import { completionRefusal } from "@/lib/record/rules";
 import { type Ctx, errorText } from "./context";
 
@@ -16,13 +21,18 @@ export function RunEnd({ ctx, state }: { ctx: Ctx; state: RunState<StoredLocalEn
   const [aborting, setAborting] = useState(false);
   const [reason, setReason] = useState("");
   const mayComplete = ctx.me.role === "technician" || ctx.me.role === "researcher";
+  const cryostat = useCryostat(ctx.cryostatId);
+  const record = makesTransferRecord(state.steps.map((s) => s.step))
+    ? transferFromRun(state, { calibration: cryostat?.config.reservoir?.calibration })
+    : null;
+  const canComplete = state.canComplete && (record === null || record.ok);
   return (
     <Panel className="no-print flex flex-col gap-3">
       <div className="flex flex-wrap gap-2">
         <Button
           variant="primary"
           className="min-h-16 flex-1 text-xl"
-          disabled={!state.canComplete || !mayComplete}
+          disabled={!canComplete || !mayComplete}
           onClick={() => setSigning(true)}
         >
           ✍ Complete and sign
@@ -33,6 +43,22 @@ export function RunEnd({ ctx, state }: { ctx: Ctx; state: RunState<StoredLocalEn
       </div>
       {!state.canComplete && (
         <p className="text-muted">{completionRefusal(state, { completionSigned: true })?.message}</p>
+      )}
+      {state.canComplete && record && !record.ok && (
+        <p className="font-semibold text-warn">The transfer record cannot be made yet: {record.problems.join(" ")}</p>
+      )}
+      {record?.ok && (
+        <p className="text-muted">
+          Completing also records the transfer for the audit:{" "}
+          <span className="num">{trim(record.payload.gainedLitres)} L</span> gained,{" "}
+          <span className="num">{trim(record.payload.suppliedLitres)} L</span> taken from {record.payload.supplyDewar}
+          {record.payload.oxygenLowestPercent !== undefined && (
+            <>
+              , lowest oxygen <span className="num">{trim(record.payload.oxygenLowestPercent)} %</span>
+            </>
+          )}
+          .
+        </p>
       )}
       {aborting && (
         <div className="flex flex-col gap-2">
@@ -75,19 +101,34 @@ export function RunEnd({ ctx, state }: { ctx: Ctx; state: RunState<StoredLocalEn
           title="Complete the procedure"
           onClose={() => setSigning(false)}
           onSign={async (c) => {
-            // The completion and its signature in one write: the server refuses a completion sent without it.
-            await recordAndSign(
-              { cryostatId: ctx.cryostatId, runId: state.runId, kind: "run.complete", payload: {} },
-              ctx.me,
-              "performed",
-              c,
-            );
+            // One write with their signatures: the server refuses a completion sent without its
+            // signature, and checks it against the transfer record sent before it.
+            const complete = {
+              cryostatId: ctx.cryostatId,
+              runId: state.runId,
+              kind: "run.complete",
+              payload: {},
+            } as const;
+            if (record?.ok) {
+              await recordAndSign(
+                [
+                  { cryostatId: ctx.cryostatId, runId: state.runId, kind: "transfer", payload: record.payload },
+                  complete,
+                ],
+                ctx.me,
+                "performed",
+                c,
+              );
+              return;
+            }
+            await recordAndSign([complete], ctx.me, "performed", c);
           }}
         >
           <p>
             I performed this procedure as recorded: {state.progress.done} of {state.progress.required} required steps
             done.
           </p>
+          {record?.ok && <p>My signature also covers the transfer record made from these steps.</p>}
         </SignDialog>
       )}
     </Panel>

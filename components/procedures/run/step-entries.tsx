@@ -4,6 +4,7 @@
 import { SignatureManifestation } from "@/components/signature/manifestation";
 import { Tag } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
+import { personLabel } from "@/lib/record/people";
 import { describeEntry, Photo } from "../step-bits";
 import type { Ctx, LocalStep } from "./context";
 import { CorrectReading } from "./reading-action";
@@ -26,7 +27,7 @@ export function StepEntries({ s, ctx }: { s: LocalStep; ctx: Ctx }) {
                 {describeEntry(p)}
               </span>
               {p.kind === "check" && p.secondPersonId && (
-                <span className="text-muted">with {ctx.names[p.secondPersonId] ?? p.secondPersonId}</span>
+                <span className="text-muted">with {personLabel(p.secondPersonId, ctx.names)}</span>
               )}
               <span className="text-sm text-muted">
                 {ctx.names[e.authorId] ?? e.authorId} · {formatDate(e.recordedAt)}
