@@ -12,6 +12,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "@/db/client";
 import { DEMO_USERS } from "@/db/seed";
 import { ROLES } from "@/lib/schemas/user";
+import { openSession } from "@/server/auth/sessions";
 import type { Access } from "@/server/http/route";
 import { freshDb } from "./fixture";
 
@@ -21,7 +22,7 @@ process.env.RIMELOG_KEY_DIR = dirs[0];
 process.env.RIMELOG_STORAGE_DIR = dirs[1];
 
 const session = vi.hoisted(() => ({
-  current: null as null | { user: { id: string; name: string; email: string; role: string }; sv: number },
+  current: null as null | { user: { id: string; name: string; email: string; role: string }; sv: number; sid: string },
 }));
 const database = vi.hoisted(() => ({ db: null as unknown }));
 vi.mock("next-auth", async (orig) => ({ ...(await orig<object>()), getServerSession: async () => session.current }));
@@ -75,6 +76,7 @@ const ACCESS: Record<string, Access> = {
   "GET /api/templates": "signed-in",
   "POST /api/templates": ["facility_admin"],
   "PATCH /api/users/[id]": ["facility_admin"],
+  "POST /api/users/[id]/sessions": ["facility_admin"],
   "GET /api/users": ["facility_admin"],
   "POST /api/users": ["facility_admin"],
 };
@@ -121,9 +123,20 @@ function call(r: RouteMethod, url = "http://localhost:3000/api/x") {
   return r.handler(new Request(url, init), { params: Promise.resolve(paramsOf(r.file)) });
 }
 
-function signIn(id: string | null) {
+/** One live server-side session per person (sessions table), opened on first use. */
+const openSessions = new Map<string, string>();
+async function signIn(id: string | null) {
   const u = DEMO_USERS.find((x) => x.id === id);
-  session.current = u ? { user: { id: u.id, name: u.name, email: u.email, role: u.role }, sv: 1 } : null;
+  if (!u) {
+    session.current = null;
+    return;
+  }
+  let sid = openSessions.get(u.id);
+  if (!sid) {
+    sid = (await openSession(database.db as Db, { userId: u.id })).id;
+    openSessions.set(u.id, sid);
+  }
+  session.current = { user: { id: u.id, name: u.name, email: u.email, role: u.role }, sv: 1, sid };
 }
 
 /** What the declaration says a caller gets: 401, 403, or an answer past the access check. */
@@ -172,7 +185,7 @@ describe("every API route × method × role answers as declared", () => {
       const answers: string[] = [];
       const wanted: string[] = [];
       for (const r of routes.filter((x) => x.call)) {
-        signIn(caller.userId);
+        await signIn(caller.userId);
         const res = await call(r);
         answers.push(`${r.key}: ${seen(res.status)}`);
         wanted.push(`${r.key}: ${expected(r.access, caller.role)}`);
@@ -191,7 +204,7 @@ describe("role-restricted routes", () => {
       const r = routes.find((x) => x.file === c.file && x.method === c.method);
       expect(r).toBeDefined();
       for (const u of DEMO_USERS) {
-        signIn(u.id);
+        await signIn(u.id);
         const res = await call(r!);
         expect(`${u.id} ${res.status}`).toBe(`${u.id} ${c.allowed.includes(u.id) ? 200 : 403}`);
       }
@@ -200,7 +213,7 @@ describe("role-restricted routes", () => {
 
   it("POST /api/users: a technician is refused and nobody is added", async () => {
     const mod = await import("@/app/api/users/route");
-    signIn("u-tomasz");
+    await signIn("u-tomasz");
     const res = await mod.POST(
       new Request("http://localhost:3000/api/users", {
         method: "POST",
@@ -214,7 +227,7 @@ describe("role-restricted routes", () => {
       }),
     );
     expect(res.status).toBe(403);
-    signIn("u-ines");
+    await signIn("u-ines");
     const list = (await (await mod.GET(new Request("http://localhost:3000/api/users"))).json()) as {
       users: { email: string }[];
     };
@@ -223,7 +236,7 @@ describe("role-restricted routes", () => {
 
   it("a session whose version is stale (role changed, user disabled) counts as signed out", async () => {
     const mod = await import("@/app/api/me/route");
-    signIn("u-tomasz");
+    await signIn("u-tomasz");
     session.current!.sv = 0;
     expect((await mod.GET(new Request("http://localhost:3000/api/me"))).status).toBe(401);
   });
