@@ -7,7 +7,7 @@ const BASE = "https://rimelog.invalid";
 
 /** A same-origin path (with query and fragment) to go to, or "/" when `next` is missing or leaves the site. */
 export function safeNextPath(next: string | null | undefined): string {
-  if (!next || !next.startsWith("/")) return "/";
+  if (!next?.startsWith("/")) return "/";
   let url: URL;
   try {
     url = new URL(next, BASE);
