@@ -1,9 +1,9 @@
 // Users: look-ups for sign-in and sessions, the admin's list, adding a person, passwords, and the
 // sign-in attempts the limits count (server/auth/credentials.ts) and the audit trail keeps.
 import { randomUUID } from "node:crypto";
-import { and, asc, eq, gt, max, ne } from "drizzle-orm";
+import { and, asc, count, eq, gt, max, ne } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { type Role, signInAttempts, type User, users } from "@/db/schema";
+import { pinProofRejections, type Role, signInAttempts, type User, users } from "@/db/schema";
 import type { AdminUser, PublicUser, SessionUser } from "@/lib/schemas/user";
 import { appendEntries } from "./entries";
 
@@ -194,4 +194,25 @@ export async function changeUserAccess(
       },
     };
   });
+}
+
+/**
+ * Count a PIN proof the server refused (a signature whose PIN confirmation does not check out).
+ * To be called where the proof is verified (db/queries/runs.ts `signatureConfirmation`, and the
+ * audit signature check in db/queries/audit.ts) — not wired yet; see the README's security notes.
+ */
+export async function recordRejectedPinProof(
+  db: Db,
+  { userId, entryId, now }: { userId: string; entryId: string | null; now: Date },
+): Promise<void> {
+  await db.insert(pinProofRejections).values({ userId, entryId, at: now });
+}
+
+/** How many PIN proofs of this person were refused since `since`. */
+export async function rejectedPinProofs(db: Db, { userId, since }: { userId: string; since: Date }): Promise<number> {
+  const [r] = await db
+    .select({ n: count() })
+    .from(pinProofRejections)
+    .where(and(eq(pinProofRejections.userId, userId), gt(pinProofRejections.at, since)));
+  return r?.n ?? 0;
 }
