@@ -1,5 +1,7 @@
 // Next.js configuration: PGlite stays a server external (its wasm is traced at run time),
-// Serwist compiles sw/sw.ts into public/sw.js, and security headers are set for every route.
+// Serwist compiles sw/sw.ts into public/sw.js, and security headers are set for every route (the
+// Content-Security-Policy and HSTS are set per request by proxy.ts: pages get a script nonce, and
+// a route that sets its own CSP, such as a download, keeps it).
 import { randomUUID } from "node:crypto";
 import withSerwistInit from "@serwist/next";
 
@@ -30,21 +32,6 @@ const withSerwist = withSerwistInit({
   additionalPrecacheEntries: offlinePages.map((url) => ({ url, revision })),
 });
 
-const csp = [
-  "default-src 'self'",
-  "script-src 'self' 'unsafe-inline'",
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self'",
-  "connect-src 'self'",
-  "worker-src 'self'",
-  "manifest-src 'self'",
-  "object-src 'none'",
-  "base-uri 'none'",
-  "frame-ancestors 'none'",
-  "form-action 'self'",
-].join("; ");
-
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   distDir: process.env.NEXT_DIST_DIR || ".next",
@@ -56,7 +43,6 @@ const nextConfig = {
       {
         source: "/:path*",
         headers: [
-          { key: "Content-Security-Policy", value: csp },
           { key: "X-Content-Type-Options", value: "nosniff" },
           { key: "Referrer-Policy", value: "same-origin" },
           { key: "Permissions-Policy", value: "camera=(self), microphone=(), geolocation=()" },

@@ -1,4 +1,5 @@
 import type { Metadata, Viewport } from "next";
+import { headers } from "next/headers";
 import type { ReactNode } from "react";
 import "./globals.css";
 
@@ -14,11 +15,14 @@ export const viewport: Viewport = { width: "device-width", initialScale: 1, them
 // Applied before first paint so the dim theme never flashes white in a darkened lab.
 const themeBoot = `try{var t=localStorage.getItem("rimelog-theme");if(t==="dim")document.documentElement.dataset.theme="dim"}catch(e){}`;
 
-export default function RootLayout({ children }: { children: ReactNode }) {
+// Pages render per request: the Content-Security-Policy's script nonce (set by proxy.ts) is new
+// each time, and Next puts it on its own scripts; this one inline script carries it too.
+export default async function RootLayout({ children }: { children: ReactNode }) {
+  const nonce = (await headers()).get("x-nonce") ?? undefined;
   return (
     <html lang="en-GB" suppressHydrationWarning>
       <head>
-        <script dangerouslySetInnerHTML={{ __html: themeBoot }} />
+        <script nonce={nonce} dangerouslySetInnerHTML={{ __html: themeBoot }} />
       </head>
       <body className="min-h-screen antialiased">{children}</body>
     </html>

@@ -32,6 +32,10 @@ export const users = pgTable("users", {
   active: boolean("active").notNull().default(true),
   // Bumped on disable or role change: JWTs carrying an older version are refused.
   sessionVersion: integer("session_version").notNull().default(1),
+  // Set by an admin's password reset: until the person picks a new password, pages lead to the
+  // change form and every API but the change answers 403.
+  mustChangePassword: boolean("must_change_password").notNull().default(false),
+  passwordChangedAt: timestamp("password_changed_at", { withTimezone: true }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 });
 export type User = typeof users.$inferSelect;
@@ -194,16 +198,61 @@ export const devices = pgTable("devices", {
   revokedAt: timestamp("revoked_at", { withTimezone: true }),
 });
 
-/** Sign-in attempts, for throttling and the audit trail. */
+/**
+ * Sign-in attempts, for the limits per account and per address and for the audit trail. A row is
+ * written before the password is checked (ok false until it matches), so parallel attempts count
+ * each other; `limited` marks an attempt refused by a limit without checking (it does not count).
+ */
 export const signInAttempts = pgTable(
   "sign_in_attempts",
   {
     id: uuid("id").primaryKey().defaultRandom(),
     email: text("email").notNull(),
+    address: text("address"),
     ok: boolean("ok").notNull(),
+    limited: boolean("limited").notNull().default(false),
     at: timestamp("at", { withTimezone: true }).notNull().default(sql`now()`),
   },
-  (t) => [index("sign_in_attempts_email_at").on(t.email, t.at)],
+  (t) => [
+    index("sign_in_attempts_email_at").on(t.email, t.at),
+    index("sign_in_attempts_address_at").on(t.address, t.at),
+  ],
+);
+
+/**
+ * Server-side sessions: the session cookie (a JWT) carries the row's id, and every request that
+ * reads the session checks the row. Ended (sign-out, an admin) or past `expiresAt` (the absolute
+ * lifetime, which refreshing never moves) is signed out, for every copy of the cookie.
+ */
+export const sessions = pgTable(
+  "sessions",
+  {
+    id: text("id").primaryKey(),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+    endedAt: timestamp("ended_at", { withTimezone: true }),
+    /** Why it ended: "sign-out", "admin", "password". */
+    endedReason: text("ended_reason"),
+    deviceId: text("device_id"),
+    lastSeenAt: timestamp("last_seen_at", { withTimezone: true }).notNull(),
+  },
+  (t) => [index("sessions_user").on(t.userId)],
+);
+export type SessionRow = typeof sessions.$inferSelect;
+
+/** PIN proofs the server refused (a signature whose PIN confirmation does not check out). */
+export const pinProofRejections = pgTable(
+  "pin_proof_rejections",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    userId: text("user_id").notNull(),
+    entryId: uuid("entry_id"),
+    at: timestamp("at", { withTimezone: true }).notNull(),
+  },
+  (t) => [index("pin_proof_rejections_user_at").on(t.userId, t.at)],
 );
 
 /**

@@ -9,6 +9,8 @@ const envSchema = z.object({
   RIMELOG_SEED: z.enum(["demo", "none"]).default("demo"),
   SMTP_URL: z.string().optional(),
   MAIL_FROM: z.string().default("Rimelog <rimelog@larchmere.example>"),
+  /** A session's absolute lifetime in hours (one long shift); refreshing never extends it. */
+  RIMELOG_SESSION_HOURS: z.coerce.number().positive().max(168).default(14),
 });
 
 export type Env = z.infer<typeof envSchema>;

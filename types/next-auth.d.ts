@@ -7,9 +7,12 @@ declare module "next-auth" {
     name: string;
     email: string;
     sessionVersion: number;
+    mustChangePassword: boolean;
   }
   interface Session {
     user: { id: string; name: string; email: string; role: Role };
+    /** The server-side session's id (sessions table). */
+    sid: string;
     sv: number;
   }
 }
@@ -19,5 +22,11 @@ declare module "next-auth/jwt" {
     uid: string;
     role: Role;
     sv: number;
+    /** The server-side session's id. */
+    sid: string;
+    /** The session's absolute expiry, seconds since the epoch: the token never lives past it. */
+    aexp: number;
+    /** Must change the password before anything else (an admin reset). */
+    mc?: boolean;
   }
 }

@@ -1,5 +1,6 @@
 "use client";
-// The facility admin's list of people with their roles, and the form to add one.
+// The facility admin's list of people with their roles, the form to add one, and per person:
+// end their sessions, reset their password (they must choose a new one at their next sign-in).
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useCallback, useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
@@ -41,10 +42,35 @@ export function UsersAdmin() {
     await refresh();
   };
 
+  const [notice, setNotice] = useState<string | null>(null);
+  const [resetFor, setResetFor] = useState<string | null>(null);
+  const endSessions = async (u: AdminUser) => {
+    setError(null);
+    setNotice(null);
+    try {
+      const { ended } = await api<{ ended: number }>(`/api/users/${encodeURIComponent(u.id)}/sessions`, { json: {} });
+      setNotice(`${u.name}: ${ended} ${ended === 1 ? "session" : "sessions"} ended.`);
+    } catch (e) {
+      setError(problemText(e, "No connection to the server: nothing was changed."));
+    }
+  };
+  const resetPassword = async (u: AdminUser, password: string) => {
+    setError(null);
+    setNotice(null);
+    try {
+      await api(`/api/users/${encodeURIComponent(u.id)}/password`, { json: { password } });
+      setNotice(`${u.name} signs in with the new password and must then choose their own.`);
+      setResetFor(null);
+    } catch (e) {
+      setError(problemText(e, "No connection to the server: nothing was changed.", true));
+    }
+  };
+
   return (
     <div className="grid gap-4 lg:grid-cols-[1fr_22rem]">
       <Panel className="p-0">
         {error && <Notice tone="danger" title={error} role="alert" />}
+        {notice && <Notice tone="ok" title={notice} role="status" />}
         <p className="px-5 pt-4 text-base text-muted">
           A change of role or access ends that person&apos;s sessions and is kept on the audit trail.
         </p>
@@ -52,7 +78,7 @@ export function UsersAdmin() {
         {users && (
           <table className="w-full text-left">
             <caption className="sr-only">People with access to Rimelog</caption>
-            <TableHead cell="px-5 py-3" columns={["Name", "Email", "Role", "Access"]} />
+            <TableHead cell="px-5 py-3" columns={["Name", "Email", "Role", "Access", "Sign-in"]} />
             <tbody>
               {users.map((u) => (
                 <tr key={u.id} className="border-t border-line">
@@ -76,6 +102,33 @@ export function UsersAdmin() {
                     <Button className="ml-2" onClick={() => void change(u, { active: !u.active })}>
                       {u.active ? "Disable" : "Enable"}
                     </Button>
+                  </td>
+                  <td className="px-5 py-3">
+                    <div className="flex flex-wrap gap-2">
+                      <Button onClick={() => void endSessions(u)}>End sessions</Button>
+                      <Button onClick={() => setResetFor(resetFor === u.id ? null : u.id)}>Reset password</Button>
+                    </div>
+                    {resetFor === u.id && (
+                      <form
+                        className="mt-2 flex flex-col gap-2"
+                        onSubmit={(ev) => {
+                          ev.preventDefault();
+                          void resetPassword(u, String(new FormData(ev.currentTarget).get("password") ?? ""));
+                        }}
+                      >
+                        <TextField
+                          label={`First password for ${u.name}`}
+                          id={`reset-${u.id}`}
+                          name="password"
+                          type="password"
+                          autoComplete="new-password"
+                          hint="Hand it over in person; they must change it when they sign in."
+                        />
+                        <Button type="submit" variant="primary">
+                          Set and end their sessions
+                        </Button>
+                      </form>
+                    )}
                   </td>
                 </tr>
               ))}
@@ -133,7 +186,7 @@ function AddUserForm({ onAdded }: { onAdded: () => Promise<void> }) {
           type="password"
           {...register("password")}
           error={errors.password?.message}
-          hint="At least 10 characters; they can change it later."
+          hint="At least 10 characters, not a common one; they can change it under My account."
           autoComplete="new-password"
         />
         {message && (

@@ -1,5 +1,5 @@
 "use client";
-// The bar on every signed-in screen: where you are, who you are, theme, sign-out.
+// The bar on every signed-in screen: where you are, who you are (a link to My account), theme, sign-out.
 import Link from "next/link";
 import { usePathname } from "next/navigation";
 import { SignOutButton } from "@/components/sync/sign-out-button";
@@ -50,10 +50,15 @@ export function AppHeader() {
         <div className="ml-auto flex flex-wrap items-center gap-2">
           <SyncIndicator />
           {me && (
-            <p className="px-2 text-right leading-tight">
+            <Link
+              href="/account"
+              title="My account"
+              aria-current={path === "/account" ? "page" : undefined}
+              className="flex min-h-12 flex-col justify-center rounded-xl px-2 text-right leading-tight hover:bg-sunk"
+            >
               <span className="block font-semibold">{me.name}</span>
-              <span className="block text-sm text-muted">{ROLE_LABEL[me.role]}</span>
-            </p>
+              <span className="block text-sm text-muted">{ROLE_LABEL[me.role]} · My account</span>
+            </Link>
           )}
           <ThemeToggle />
           <SignOutButton userId={me?.id} />

@@ -1,5 +1,6 @@
 "use client";
-// Email and password sign-in. Errors come back in plain words (wrong details, slowed attempts).
+// Email and password sign-in. Errors come back in plain words (wrong details; a locked account or
+// address answers 429 with the wait, which next-auth's signIn() hands back as its error).
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useSearchParams } from "next/navigation";
 import { signIn } from "next-auth/react";
@@ -9,6 +10,7 @@ import { z } from "zod";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { Notice, Panel } from "@/components/ui/panel";
+import { safeNextPath } from "@/lib/safe-next";
 
 const schema = z.object({
   email: z.string().trim().email("Enter your email address"),
@@ -35,8 +37,7 @@ export function SignInForm() {
       setError(res?.error && res.error !== "CredentialsSignin" ? res.error : "Email or password did not match.");
       return;
     }
-    const next = params.get("next");
-    window.location.assign(next?.startsWith("/") && !next.startsWith("//") ? next : "/");
+    window.location.assign(safeNextPath(params.get("next")));
   });
 
   return (

@@ -1,9 +1,9 @@
-// Users: look-ups for sign-in and sessions, the admin's list, adding a person, and the sign-in
-// attempts used for throttling and the audit trail.
+// Users: look-ups for sign-in and sessions, the admin's list, adding a person, passwords, and the
+// sign-in attempts the limits count (server/auth/credentials.ts) and the audit trail keeps.
 import { randomUUID } from "node:crypto";
-import { and, asc, count, eq, gt } from "drizzle-orm";
+import { and, asc, count, eq, gt, max, ne } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { type Role, signInAttempts, type User, users } from "@/db/schema";
+import { pinProofRejections, type Role, signInAttempts, type User, users } from "@/db/schema";
 import type { AdminUser, PublicUser, SessionUser } from "@/lib/schemas/user";
 import { appendEntries } from "./entries";
 
@@ -70,22 +70,69 @@ export async function createUser(
   };
 }
 
-export async function recordSignInAttempt(db: Db, { email, ok }: { email: string; ok: boolean }): Promise<void> {
-  await db.insert(signInAttempts).values({ email: email.trim().toLowerCase(), ok });
+/** Write an attempt before its password is checked (ok false until `settleSignInAttempt`). */
+export async function reserveSignInAttempt(
+  db: Db,
+  { email, address, now }: { email: string; address: string | null; now: Date },
+): Promise<string> {
+  const [row] = await db
+    .insert(signInAttempts)
+    .values({ email: email.trim().toLowerCase(), address, ok: false, at: now })
+    .returning({ id: signInAttempts.id });
+  return row!.id;
 }
 
-export async function recentFailures(db: Db, { email, sinceMs }: { email: string; sinceMs: number }): Promise<number> {
-  const [r] = await db
-    .select({ n: count() })
+export async function settleSignInAttempt(
+  db: Db,
+  { id, ok, limited = false }: { id: string; ok: boolean; limited?: boolean },
+): Promise<void> {
+  await db.update(signInAttempts).set({ ok, limited }).where(eq(signInAttempts.id, id));
+}
+
+/**
+ * Times (ms) of the failed (or not yet settled) attempts since `since`, other than `except`, for
+ * one account (counted from its last successful sign-in) or one address; refused-by-a-limit
+ * attempts do not count.
+ */
+export async function failureTimes(
+  db: Db,
+  { email, address, since, except }: { email?: string; address?: string; since: Date; except: string },
+): Promise<number[]> {
+  let from = since;
+  const who = email ? eq(signInAttempts.email, email.trim().toLowerCase()) : eq(signInAttempts.address, address ?? "");
+  if (email) {
+    const [last] = await db
+      .select({ at: max(signInAttempts.at) })
+      .from(signInAttempts)
+      .where(and(who, eq(signInAttempts.ok, true), gt(signInAttempts.at, since)));
+    if (last?.at && last.at > from) from = last.at;
+  }
+  const rows = await db
+    .select({ at: signInAttempts.at })
     .from(signInAttempts)
     .where(
       and(
-        eq(signInAttempts.email, email.trim().toLowerCase()),
+        who,
         eq(signInAttempts.ok, false),
-        gt(signInAttempts.at, new Date(Date.now() - sinceMs)),
+        eq(signInAttempts.limited, false),
+        gt(signInAttempts.at, from),
+        ne(signInAttempts.id, except),
       ),
     );
-  return r?.n ?? 0;
+  return rows.map((r) => r.at.getTime());
+}
+
+/** A new password hash; `mustChange` (an admin reset) makes the next sign-in pick another. */
+export async function setPassword(
+  db: Db,
+  { id, passwordHash, mustChange, now }: { id: string; passwordHash: string; mustChange: boolean; now: Date },
+): Promise<boolean> {
+  const rows = await db
+    .update(users)
+    .set({ passwordHash, mustChangePassword: mustChange, passwordChangedAt: now })
+    .where(eq(users.id, id))
+    .returning({ id: users.id });
+  return rows.length > 0;
 }
 
 export type AccessChange = { role?: Role; active?: boolean };
@@ -147,4 +194,25 @@ export async function changeUserAccess(
       },
     };
   });
+}
+
+/**
+ * Count a PIN proof the server refused (a signature whose PIN confirmation does not check out).
+ * To be called where the proof is verified (db/queries/runs.ts `signatureConfirmation`, and the
+ * audit signature check in db/queries/audit.ts) — not wired yet; see the README's security notes.
+ */
+export async function recordRejectedPinProof(
+  db: Db,
+  { userId, entryId, now }: { userId: string; entryId: string | null; now: Date },
+): Promise<void> {
+  await db.insert(pinProofRejections).values({ userId, entryId, at: now });
+}
+
+/** How many PIN proofs of this person were refused since `since`. */
+export async function rejectedPinProofs(db: Db, { userId, since }: { userId: string; since: Date }): Promise<number> {
+  const [r] = await db
+    .select({ n: count() })
+    .from(pinProofRejections)
+    .where(and(eq(pinProofRejections.userId, userId), gt(pinProofRejections.at, since)));
+  return r?.n ?? 0;
 }

@@ -4,11 +4,16 @@ import { AppError } from "@/lib/errors";
 import { formatIssues } from "@/lib/schemas/entry";
 import { FLAG_CODES } from "./flags";
 
+/** A date or date-time within years 1900–9999 (the database refuses year 0; nothing was recorded before 1900). */
+const recordDate = z
+  .union([z.iso.datetime(), z.iso.date()])
+  .refine((v) => Number(v.slice(0, 4)) >= 1900, "Enter a date from 1900 on.");
+
 export const auditFilterSchema = z.object({
   cryostat: z.string().max(60).optional(),
   person: z.string().max(60).optional(),
-  from: z.iso.datetime().optional().or(z.iso.date().optional()),
-  to: z.iso.datetime().optional().or(z.iso.date().optional()),
+  from: recordDate.optional(),
+  to: recordDate.optional(),
   flag: z.enum(FLAG_CODES).optional(),
   kinds: z
     .string()

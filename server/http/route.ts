@@ -10,7 +10,8 @@ import type { z } from "zod";
 import { type Db, getDb } from "@/db";
 import { AppError, detailLines, type ErrorType, fieldErrors, plainWords } from "@/lib/errors";
 import type { Role, SessionUser } from "@/lib/schemas/user";
-import { requireUser } from "@/server/auth/require";
+import { requireSession } from "@/server/auth/require";
+import type { LiveSession } from "@/server/auth/sessions";
 import { errorResponse, readJson } from "./respond";
 import { requireByteUpload } from "./upload";
 
@@ -35,6 +36,8 @@ export interface RouteSpec<A extends Access, P, Q, B> {
   maxBytes?: number;
   /** What to answer when a schema refuses the input (default "Check the highlighted fields."). */
   invalid?: Invalid;
+  /** Callable while the person must still change their password (the change itself, /api/me). */
+  duringPasswordChange?: boolean;
 }
 
 type Parsed<S> = S extends Schema ? z.output<S> : undefined;
@@ -43,6 +46,8 @@ export interface RouteInput<A extends Access, P, Q, B> {
   req: Request;
   /** The signed-in user (null on a public route, which never looks at the session). */
   user: A extends "public" ? null : SessionUser;
+  /** The server-side session's id (null on a public route). */
+  sessionId: A extends "public" ? null : string;
   db: Db;
   params: Parsed<P>;
   query: Parsed<Q>;
@@ -88,9 +93,45 @@ export function parseInput<S extends Schema>(
   );
 }
 
-async function signedIn(access: Access): Promise<SessionUser | null> {
+async function signedIn(access: Access, duringPasswordChange: boolean): Promise<LiveSession | null> {
   if (access === "public") return null;
-  return access === "signed-in" ? requireUser() : requireUser(...access);
+  return requireSession({ roles: access === "signed-in" ? [] : access, duringPasswordChange });
+}
+
+/**
+ * Route params and query values are short text: a NUL or another control character is refused
+ * here, for every route, before a schema or the database sees it (PostgreSQL refuses NUL in text).
+ */
+/**
+ * PostgreSQL's data exceptions for a value it cannot read (SQLSTATE class 22: invalid text for a
+ * type, a date out of range, a bad character, a number out of range). A schema should have refused
+ * such a value first; this holds for every route where one did not, answering 400, not 500.
+ */
+const MALFORMED_SQLSTATES = new Set(["22P02", "22007", "22008", "22021", "22P05", "22003"]);
+function isMalformedValue(e: unknown): boolean {
+  for (let x: unknown = e, depth = 0; x && typeof x === "object" && depth < 4; depth++) {
+    const code = (x as { code?: unknown }).code;
+    if (typeof code === "string" && MALFORMED_SQLSTATES.has(code)) return true;
+    x = (x as { cause?: unknown }).cause;
+  }
+  return false;
+}
+
+function hasControlCharacter(text: string): boolean {
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c < 0x20 || c === 0x7f) return true;
+  }
+  return false;
+}
+
+function refuseControlCharacters(values: Record<string, unknown>, surface: string, where: string): void {
+  const bad = Object.entries(values).filter(([, v]) =>
+    (Array.isArray(v) ? v : [v]).some((x) => typeof x === "string" && hasControlCharacter(x)),
+  );
+  if (!bad.length) return;
+  const fields = bad.map(([path]) => ({ path, message: "Remove the control characters." }));
+  throw new AppError("bad_request", surface, `Check the ${where}.`, detailLines(fields), fields);
 }
 
 async function readBody(req: Request, spec: RouteSpec<Access, unknown, unknown, unknown>): Promise<unknown> {
@@ -115,16 +156,26 @@ export function route<
   const run = async (req: Request, ctx?: RouteContext): Promise<Response> => {
     try {
       const t0 = performance.now();
-      const user = await signedIn(access);
+      const live = await signedIn(access, spec.duringPasswordChange ?? false);
       const t1 = performance.now();
-      const params = spec.params ? parseInput(spec.params, (await ctx?.params) ?? {}, spec) : undefined;
-      const search = spec.query ? Object.fromEntries(new URL(req.url).searchParams) : undefined;
+      const rawParams = ((await ctx?.params) ?? {}) as Record<string, unknown>;
+      const search = Object.fromEntries(new URL(req.url).searchParams);
+      refuseControlCharacters(rawParams, spec.surface, "address");
+      refuseControlCharacters(search, spec.surface, "query");
+      const params = spec.params ? parseInput(spec.params, rawParams, spec) : undefined;
       const query = spec.query ? parseInput(spec.query, search, spec) : undefined;
       const body = await readBody(req, generic);
       const timings = { auth: t1 - t0, read: performance.now() - t1 };
-      const input = { req, user, db: await getDb(), params, query, body, timings };
+      const user = live?.user ?? null;
+      const sessionId = live?.sessionId ?? null;
+      const input = { req, user, sessionId, db: await getDb(), params, query, body, timings };
       return await handler(input as RouteInput<A, P, Q, B>);
     } catch (e) {
+      if (isMalformedValue(e)) {
+        return errorResponse(
+          new AppError("bad_request", spec.surface, "Check the address and query: a value is malformed."),
+        );
+      }
       return errorResponse(e);
     }
   };

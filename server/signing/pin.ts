@@ -21,7 +21,7 @@ import {
   signingMessage,
   verifierOf,
 } from "@/lib/signing/proof";
-import { SignInError, verifySignIn } from "@/server/auth/credentials";
+import { SignInError, SignInLimited, verifySignIn } from "@/server/auth/credentials";
 
 export type PinVerifier = { saltB64: string; iterations: number; verifier: string; expiresAt: string };
 
@@ -47,6 +47,7 @@ async function checkPassword(db: Db, user: SessionUser, password: string, refusa
   try {
     await verifySignIn(db, { email: user.email, password });
   } catch (e) {
+    if (e instanceof SignInLimited) throw new AppError("rate_limited", "password", e.message);
     if (e instanceof SignInError) throw refusal(e);
     throw e;
   }

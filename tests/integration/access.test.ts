@@ -8,10 +8,14 @@
 import { mkdtempSync, readdirSync, rmSync, statSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join, relative } from "node:path";
+import { NextRequest } from "next/server";
+import { encode } from "next-auth/jwt";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "@/db/client";
 import { DEMO_USERS } from "@/db/seed";
+import { mayOpenPage, type PageAccess, pageAccess } from "@/lib/auth/pages";
 import { ROLES } from "@/lib/schemas/user";
+import { openSession } from "@/server/auth/sessions";
 import type { Access } from "@/server/http/route";
 import { freshDb } from "./fixture";
 
@@ -21,7 +25,7 @@ process.env.RIMELOG_KEY_DIR = dirs[0];
 process.env.RIMELOG_STORAGE_DIR = dirs[1];
 
 const session = vi.hoisted(() => ({
-  current: null as null | { user: { id: string; name: string; email: string; role: string }; sv: number },
+  current: null as null | { user: { id: string; name: string; email: string; role: string }; sv: number; sid: string },
 }));
 const database = vi.hoisted(() => ({ db: null as unknown }));
 vi.mock("next-auth", async (orig) => ({ ...(await orig<object>()), getServerSession: async () => session.current }));
@@ -42,6 +46,7 @@ const UNWRAPPED: Record<string, { access: Access; call: boolean }> = {
 const OFFICE = ["safety_officer", "facility_admin"] as const;
 /** Who may call what, reviewed: a change of a route's roles changes this table too. */
 const ACCESS: Record<string, Access> = {
+  "POST /api/account/password": "signed-in",
   "GET /api/attachments/[id]": "signed-in",
   "POST /api/attachments": "signed-in",
   "POST /api/audit/findings": ["safety_officer"],
@@ -75,6 +80,8 @@ const ACCESS: Record<string, Access> = {
   "GET /api/templates": "signed-in",
   "POST /api/templates": ["facility_admin"],
   "PATCH /api/users/[id]": ["facility_admin"],
+  "POST /api/users/[id]/password": ["facility_admin"],
+  "POST /api/users/[id]/sessions": ["facility_admin"],
   "GET /api/users": ["facility_admin"],
   "POST /api/users": ["facility_admin"],
 };
@@ -121,9 +128,20 @@ function call(r: RouteMethod, url = "http://localhost:3000/api/x") {
   return r.handler(new Request(url, init), { params: Promise.resolve(paramsOf(r.file)) });
 }
 
-function signIn(id: string | null) {
+/** One live server-side session per person (sessions table), opened on first use. */
+const openSessions = new Map<string, string>();
+async function signIn(id: string | null) {
   const u = DEMO_USERS.find((x) => x.id === id);
-  session.current = u ? { user: { id: u.id, name: u.name, email: u.email, role: u.role }, sv: 1 } : null;
+  if (!u) {
+    session.current = null;
+    return;
+  }
+  let sid = openSessions.get(u.id);
+  if (!sid) {
+    sid = (await openSession(database.db as Db, { userId: u.id })).id;
+    openSessions.set(u.id, sid);
+  }
+  session.current = { user: { id: u.id, name: u.name, email: u.email, role: u.role }, sv: 1, sid };
 }
 
 /** What the declaration says a caller gets: 401, 403, or an answer past the access check. */
@@ -172,7 +190,7 @@ describe("every API route × method × role answers as declared", () => {
       const answers: string[] = [];
       const wanted: string[] = [];
       for (const r of routes.filter((x) => x.call)) {
-        signIn(caller.userId);
+        await signIn(caller.userId);
         const res = await call(r);
         answers.push(`${r.key}: ${seen(res.status)}`);
         wanted.push(`${r.key}: ${expected(r.access, caller.role)}`);
@@ -191,7 +209,7 @@ describe("role-restricted routes", () => {
       const r = routes.find((x) => x.file === c.file && x.method === c.method);
       expect(r).toBeDefined();
       for (const u of DEMO_USERS) {
-        signIn(u.id);
+        await signIn(u.id);
         const res = await call(r!);
         expect(`${u.id} ${res.status}`).toBe(`${u.id} ${c.allowed.includes(u.id) ? 200 : 403}`);
       }
@@ -200,7 +218,7 @@ describe("role-restricted routes", () => {
 
   it("POST /api/users: a technician is refused and nobody is added", async () => {
     const mod = await import("@/app/api/users/route");
-    signIn("u-tomasz");
+    await signIn("u-tomasz");
     const res = await mod.POST(
       new Request("http://localhost:3000/api/users", {
         method: "POST",
@@ -214,7 +232,7 @@ describe("role-restricted routes", () => {
       }),
     );
     expect(res.status).toBe(403);
-    signIn("u-ines");
+    await signIn("u-ines");
     const list = (await (await mod.GET(new Request("http://localhost:3000/api/users"))).json()) as {
       users: { email: string }[];
     };
@@ -223,9 +241,147 @@ describe("role-restricted routes", () => {
 
   it("a session whose version is stale (role changed, user disabled) counts as signed out", async () => {
     const mod = await import("@/app/api/me/route");
-    signIn("u-tomasz");
+    await signIn("u-tomasz");
     session.current!.sv = 0;
     expect((await mod.GET(new Request("http://localhost:3000/api/me"))).status).toBe(401);
+  });
+});
+
+describe("malformed ids and dates answer 400 or 404, never 500, on every route", () => {
+  const BAD = ["-".repeat(36), "\u0000", "%00", "x".repeat(500), "../../etc/passwd", "' OR 1=1 --", "0000-01-01"];
+  const QUERY = ["id", "cryostatId", "cryostat", "person", "from", "to", "since", "cursor", "chain", "ref", "limit"];
+  it("each route, as a role it admits, with each malformed value in its address and its query", async () => {
+    const answers: string[] = [];
+    for (const r of routes.filter((x) => x.call)) {
+      const role = r.access === "public" || r.access === "signed-in" ? "facility_admin" : r.access[0];
+      const u = DEMO_USERS.find((x) => x.role === role)!;
+      for (const bad of BAD) {
+        await signIn(u.id);
+        const q = new URLSearchParams(QUERY.map((k) => [k, bad])).toString();
+        const params = Object.fromEntries(Object.keys(paramsOf(r.file)).map((k) => [k, bad]));
+        const init: RequestInit = {
+          method: r.method,
+          headers: { host: "localhost:3000", "content-type": "application/json", origin: "http://localhost:3000" },
+        };
+        if (r.method !== "GET") init.body = "{}";
+        const res = await r.handler(new Request(`http://localhost:3000/api/x?${q}`, init), {
+          params: Promise.resolve(params),
+        });
+        if (res.status >= 500) answers.push(`${r.key} ${JSON.stringify(bad)}: ${res.status}`);
+      }
+    }
+    expect(answers).toEqual([]);
+  }, 120_000);
+
+  it("the four addresses from the issue", async () => {
+    await signIn("u-ines");
+    const records = await import("@/app/api/audit/records/[id]/route");
+    const report = await import("@/app/api/exports/report/route");
+    const series = await import("@/app/api/cryostats/[id]/series/route");
+    const runs = await import("@/app/api/runs/route");
+    const at = (path: string) => new Request(`http://localhost:3000${path}`, { headers: { host: "localhost:3000" } });
+    const ctx = (id: string) => ({ params: Promise.resolve({ id }) });
+    const statuses = [
+      (await records.GET(at(`/api/audit/records/${"-".repeat(36)}`), ctx("-".repeat(36)))).status,
+      (await report.GET(at("/api/exports/report?from=0000-01-01&to=0000-01-02"))).status,
+      (await series.GET(at("/api/cryostats/%00/series"), ctx("\u0000"))).status,
+      (await runs.GET(at("/api/runs?cryostatId=%00"))).status,
+    ];
+    for (const s of statuses) expect([400, 404]).toContain(s);
+  });
+});
+
+/** Pages on disk (every page.tsx under app/) as paths: route groups dropped, each [segment] given "heron". */
+function pageFiles(dir = "app"): string[] {
+  return readdirSync(dir).flatMap((name) => {
+    const p = join(dir, name);
+    return statSync(p).isDirectory() ? pageFiles(p) : name === "page.tsx" ? [relative(process.cwd(), p)] : [];
+  });
+}
+const pagePath = (file: string) =>
+  `/${file
+    .replace(/^app\//, "")
+    .replace(/(^|\/)page\.tsx$/, "")
+    .split("/")
+    .filter((seg) => seg && !/^\(.*\)$/.test(seg))
+    .map((seg) => (/^\[.*\]$/.test(seg) ? "heron" : seg))
+    .join("/")}`;
+
+/** Who may open which page, reviewed: a change of a page's roles changes this table too. */
+const PAGES: Record<string, PageAccess> = {
+  "/": "signed-in",
+  "/account": "signed-in",
+  "/admin/mail": ["facility_admin"],
+  "/admin/rules": ["facility_admin"],
+  "/admin/templates": ["facility_admin"],
+  "/admin/users": ["facility_admin"],
+  "/audit": OFFICE,
+  "/audit/heron": OFFICE,
+  "/calc": "signed-in",
+  "/calibrations": "signed-in",
+  "/cryostats/heron": "signed-in",
+  "/handover": "signed-in",
+  "/offline": "public",
+  "/procedures": "signed-in",
+  "/quench/new": "signed-in",
+  "/runs": "signed-in",
+  "/signin": "public",
+  "/transfers/new": "signed-in",
+};
+
+describe("every page × role", () => {
+  const paths = pageFiles().map(pagePath).sort();
+  const SECRET = "test-secret-for-the-page-walk-0123456789";
+
+  it("finds the pages on disk, and their rules (lib/auth/pages.ts) are the reviewed table", () => {
+    expect(paths.length).toBeGreaterThanOrEqual(15);
+    expect(Object.fromEntries(paths.map((p) => [p, pageAccess(p)]))).toEqual(PAGES);
+  });
+
+  it("the proxy answers each page as declared: signed out → sign-in, other roles → 403, allowed → the page", async () => {
+    process.env.AUTH_SECRET = SECRET;
+    const { proxy } = await import("@/proxy");
+    const answers: string[] = [];
+    const wanted: string[] = [];
+    for (const role of [null, ...ROLES]) {
+      const cookie = role
+        ? `next-auth.session-token=${await encode({ token: { uid: "u", sid: "s", sv: 1, aexp: 0, role }, secret: SECRET })}`
+        : undefined;
+      for (const path of paths) {
+        const res = await proxy(new NextRequest(`http://localhost:3000${path}`, { headers: cookie ? { cookie } : {} }));
+        const to = res.headers.get("location");
+        answers.push(`${role} ${path}: ${res.status === 307 && to ? new URL(to).pathname : res.status}`);
+        const access = PAGES[path]!;
+        wanted.push(`${role} ${path}: ${mayOpenPage(access, role) ? 200 : role ? 403 : "/signin"}`);
+      }
+    }
+    expect(answers).toEqual(wanted);
+  });
+
+  it("the server components gate the admin and audit pages by role too (not only the proxy)", async () => {
+    const { default: AdminLayout } = await import("@/app/(app)/admin/layout");
+    const { RolePage } = await import("@/app/(app)/_components/role-page");
+    const { NotAllowed } = await import("@/components/shell/not-allowed");
+    const gated = ["/admin/mail", "/admin/rules", "/admin/templates", "/admin/users", "/audit"];
+    for (const u of DEMO_USERS) {
+      await signIn(u.id);
+      const inLayout = await AdminLayout({ children: "admin screen" });
+      expect(`${u.id} ${inLayout === "admin screen"}`).toBe(`${u.id} ${u.role === "facility_admin"}`);
+      for (const path of gated) {
+        const file = pageFiles().find((f) => pagePath(f) === path)!;
+        const Page = (await import(`@/${file}`)).default as (p: object) => unknown;
+        // A page made with rolePage() renders <RolePage/>: evaluate that too.
+        let shown = (await Page({ params: Promise.resolve({}), searchParams: Promise.resolve({}) })) as {
+          type?: unknown;
+          props: Parameters<typeof RolePage>[0];
+        };
+        if (shown.type === RolePage) shown = (await RolePage(shown.props)) as typeof shown;
+        const allowed = mayOpenPage(PAGES[path]!, u.role);
+        expect(`${u.id} ${path} ${shown.type === NotAllowed ? "not allowed" : "shown"}`).toBe(
+          `${u.id} ${path} ${allowed ? "shown" : "not allowed"}`,
+        );
+      }
+    }
   });
 });
 

@@ -25,9 +25,9 @@ afterAll(() => dirs.remove());
 const state: { db?: Db; user: SessionUser | null } = { user: null };
 vi.mock("@/db", () => ({ getDb: async () => state.db }));
 vi.mock("@/server/auth/require", () => ({
-  requireUser: async () => {
+  requireSession: async () => {
     if (!state.user) throw new AppError("unauthorized", "session", "Sign in first.");
-    return state.user;
+    return { user: state.user, sessionId: "s-test" };
   },
 }));
 const upload = (await import("@/app/api/attachments/route")).POST;

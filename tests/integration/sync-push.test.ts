@@ -21,9 +21,9 @@ vi.mock("@/db", () => ({ getDb: async () => state.db }));
 // The server's background tick (chain signing, mail) is not part of these tests.
 vi.mock("@/server/tick", () => ({ ensureServerTick: () => undefined, kickServerTick: () => undefined }));
 vi.mock("@/server/auth/require", () => ({
-  requireUser: async () => {
+  requireSession: async () => {
     if (!state.user) throw new AppError("unauthorized", "session", "Sign in first.");
-    return state.user;
+    return { user: state.user, sessionId: "s-test" };
   },
 }));
 const { POST } = await import("@/app/api/sync/push/route");

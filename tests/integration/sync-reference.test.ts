@@ -33,9 +33,9 @@ const state: { db?: Db; user: SessionUser | null } = { user: null };
 vi.mock("@/db", () => ({ getDb: async () => state.db }));
 vi.mock("@/server/tick", () => ({ ensureServerTick: () => undefined, kickServerTick: () => undefined }));
 vi.mock("@/server/auth/require", () => ({
-  requireUser: async () => {
+  requireSession: async () => {
     if (!state.user) throw new AppError("unauthorized", "session", "Sign in first.");
-    return state.user;
+    return { user: state.user, sessionId: "s-test" };
   },
 }));
 const { GET } = await import("@/app/api/sync/pull/route");

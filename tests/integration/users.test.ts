@@ -46,3 +46,16 @@ describe("changeUserAccess", () => {
     expect((await chainEntries(db, "facility")).filter((e) => e.kind === "user.change")).toHaveLength(0);
   });
 });
+
+describe("refused PIN proofs", () => {
+  it("are counted per person", async () => {
+    const { recordRejectedPinProof, rejectedPinProofs } = await import("@/db/queries/users");
+    const db = await freshDb({ seeded: true });
+    const now = new Date("2026-12-01T06:00:00Z");
+    await recordRejectedPinProof(db, { userId: "u-tomasz", entryId: null, now });
+    await recordRejectedPinProof(db, { userId: "u-tomasz", entryId: null, now });
+    await recordRejectedPinProof(db, { userId: "u-priya", entryId: null, now });
+    expect(await rejectedPinProofs(db, { userId: "u-tomasz", since: new Date(now.getTime() - 60_000) })).toBe(2);
+    expect(await rejectedPinProofs(db, { userId: "u-tomasz", since: now })).toBe(0);
+  });
+});

@@ -8,10 +8,10 @@ import { describe, expect, it, vi } from "vitest";
 import { z } from "zod";
 import { DataDirLockedError, lockDataDir } from "@/db/lock";
 import { mayRead, maySign, mayWrite } from "@/lib/auth/permissions";
+import { ACCOUNT_FAILURES, lockMessage, lockWaitMs, SIGN_IN_WINDOW_MS } from "@/lib/auth/sign-in-limits";
 import { AppError } from "@/lib/errors";
 import { parseEntry } from "@/lib/schemas/entry";
 import { canonicalJson, recordHash } from "@/lib/sync/hash";
-import { throttleDelayMs } from "@/server/auth/credentials";
 import { contentDisposition, downloadResponse } from "@/server/http/download";
 import { readJson } from "@/server/http/respond";
 import { route } from "@/server/http/route";
@@ -19,10 +19,10 @@ import { route } from "@/server/http/route";
 const who = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string; role: string } }));
 vi.mock("@/db", () => ({ getDb: async () => ({ fake: "db" }) }));
 vi.mock("@/server/auth/require", () => ({
-  requireUser: async (...roles: string[]) => {
+  requireSession: async ({ roles = [] }: { roles?: string[] } = {}) => {
     if (!who.user) throw new AppError("unauthorized", "session", "Sign in first.");
     if (roles.length && !roles.includes(who.user.role)) throw new AppError("forbidden", "role", "Not this role.");
-    return who.user;
+    return { user: who.user, sessionId: "s-test" };
   },
 }));
 
@@ -49,9 +49,31 @@ describe("data directory lock", () => {
   });
 });
 
-describe("sign-in throttling", () => {
-  it("lets five failures pass at full speed, then doubles the delay up to 8 s", () => {
-    expect([0, 4, 5, 6, 7, 8, 20].map(throttleDelayMs)).toEqual([0, 0, 1000, 2000, 4000, 8000, 8000]);
+describe("sign-in limits", () => {
+  const now = Date.parse("2026-11-30T12:00:00Z");
+  const ago = (min: number) => now - min * 60_000;
+  it("checks attempts while fewer than five failures are in the window, then locks", () => {
+    expect(lockWaitMs([], now, ACCOUNT_FAILURES)).toBe(0);
+    expect(lockWaitMs([ago(1), ago(2), ago(3), ago(4)], now, ACCOUNT_FAILURES)).toBe(0);
+    expect(lockWaitMs([ago(1), ago(2), ago(3), ago(4), ago(5)], now, ACCOUNT_FAILURES)).toBeGreaterThan(0);
+  });
+  it("lifts the lock when enough of the oldest failures have left the 15-minute window", () => {
+    // Five failures 10, 8, 6, 4 and 2 minutes ago: the oldest leaves in 5 minutes.
+    expect(lockWaitMs([ago(2), ago(10), ago(6), ago(4), ago(8)], now, ACCOUNT_FAILURES)).toBe(5 * 60_000);
+    // Seven failures: three must leave (four left, under five); the third oldest (8 min ago) leaves in 7 minutes.
+    const seven = [ago(10), ago(9), ago(8), ago(6), ago(4), ago(2), ago(1)];
+    expect(lockWaitMs(seven, now, ACCOUNT_FAILURES)).toBe(7 * 60_000);
+    // Failures older than the window do not count.
+    expect(lockWaitMs([ago(16), ago(20), ago(1), ago(2), ago(3), ago(4)], now, ACCOUNT_FAILURES)).toBe(0);
+    expect(SIGN_IN_WINDOW_MS).toBe(15 * 60_000);
+  });
+  it("says the wait in plain words", () => {
+    expect(lockMessage("account", 5 * 60_000)).toBe(
+      "Too many failed sign-ins for this account. Try again in 5 minutes.",
+    );
+    expect(lockMessage("address", 30_500)).toBe(
+      "Too many failed sign-ins for this network address. Try again in 31 seconds.",
+    );
   });
 });
 

@@ -4,4 +4,6 @@ import { route } from "@/server/http/route";
 
 export const dynamic = "force-dynamic";
 
-export const GET = route({ access: "signed-in", surface: "session" }, async ({ user }) => json({ user }));
+export const GET = route({ access: "signed-in", surface: "session", duringPasswordChange: true }, async ({ user }) =>
+  json({ user }),
+);

@@ -4,6 +4,8 @@ import bcrypt from "bcryptjs";
 import { createUser, listUsersForAdmin } from "@/db/queries/users";
 import { AppError } from "@/lib/errors";
 import { newUserSchema } from "@/lib/schemas/user";
+import { BCRYPT_COST } from "@/server/auth/credentials";
+import { refuseWeakNewPassword } from "@/server/auth/passwords";
 import { json } from "@/server/http/respond";
 import { route } from "@/server/http/route";
 
@@ -16,7 +18,8 @@ export const GET = route({ access: ["facility_admin"], surface: "user" }, async 
 export const POST = route(
   { access: ["facility_admin"], surface: "user", body: newUserSchema },
   async ({ db, body: { password, ...rest } }) => {
-    const passwordHash = await bcrypt.hash(password, 10);
+    await refuseWeakNewPassword(password, rest);
+    const passwordHash = await bcrypt.hash(password, BCRYPT_COST);
     const res = await createUser(db, { ...rest, id: `u-${randomUUID()}`, passwordHash });
     if (!res.ok) throw new AppError("conflict", "user", `Someone already uses ${rest.email}.`);
     return json({ user: res.user }, 201);

@@ -1,12 +1,12 @@
+import { rolePage } from "@/app/(app)/_components/role-page";
 import { TemplateAdmin } from "@/components/procedures/template-admin";
 
 export const metadata = { title: "Procedure templates" };
+export const dynamic = "force-dynamic";
 
-export default function TemplatesAdminPage() {
-  return (
-    <>
-      <h1 className="mb-4 text-3xl font-bold">Procedure templates</h1>
-      <TemplateAdmin />
-    </>
-  );
-}
+export default rolePage({
+  roles: ["facility_admin"],
+  need: "facility admin",
+  title: "Procedure templates",
+  Screen: TemplateAdmin,
+});

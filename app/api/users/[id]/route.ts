@@ -2,6 +2,7 @@
 import { z } from "zod";
 import { changeUserAccess } from "@/db/queries/users";
 import { AppError } from "@/lib/errors";
+import { idParam } from "@/lib/schemas/ids";
 import { ROLES } from "@/lib/schemas/user";
 import { json } from "@/server/http/respond";
 import { route } from "@/server/http/route";
@@ -24,7 +25,7 @@ export const PATCH = route(
   {
     access: ["facility_admin"],
     surface: "user",
-    params: z.object({ id: z.string() }),
+    params: z.object({ id: idParam }),
     body,
     maxBytes: 10_000,
     invalid: "Check the change.",

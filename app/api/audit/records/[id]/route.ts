@@ -2,6 +2,7 @@
 import { z } from "zod";
 import { auditRecord } from "@/db/queries/audit";
 import { AppError } from "@/lib/errors";
+import { uuidParam } from "@/lib/schemas/ids";
 import { checkpointKeys } from "@/server/audit/keys";
 import { json } from "@/server/http/respond";
 import { route } from "@/server/http/route";
@@ -12,7 +13,7 @@ export const GET = route(
   {
     access: ["safety_officer", "facility_admin"],
     surface: "audit",
-    params: z.object({ id: z.string().regex(/^[0-9a-f-]{36}$/i) }),
+    params: z.object({ id: uuidParam }),
     invalid: "That is not a record id.",
   },
   async ({ db, params }) => {

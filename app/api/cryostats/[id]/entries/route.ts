@@ -3,6 +3,7 @@ import { z } from "zod";
 import { getCryostat } from "@/db/queries/cryostats";
 import { listCryostatEntries } from "@/db/queries/entries";
 import { AppError } from "@/lib/errors";
+import { idParam } from "@/lib/schemas/ids";
 import { json } from "@/server/http/respond";
 import { route } from "@/server/http/route";
 
@@ -17,7 +18,7 @@ export const GET = route(
   {
     access: "signed-in",
     surface: "cryostat",
-    params: z.object({ id: z.string() }),
+    params: z.object({ id: idParam }),
     query,
     invalid: { surface: "cursor", message: "The page cursor must be a positive whole number." },
   },
