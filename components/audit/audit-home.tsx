@@ -91,7 +91,8 @@ function Queue() {
               <td className="px-5 py-3 whitespace-nowrap">{formatDate(i.entry.recordedAt)}</td>
               <td className="px-5 py-3">
                 <span className="font-semibold">
-                  {kindLabel(i.entry.kind)} · {i.cryostatName}
+                  {kindLabel(i.entry.kind)}
+                  {i.corrects ? " (correction)" : ""} · {i.cryostatName}
                 </span>
                 <span className="block text-base text-muted">
                   by {i.authorName} · <Summary i={i} />

@@ -181,6 +181,7 @@ export function AuditRecord({ id }: { id: string }) {
             {formatDate(item.entry.recordedAt)} · recorded by {item.authorName}
             {item.peopleNames.length ? ` · present: ${item.peopleNames.join(", ")}` : ""}
           </p>
+          {item.corrects && <CorrectedFrom item={item} corrects={item.corrects} />}
           <div className="mt-3">
             <EntryBody entry={item.entry} />
           </div>
@@ -283,6 +284,28 @@ export function AuditRecord({ id }: { id: string }) {
           cryostatName={item.cryostatName}
         />
       </div>
+    </div>
+  );
+}
+
+/** A correction shows what it replaces: the original as recorded, by whom and when, and why it was corrected. */
+function CorrectedFrom({ item, corrects }: { item: AuditItem; corrects: NonNullable<AuditItem["corrects"]> }) {
+  return (
+    <div className="mt-3 rounded-xl border-2 border-warn p-3" data-testid="corrected-original">
+      <p className="font-semibold">
+        Correction by {item.authorName}, {formatDate(item.entry.recordedAt)}. Reason: {item.entry.reason}
+      </p>
+      <p className="mt-1 text-muted">
+        Original recorded by {corrects.authorName}, {formatDate(corrects.entry.recordedAt)} (kept in the log):
+      </p>
+      <div className="mt-1 opacity-80">
+        <EntryBody entry={corrects.entry} />
+      </div>
+      {corrects.signatures.length > 0 && (
+        <p className="mt-1 text-sm text-muted">
+          The original was signed by {corrects.signatures.map((s) => `${s.signerName} (${s.meaning})`).join(", ")}.
+        </p>
+      )}
     </div>
   );
 }

@@ -97,8 +97,9 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
       signedEntryId: x.s.signedEntryId,
       meaning: x.s.meaning,
       signerId: x.s.signerId,
-      signerName: p?.signerName ?? x.name ?? x.s.signerId,
-      signerRole: p?.signerRole ?? x.role ?? "",
+      // The name and role of the user record (the server checked the signature's own copy against it).
+      signerName: x.name ?? p?.signerName ?? x.s.signerId,
+      signerRole: x.role ?? p?.signerRole ?? "",
       signedAt: x.s.signedAt,
       signedHash: x.s.signedHash,
       confirmedBy: p?.confirmedBy ?? null,
@@ -145,6 +146,25 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
     rows.filter((r) => r.kind === "transfer"),
   );
 
+  // The records that corrections among these replace: kept, and shown beside the correction.
+  const originalIds = rows.map((r) => r.supersedes).filter((x): x is string => Boolean(x));
+  const originals = new Map(
+    (originalIds.length ? await db.select().from(entries).where(inArray(entries.id, originalIds)) : []).map((r) => [
+      r.id,
+      toStoredRow(r),
+    ]),
+  );
+  const correctsOf = (row: EntryRow): AuditItem["corrects"] => {
+    const o = row.supersedes ? originals.get(row.supersedes) : undefined;
+    if (!o) return null;
+    return {
+      entry: o,
+      authorName: people.get(o.authorId) ?? o.authorId,
+      peopleNames: (payloadOf(o, "transfer")?.peoplePresent ?? []).map((id) => personLabel(id, people)),
+      signatures: sigsBy.get(o.id) ?? [],
+    };
+  };
+
   return rows.map((row) => {
     const entry = toStoredRow(row);
     const sigs = sigsBy.get(row.id) ?? [];
@@ -180,6 +200,7 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
     }
     return {
       entry,
+      corrects: correctsOf(row),
       cryostatName: c?.name ?? row.cryostatId ?? "Facility",
       authorName: people.get(row.authorId) ?? row.authorId,
       peopleNames: (payloadOf(entry, "transfer")?.peoplePresent ?? []).map((id) => personLabel(id, people)),
@@ -192,7 +213,7 @@ async function describeRecords(db: Db, rows: EntryRow[], { keys }: { keys: Check
   });
 }
 
-/** Latest version of each record: a correction replaces what it supersedes. */
+/** Latest version of each record: a correction stands in for what it supersedes (which it carries as `corrects`). */
 function latestOnly(rows: EntryRow[]): EntryRow[] {
   const superseded = new Set(rows.map((r) => r.supersedes).filter(Boolean));
   return rows.filter((r) => !superseded.has(r.id));

@@ -26,8 +26,18 @@ export type FindingView = {
   signatures: SignatureView[];
 };
 
+/** The record a correction replaces, kept and shown beside it: who wrote it, when, and why it was corrected. */
+export type CorrectedOriginal = {
+  entry: StoredEntry;
+  authorName: string;
+  peopleNames: string[];
+  signatures: SignatureView[];
+};
+
 export type AuditItem = {
   entry: StoredEntry;
+  /** Set when this record is a correction: the original it replaces (the correction's reason is entry.reason). */
+  corrects: CorrectedOriginal | null;
   cryostatName: string;
   authorName: string;
   peopleNames: string[];

@@ -62,6 +62,11 @@ export const CSV_COLUMNS = [
   "audit_findings",
   "signatures",
   "record_hash",
+  "corrects_record_id",
+  "correction_reason",
+  "original_recorded_by",
+  "original_recorded_at_utc",
+  "original_as_recorded",
 ] as const;
 
 const round = (x: number | null, d = 2) => (x === null ? null : Number(x.toFixed(d)));
@@ -100,6 +105,11 @@ export function recordsToCsv(records: readonly CsvRecord[]): string {
       r.findings.join(" | "),
       r.signatures.map((s) => `${s.meaning} by ${s.signerName} (${s.signerRole}) at ${s.signedAt}`).join("; "),
       r.hash,
+      r.correction?.originalId,
+      r.correction?.reason,
+      r.correction?.originalAuthorName,
+      r.correction?.originalRecordedAt,
+      r.correction?.original.join(" "),
     ];
     lines.push(row.map(csvField).join(","));
   }

@@ -149,6 +149,16 @@ export async function auditReportPdf(input: ReportInput): Promise<Uint8Array> {
     rule();
     text(`${r.title} — ${r.cryostatName}, ${when(r.recordedAt)}`, { size: 12, font: bold, gap: 4 });
     text(`Recorded by ${r.authorName}. Record ${r.id}`, { size: 9, color: rgb(0.35, 0.35, 0.4) });
+    if (r.correction) {
+      const c = r.correction;
+      text(
+        `CORRECTION by ${r.authorName} at ${when(r.recordedAt)} of the record made by ${c.originalAuthorName} at ${when(c.originalRecordedAt)} (record ${c.originalId}). Reason: ${c.reason}`,
+        { font: bold, indent: 10, color: rgb(0.7, 0.35, 0) },
+      );
+      text("Original as recorded (kept in the log):", { indent: 10 });
+      for (const l of c.original) text(l, { indent: 20, color: rgb(0.35, 0.35, 0.4) });
+      text("As corrected:", { indent: 10 });
+    }
     for (const l of r.lines) text(l, { indent: 10 });
     if (r.figures.length) {
       text("Computed (estimates where stated):", { font: bold, indent: 10 });

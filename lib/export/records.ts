@@ -4,9 +4,10 @@
 import type { QuenchFigures, TransferFigures } from "@/lib/audit/figures";
 import type { AuditItem, SignatureView } from "@/lib/audit/types";
 import { kindLabel } from "@/lib/format";
-import { payloadOf } from "@/lib/schemas/entry";
+import { payloadOf, type StoredEntry } from "@/lib/schemas/entry";
 import type { CsvRecord } from "./csv";
 import type { ReportRecord, ReportSignature } from "./pdf";
+import type { ExportCorrection } from "./types";
 
 const sig = (s: SignatureView & { confirmedBy?: string | null }): ReportSignature => ({
   meaning: s.meaning,
@@ -20,10 +21,27 @@ const num = (x: unknown, unit: string) =>
 const isTransfer = (f: AuditItem["figures"]): f is TransferFigures => Boolean(f && "lossLitres" in f);
 const isQuench = (f: AuditItem["figures"]): f is QuenchFigures => Boolean(f && "heliumLostBasis" in f);
 
+/** The correction's original, as the CSV and PDF show it beside the correction. */
+function correctionOf(i: AuditItem): ExportCorrection | null {
+  const o = i.corrects;
+  if (!o) return null;
+  return {
+    originalId: o.entry.id,
+    originalRecordedAt: o.entry.recordedAt,
+    originalAuthorName: o.authorName,
+    reason: i.entry.reason ?? "",
+    original: [
+      ...recordLines(o.entry, o.peopleNames),
+      ...o.signatures.map((s) => `Signed ${s.meaning} by ${s.signerName} (${s.signerRole}) at ${s.signedAt}.`),
+    ],
+  };
+}
+
 export function toCsvRecord(i: AuditItem): CsvRecord {
   const t = isTransfer(i.figures) ? i.figures : null;
   return {
     id: i.entry.id,
+    correction: correctionOf(i),
     kind: i.entry.kind,
     recordedAt: i.entry.recordedAt,
     cryostatName: i.cryostatName,
@@ -41,18 +59,35 @@ export function toCsvRecord(i: AuditItem): CsvRecord {
   };
 }
 
-export function toReportRecord(i: AuditItem): ReportRecord {
+/** What a transfer, quench or incident says, in the words of the report (also for a correction's original). */
+function recordLines(entry: StoredEntry, peopleNames: string[]): string[] {
   const lines: string[] = [];
-  const figures: string[] = [];
-  if (i.entry.kind === "transfer") {
-    const p = i.entry.payload;
+  if (entry.kind === "transfer") {
+    const p = entry.payload;
     lines.push(
-      `Supply dewar ${String(p.supplyDewar)}; people present: ${i.peopleNames.join(", ") || "none recorded"}.`,
+      `Supply dewar ${String(p.supplyDewar)}; people present: ${peopleNames.join(", ") || "none recorded"}.`,
       `PPE confirmed: ${p.ppeConfirmed ? "yes" : "NO"}. Oxygen monitor checked: ${p.oxygenMonitorChecked ? "yes" : "NO"}; lowest reading ${num(p.oxygenLowestPercent, "%")}.`,
       `Level ${num(p.levelBeforePercent, "%")} -> ${num(p.levelAfterPercent, "%")}; pressure ${num(p.pressureBeforeMbar, "mbar")} -> ${num(p.pressureAfterMbar, "mbar")}.`,
       `Taken from the supply ${num(p.suppliedLitres, "L")} (by ${String(p.suppliedBy)}); gained ${num(p.gainedLitres, "L")}; duration ${num(p.durationMin, "min")}.`,
     );
     if (p.anomalies) lines.push(`Anomalies: ${String(p.anomalies)}`);
+  } else if (entry.kind === "quench") {
+    const p = entry.payload;
+    lines.push(
+      `Quench at ${String(p.at)} at ${num(p.fieldT, "T")}${typeof p.currentA === "number" ? `, ${p.currentA} A` : ""}; level ${num(p.levelBeforePercent, "%")} -> ${num(p.levelAfterPercent, "%")}; lowest oxygen ${num(p.oxygenLowestPercent, "%")}.`,
+    );
+    lines.push(`Actions: ${String(p.actions || "none recorded")}`);
+  } else {
+    const p = payloadOf(entry, "incident");
+    lines.push(`${String(p?.title)}: ${String(p?.description)}`, `Actions: ${String(p?.actions || "none recorded")}`);
+  }
+  return lines;
+}
+
+export function toReportRecord(i: AuditItem): ReportRecord {
+  const lines = recordLines(i.entry, i.peopleNames);
+  const figures: string[] = [];
+  if (i.entry.kind === "transfer") {
     const t = isTransfer(i.figures) ? i.figures : null;
     if (t) {
       figures.push(
@@ -64,11 +99,6 @@ export function toReportRecord(i: AuditItem): ReportRecord {
         );
     }
   } else if (i.entry.kind === "quench") {
-    const p = i.entry.payload;
-    lines.push(
-      `Quench at ${String(p.at)} at ${num(p.fieldT, "T")}${typeof p.currentA === "number" ? `, ${p.currentA} A` : ""}; level ${num(p.levelBeforePercent, "%")} -> ${num(p.levelAfterPercent, "%")}; lowest oxygen ${num(p.oxygenLowestPercent, "%")}.`,
-    );
-    lines.push(`Actions: ${String(p.actions || "none recorded")}`);
     const q = isQuench(i.figures) ? i.figures : null;
     if (q?.heliumLostLitres != null)
       figures.push(
@@ -78,12 +108,10 @@ export function toReportRecord(i: AuditItem): ReportRecord {
       figures.push(
         `Estimate: room oxygen about ${(q.oxygenEstimateFraction * 100).toFixed(1)} % if the gas mixed into the room.`,
       );
-  } else {
-    const p = payloadOf(i.entry, "incident");
-    lines.push(`${String(p?.title)}: ${String(p?.description)}`, `Actions: ${String(p?.actions || "none recorded")}`);
   }
   return {
     id: i.entry.id,
+    correction: correctionOf(i),
     kind: i.entry.kind,
     title: kindLabel(i.entry.kind),
     recordedAt: i.entry.recordedAt,

@@ -132,7 +132,8 @@ describe("audit queue", () => {
     const f = finding(item!.entry, "acceptable");
     const res = await appendEntries(db, grace, [f, signature(f, null)]);
     expect(res.rejected.map((r) => r.message)).toEqual([
-      "An audit signature must be confirmed with the officer's PIN or password.",
+      // Every signature needs a proof now (lib/record/rules.ts), an audit signature included.
+      "A signature must be confirmed with the signer's PIN or password.",
     ]);
     const [g] = await db.select().from(users).where(eq(users.id, grace.id));
     const onRecord = signature(item!.entry as EntryInput, g!.passwordHash);

@@ -8,6 +8,7 @@ import { auditReportPdf, manifestation, type ReportRecord, winAnsi } from "@/lib
 
 const rec: CsvRecord = {
   id: "r1",
+  correction: null,
   kind: "transfer",
   recordedAt: "2026-11-20T10:00:00.000Z",
   cryostatName: "Plover",
@@ -80,6 +81,7 @@ describe("PDF audit report", () => {
   it("holds every record, flag and signature manifestation and reads back with pdf-lib", async () => {
     const r: ReportRecord = {
       id: "r1",
+      correction: null,
       kind: "transfer",
       title: "Helium transfer",
       recordedAt: rec.recordedAt,
@@ -100,7 +102,19 @@ describe("PDF audit report", () => {
       signatures: [],
       hash: rec.hash,
     };
-    const many = Array.from({ length: 30 }, (_, i) => ({ ...r, id: `r${i}` }));
+    const corrected: ReportRecord = {
+      ...r,
+      id: "r-corr",
+      authorName: "Priya Lindqvist",
+      correction: {
+        originalId: "r-orig",
+        originalRecordedAt: "2026-11-20T09:00:00.000Z",
+        originalAuthorName: "Tomasz Okafor",
+        reason: "Gained litres mistyped",
+        original: ["Taken from the supply 60 L (by level); gained 4 L."],
+      },
+    };
+    const many = [corrected, ...Array.from({ length: 30 }, (_, i) => ({ ...r, id: `r${i}` }))];
     const bytes = await auditReportPdf({
       facilityName: "Low-Temperature Hall B-014",
       from: "2026-11-01T00:00:00.000Z",
@@ -121,6 +135,9 @@ describe("PDF audit report", () => {
     expect(text).toContain(hex("Dr. Grace Oyelaran (safety officer), 2026-11-21 09:00 UTC"));
     expect(text).toContain(hex("AUDITED"));
     expect(text).toContain(hex("Flags: Single person"));
+    // A correction names its original, who recorded it, and why it was corrected.
+    expect(text).toContain(hex("CORRECTION by Priya Lindqvist"));
+    expect(text).toContain(hex("Original as recorded (kept in the log):"));
     expect(manifestation(rec.signatures[0]!)).toMatch(
       /AUDITED — Dr. Grace Oyelaran \(safety officer\), 2026-11-21 09:00 UTC; identity not confirmed/,
     );
