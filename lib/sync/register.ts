@@ -25,7 +25,7 @@ const isCode = (e: unknown, code: string) => e instanceof TransportError && e.co
  */
 export async function registerDevice(
   db: RimelogDexie,
-  transport: Transport,
+  transport: Pick<Transport, "register">,
   now: () => Date = () => new Date(),
 ): Promise<Registration> {
   if (!transport.register) return "no_register";
