@@ -7,12 +7,13 @@ import { createHash } from "node:crypto";
 import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import type { Db } from "@/db/client";
 import { insertDevice } from "@/db/queries/devices";
+import { AppError } from "@/lib/errors";
 import { RimelogDexie } from "@/lib/local/db";
 import { confirmSession } from "@/lib/local/store";
 import type { SessionUser } from "@/lib/schemas/user";
 import type { PullReply } from "@/lib/sync/protocol";
 import { registerDevice } from "@/lib/sync/register";
-import type { Transport } from "@/lib/sync/transport";
+import { type Transport, TransportError } from "@/lib/sync/transport";
 import { registerDevice as serverRegister } from "@/server/devices/register";
 import { applyPush, pullPage } from "@/server/sync/apply";
 import { ENTRY_DEFAULTS } from "./entries";
@@ -49,7 +50,15 @@ export function inProcessRegister(
 ): NonNullable<Transport["register"]> {
   const dbNow = typeof db === "function" ? db : () => db;
   const who = typeof user === "function" ? user : () => user;
-  return async (r) => wire(await serverRegister(dbNow(), who(), wire(r)));
+  return async (r) => {
+    try {
+      return wire(await serverRegister(dbNow(), who(), wire(r)));
+    } catch (e) {
+      // As lib/sync/http.ts reads the server's error answer: its status and code.
+      if (!(e instanceof AppError)) throw e;
+      throw new TransportError(e.status === 403 ? "forbidden" : "bad_request", e.message, e.status, e.code);
+    }
+  };
 }
 
 /**
