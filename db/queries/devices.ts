@@ -4,7 +4,7 @@
 // (server/devices/register.ts, lib/schemas/device.ts); these are the rows.
 import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { type Device, deviceUsers, devices, users } from "@/db/schema";
+import { type Device, devices, deviceUsers, users } from "@/db/schema";
 import type { DeviceStanding, DeviceView } from "@/lib/schemas/device";
 
 /** The standing (withdrawn or not, who signed in) of each known device among `ids`. */
@@ -44,7 +44,9 @@ export async function createDevice(
       lastSeenAt: now,
       ...pendingSet(d.pending, now),
     });
-    await tx.insert(deviceUsers).values({ deviceId: d.id, userId: d.userId, firstSignedInAt: now, lastSignedInAt: now });
+    await tx
+      .insert(deviceUsers)
+      .values({ deviceId: d.id, userId: d.userId, firstSignedInAt: now, lastSignedInAt: now });
   });
 }
 
@@ -67,9 +69,7 @@ export async function bindDeviceUser(
     const updated = await tx
       .update(devices)
       .set(d.adoptSecretHash ? { ...set, secretHash: d.adoptSecretHash } : set)
-      .where(
-        d.adoptSecretHash ? and(eq(devices.id, d.id), sql`${devices.secretHash} is null`) : eq(devices.id, d.id),
-      )
+      .where(d.adoptSecretHash ? and(eq(devices.id, d.id), sql`${devices.secretHash} is null`) : eq(devices.id, d.id))
       .returning({ id: devices.id });
     if (updated.length === 0) return false;
     await tx
@@ -82,7 +82,11 @@ export async function bindDeviceUser(
 
 /** A push from these devices was stored: they were seen now. */
 export async function markDevicesSeen(db: Db, ids: readonly string[], at = new Date()): Promise<void> {
-  if (ids.length) await db.update(devices).set({ lastSeenAt: at }).where(inArray(devices.id, [...ids]));
+  if (ids.length)
+    await db
+      .update(devices)
+      .set({ lastSeenAt: at })
+      .where(inArray(devices.id, [...ids]));
 }
 
 /** Every device, most recently seen first, with the people who signed in on it. */
@@ -143,7 +147,9 @@ export async function insertDevice(
   d: { id: string; secretHash: string; userIds: readonly [string, ...string[]]; at?: Date },
 ): Promise<void> {
   const at = d.at ?? new Date();
-  await db.insert(devices).values({ id: d.id, userId: d.userIds[0], secretHash: d.secretHash, firstSeenAt: at, lastSeenAt: at });
+  await db
+    .insert(devices)
+    .values({ id: d.id, userId: d.userIds[0], secretHash: d.secretHash, firstSeenAt: at, lastSeenAt: at });
   await db
     .insert(deviceUsers)
     .values(d.userIds.map((userId) => ({ deviceId: d.id, userId, firstSignedInAt: at, lastSignedInAt: at })));

@@ -112,16 +112,21 @@ export type SyncSummary = {
 
 export async function syncSummary(db: RimelogDexie): Promise<SyncSummary> {
   // One read transaction, not nine: a tap's write waits for every read already running.
-  const [pending, rejected, pendingAttachments, rejectedAtt, [lastSuccess, lastAttempt, lastError, session, deviceId, withdrawn]] =
-    await db.transaction("r", [db.outbox, db.entries, db.attachments, db.meta], () =>
-      Promise.all([
-        db.outbox.count(),
-        db.entries.where("sync").equals("rejected").toArray(),
-        db.attachments.where("state").equals("pending").count(),
-        db.attachments.where("state").equals("rejected").toArray(),
-        db.getMetas("lastSuccess", "lastAttempt", "lastError", "session", "deviceId", "deviceWithdrawn"),
-      ]),
-    );
+  const [
+    pending,
+    rejected,
+    pendingAttachments,
+    rejectedAtt,
+    [lastSuccess, lastAttempt, lastError, session, deviceId, withdrawn],
+  ] = await db.transaction("r", [db.outbox, db.entries, db.attachments, db.meta], () =>
+    Promise.all([
+      db.outbox.count(),
+      db.entries.where("sync").equals("rejected").toArray(),
+      db.attachments.where("state").equals("pending").count(),
+      db.attachments.where("state").equals("rejected").toArray(),
+      db.getMetas("lastSuccess", "lastAttempt", "lastError", "session", "deviceId", "deviceWithdrawn"),
+    ]),
+  );
   return {
     pending,
     rejected: rejected.sort(newestFirst),

@@ -139,6 +139,10 @@ export async function registeredDeviceId(
   id: string = ENTRY_DEFAULTS.deviceId,
 ): Promise<string> {
   const ids = users.map((u) => u.id) as [string, ...string[]];
-  await insertDevice(db, { id, secretHash: createHash("sha256").update(crypto.randomUUID()).digest("hex"), userIds: ids });
+  await insertDevice(db, {
+    id,
+    secretHash: createHash("sha256").update(crypto.randomUUID()).digest("hex"),
+    userIds: ids,
+  });
   return id;
 }
