@@ -26,7 +26,7 @@ import { CHROMIUM_ARGS, chromiumPath } from "@/tests/e2e/support/chromium";
 import { ROOT } from "@/tests/support/dirs";
 import { entryInput, readingDraft } from "@/tests/support/entries";
 import { assertBuildExists, startServer, stopServer, waitForHealth } from "@/tests/support/server";
-import { inProcessServer, signedInTablet } from "@/tests/support/tablet";
+import { inProcessServer, registeredTablet } from "@/tests/support/tablet";
 import { DEMO_PASSWORD, tomasz } from "@/tests/support/users";
 
 const N = Number(process.env.BENCH_N) || 10_000;
@@ -96,7 +96,7 @@ function report(what: string, ms_: number, raw: { valuesMs: number; jsonMs: numb
 async function benchPush() {
   const db = await openDb();
   await seedIfEmpty(db);
-  const tablet = await signedInTablet(tomasz, "bench");
+  const tablet = await registeredTablet(db, tomasz, "bench");
   const stages = ["pt1", "pt2", "still", "cold", "mxc"];
   for (let i = 0; i < N; i += 500) {
     const drafts: EntryDraft[] = Array.from({ length: Math.min(500, N - i) }, (_, j) =>
@@ -304,12 +304,9 @@ async function benchTap() {
         session = (await get("session"))?.value; // the first pull after sign-in writes it
         if (!session) await new Promise((r) => setTimeout(r, 100));
       }
-      // Made by the first save; with no taps before, one is made here the way the app would.
-      let deviceId = (await get("deviceId"))?.value;
-      if (!deviceId) {
-        deviceId = crypto.randomUUID();
-        await new Promise((res) => { const r = db.transaction("meta", "readwrite").objectStore("meta").put({ key: "deviceId", value: deviceId }); r.onsuccess = res; });
-      }
+      // Issued by the server when the sign-in registered the tablet (lib/sync/register.ts).
+      const deviceId = (await get("deviceId"))?.value;
+      if (!deviceId) throw new Error("the tablet holds no registration after sign-in");
       const tx = db.transaction(["entries", "outbox"], "readwrite", { durability: "strict" });
       const base = Date.now();
       for (let i = 0; i < n; i++) {

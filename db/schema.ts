@@ -9,6 +9,7 @@ import {
   integer,
   jsonb,
   pgTable,
+  primaryKey,
   text,
   timestamp,
   uniqueIndex,
@@ -189,14 +190,45 @@ export const mailOutbox = pgTable("mail_outbox", {
   error: text("error"),
 });
 
-/** Tablets known to the server; a revoked device's pushes are refused. */
+/**
+ * Tablets registered with the server (POST /api/devices: server/devices/register.ts). The id is
+ * issued by the server; the tablet proves it holds the registration with a secret, of which only
+ * the SHA-256 is kept. `userId` is who registered it first. A row without `secretHash` is a
+ * device id from before registration existed (made by its first push); its first user may adopt
+ * it once. A revoked device's pushes are refused and it cannot register again; who revoked it,
+ * when and why stay in the row.
+ */
 export const devices = pgTable("devices", {
   id: text("id").primaryKey(),
   userId: text("user_id").notNull(),
   firstSeenAt: timestamp("first_seen_at", { withTimezone: true }).notNull().defaultNow(),
   lastSeenAt: timestamp("last_seen_at", { withTimezone: true }).notNull().defaultNow(),
   revokedAt: timestamp("revoked_at", { withTimezone: true }),
+  secretHash: text("secret_hash"),
+  /** Entries waiting in the tablet's outbox, as it said at its last registration (null: never said). */
+  pendingCount: integer("pending_count"),
+  pendingAt: timestamp("pending_at", { withTimezone: true }),
+  revokedBy: text("revoked_by").references(() => users.id),
+  revokedReason: text("revoked_reason"),
 });
+export type Device = typeof devices.$inferSelect;
+
+/** Who has signed in on which tablet (online, so the server bound them): their entries from it are accepted. */
+export const deviceUsers = pgTable(
+  "device_users",
+  {
+    deviceId: text("device_id")
+      .notNull()
+      .references(() => devices.id),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id),
+    firstSignedInAt: timestamp("first_signed_in_at", { withTimezone: true }).notNull().defaultNow(),
+    lastSignedInAt: timestamp("last_signed_in_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.deviceId, t.userId] })],
+);
+export type DeviceUser = typeof deviceUsers.$inferSelect;
 
 /**
  * Sign-in attempts, for the limits per account and per address and for the audit trail. A row is

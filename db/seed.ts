@@ -1,7 +1,7 @@
 // The demo lab (an invented facility, people and devices): users of all four roles, three
 // cryostats, the facility rules, the default procedure templates and four weeks of history,
 // written through the same append path as a tablet push. Runs only on an empty database.
-import { randomUUID } from "node:crypto";
+import { createHash, randomUUID } from "node:crypto";
 import bcrypt from "bcryptjs";
 import { count } from "drizzle-orm";
 import { he4PressureFromTemperature } from "@/lib/cryo";
@@ -17,11 +17,15 @@ import type { FacilityRulesValues } from "@/lib/schemas/rules";
 import { hmacHex, passwordProofKey, signingMessage } from "@/lib/signing/proof";
 import { recordHash } from "@/lib/sync/hash";
 import type { Db } from "./client";
+import { insertDevice } from "./queries/devices";
 import { appendEntries } from "./queries/entries";
 import { cryostats, facilityRules, procedureTemplates, type Role, users } from "./schema";
 import { DEFAULT_TEMPLATES } from "./seed-templates";
 
 export const DEMO_PASSWORD = "cold-hall-demo";
+
+/** The room's shared tablet the demo history was written on, registered with everyone who wrote on it. */
+export const DEMO_TABLET = "demo-tablet-b014";
 
 export const DEMO_USERS: { id: string; email: string; name: string; role: Role }[] = [
   { id: "u-ines", email: "ines@larchmere.example", name: "Ines Vartanian", role: "facility_admin" },
@@ -466,7 +470,7 @@ function toEntry(d: Draft): EntryInput {
     kind: d.kind,
     payload: d.payload,
     authorId: d.author,
-    deviceId: "demo-tablet-b014",
+    deviceId: DEMO_TABLET,
     recordedAt: new Date(Math.round(d.at)).toISOString(),
     supersedes: null,
     reason: null,
@@ -540,6 +544,13 @@ export async function seedIfEmpty(db: Db, now = Date.now()): Promise<boolean> {
       .values(DEFAULT_TEMPLATES.map((t) => ({ ...t, id: randomUUID(), version: 1, createdBy: "u-ines" })));
   }
   const all = withSignatures(demoHistory(now).map(toEntry), passwordHash);
+  // The demo tablet is registered (nobody holds its secret: a browser signing in gets its own).
+  const writers = DEMO_USERS.map((u) => u.id).filter((id) => all.some((e) => e.authorId === id));
+  const [first, ...rest] = writers;
+  if (first) {
+    const secretHash = createHash("sha256").update(randomUUID()).digest("hex");
+    await insertDevice(db, { id: DEMO_TABLET, secretHash, userIds: [first, ...rest], at: new Date(now - 28 * DAY) });
+  }
   // Written through the normal append path (checks, hash chain, projections), each entry checked
   // in its author's own role, in batches.
   const authors = new Map(DEMO_USERS.map((u) => [u.id, u]));

@@ -4,6 +4,7 @@ import Link from "next/link";
 import { usePathname } from "next/navigation";
 import { SignOutButton } from "@/components/sync/sign-out-button";
 import { SyncIndicator } from "@/components/sync/sync-indicator";
+import { WithdrawnBanner } from "@/components/sync/withdrawn-banner";
 import { ROLE_LABEL } from "@/lib/auth/permissions";
 import { ThemeToggle } from "./theme-toggle";
 import { useMe } from "./use-me";
@@ -20,6 +21,7 @@ const NAV: { href: string; label: string; roles?: string[] }[] = [
   { href: "/admin/templates", label: "Templates", roles: ["facility_admin"] },
   { href: "/admin/rules", label: "Rules", roles: ["facility_admin"] },
   { href: "/admin/mail", label: "Mail", roles: ["facility_admin"] },
+  { href: "/admin/devices", label: "Tablets", roles: ["facility_admin"] },
 ];
 
 export function AppHeader() {
@@ -64,6 +66,7 @@ export function AppHeader() {
           <SignOutButton userId={me?.id} />
         </div>
       </div>
+      <WithdrawnBanner />
     </header>
   );
 }

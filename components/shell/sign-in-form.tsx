@@ -10,7 +10,10 @@ import { z } from "zod";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { Notice, Panel } from "@/components/ui/panel";
+import { localDb } from "@/lib/local/db";
 import { safeNextPath } from "@/lib/safe-next";
+import { httpTransport } from "@/lib/sync/http";
+import { registerDevice } from "@/lib/sync/register";
 
 const schema = z.object({
   email: z.string().trim().email("Enter your email address"),
@@ -36,6 +39,12 @@ export function SignInForm() {
     if (!res || res.error) {
       setError(res?.error && res.error !== "CredentialsSignin" ? res.error : "Email or password did not match.");
       return;
+    }
+    // Bind this tablet to the session now (the first sync round does it again if this fails).
+    try {
+      await registerDevice(localDb(), httpTransport);
+    } catch {
+      /* no store or no answer: the sync round registers */
     }
     window.location.assign(safeNextPath(params.get("next")));
   });

@@ -178,12 +178,6 @@ export async function appendEntries(
         .onConflictDoUpdate({ target: chainHeads.chain, set: head });
     }
     if (written.length) await runProjectors(t, written);
-    for (const d of deviceIds) {
-      await t
-        .insert(devices)
-        .values({ id: d, userId: user.id })
-        .onConflictDoUpdate({ target: devices.id, set: { lastSeenAt: receivedAt } });
-    }
     return { accepted, rejected };
   });
 }

@@ -1,7 +1,7 @@
 // The tablet store: the ONE Dexie class with every schema version, its row types, and how it is
 // opened (strict durability, so "saved" means on disk, not only in Chromium's write cache).
 // Reference data (cryostats, templates, facility rules, calibrations in force, people), local and pulled entries with their sync state, the outbox, push answers not
-// yet written into their entries, photo blobs, and sync metadata (device id, pull cursor, last
+// yet written into their entries, photo blobs, and sync metadata (device registration, pull cursor, last
 // success, the offline session) all live here.
 import Dexie, { type DexieOptions, type Table, type Transaction } from "dexie";
 import type { CalibrationRecord } from "@/lib/schemas/calibration";
@@ -91,7 +91,12 @@ export type LocalUser = PublicUser;
 export type LocalSession = { user: SessionUser; confirmedAt: string };
 
 export type MetaRow =
+  /** The id the server issued to this tablet (POST /api/devices); every entry written here carries it. */
   | { key: "deviceId"; value: string }
+  /** The secret that proves this tablet holds its registration (kept across sign-outs, like the id). */
+  | { key: "deviceSecret"; value: string }
+  /** Set when the server answered that this tablet was withdrawn: nothing more is pushed. */
+  | { key: "deviceWithdrawn"; value: { message: string; at: string } | null }
   | { key: "session"; value: LocalSession }
   | { key: "cursor"; value: number }
   | { key: "refHash"; value: string }

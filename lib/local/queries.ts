@@ -106,20 +106,27 @@ export type SyncSummary = {
   user: { id: string; name: string; role: string } | null;
   sessionConfirmedAt: string | null;
   deviceId: string | null;
+  /** The server's word that this tablet was withdrawn (nothing more is pushed), or null. */
+  withdrawn: { message: string; at: string } | null;
 };
 
 export async function syncSummary(db: RimelogDexie): Promise<SyncSummary> {
   // One read transaction, not nine: a tap's write waits for every read already running.
-  const [pending, rejected, pendingAttachments, rejectedAtt, [lastSuccess, lastAttempt, lastError, session, deviceId]] =
-    await db.transaction("r", [db.outbox, db.entries, db.attachments, db.meta], () =>
-      Promise.all([
-        db.outbox.count(),
-        db.entries.where("sync").equals("rejected").toArray(),
-        db.attachments.where("state").equals("pending").count(),
-        db.attachments.where("state").equals("rejected").toArray(),
-        db.getMetas("lastSuccess", "lastAttempt", "lastError", "session", "deviceId"),
-      ]),
-    );
+  const [
+    pending,
+    rejected,
+    pendingAttachments,
+    rejectedAtt,
+    [lastSuccess, lastAttempt, lastError, session, deviceId, withdrawn],
+  ] = await db.transaction("r", [db.outbox, db.entries, db.attachments, db.meta], () =>
+    Promise.all([
+      db.outbox.count(),
+      db.entries.where("sync").equals("rejected").toArray(),
+      db.attachments.where("state").equals("pending").count(),
+      db.attachments.where("state").equals("rejected").toArray(),
+      db.getMetas("lastSuccess", "lastAttempt", "lastError", "session", "deviceId", "deviceWithdrawn"),
+    ]),
+  );
   return {
     pending,
     rejected: rejected.sort(newestFirst),
@@ -135,6 +142,7 @@ export async function syncSummary(db: RimelogDexie): Promise<SyncSummary> {
     user: session ? { id: session.user.id, name: session.user.name, role: session.user.role } : null,
     sessionConfirmedAt: session?.confirmedAt ?? null,
     deviceId: deviceId ?? null,
+    withdrawn: withdrawn ?? null,
   };
 }
 

@@ -1,5 +1,5 @@
 // Writing on the tablet: an entry and its outbox row in one Dexie transaction (and a photo blob),
-// with the offline session and device id the entry is stamped with. Every function takes the
+// with the offline session and the registered device id the entry is stamped with. Every function takes the
 // Dexie instance first so tests can run several simulated tablets side by side.
 
 import { mayWrite } from "@/lib/auth/permissions";
@@ -45,6 +45,7 @@ export type LocalWriteCode =
   | "forbidden"
   | "no_session"
   | "session_expired"
+  | "no_device"
   | "storage_full"
   | "storage_failed";
 
@@ -58,21 +59,6 @@ export class LocalWriteError extends Error {
     super(message);
     this.name = "LocalWriteError";
   }
-}
-
-export function newDeviceId(): string {
-  return `tab-${crypto.randomUUID()}`;
-}
-
-/** The tablet's id, made once and kept across sign-outs (the server can revoke it). */
-export async function ensureDeviceId(db: RimelogDexie): Promise<string> {
-  return db.transaction("rw", db.meta, async () => {
-    const have = await db.getMeta("deviceId");
-    if (have) return have;
-    const id = newDeviceId();
-    await db.setMeta("deviceId", id);
-    return id;
-  });
 }
 
 /** Remember who is signed in, as the server just confirmed it (called after each good contact). */
@@ -212,21 +198,30 @@ async function writePrepared(
   }
 }
 
-/** Read who is signed in (and the device id, made on the first write), then write for them. */
+/**
+ * The tablet has no registration yet. It registers at the online sign-in (and at each sync
+ * round), before the first session is confirmed, so this should not happen; if it does, nothing
+ * is written under an id the server never issued (the server would refuse it for good).
+ */
+const NO_DEVICE = () =>
+  new LocalWriteError(
+    "no_device",
+    "This tablet is not registered with the server yet, so it cannot record. Connect to the network and sign in again; this entry was NOT saved.",
+  );
+
+/** Read who is signed in and the tablet's registered id, then write for them. */
 async function writeAfterReading(
   db: RimelogDexie,
   drafts: readonly AnyDraft[],
   now: Date,
 ): Promise<StoredLocalEntry[]> {
   return db.transaction("rw", [db.entries, db.outbox, db.meta], async () => {
-    const [session, knownDevice] = await db.getMetas("session", "deviceId");
-    const problem = sessionProblem(session, now.getTime());
-    if (problem || !session) throw problem;
-    const signer = { user: session.user, deviceId: knownDevice ?? newDeviceId() };
+    const [session, deviceId] = await db.getMetas("session", "deviceId");
+    const problem = sessionProblem(session, now.getTime()) ?? (deviceId ? null : NO_DEVICE());
+    if (problem || !session || !deviceId) throw problem;
+    const signer = { user: session.user, deviceId };
     const fresh = prepare(drafts, signer, now);
-    const writes: Promise<unknown>[] = [db.entries.bulkAdd(fresh.stored), db.outbox.bulkAdd(fresh.rows)];
-    if (!knownDevice) writes.push(db.setMeta("deviceId", signer.deviceId));
-    await Promise.all(writes);
+    await Promise.all([db.entries.bulkAdd(fresh.stored), db.outbox.bulkAdd(fresh.rows)]);
     lastSigner.set(db, signer);
     return fresh.stored;
   });
@@ -300,10 +295,10 @@ export async function recordSignedIn<const D extends readonly AnyDraft[]>(
 ): Promise<RecordedOf<D>> {
   let stored: StoredLocalEntry[];
   try {
-    const session = await db.getMeta("session");
-    const problem = sessionProblem(session, now.getTime());
-    if (problem || !session) throw problem;
-    const signer = { user: session.user, deviceId: await ensureDeviceId(db) };
+    const [session, deviceId] = await db.getMetas("session", "deviceId");
+    const problem = sessionProblem(session, now.getTime()) ?? (deviceId ? null : NO_DEVICE());
+    if (problem || !session || !deviceId) throw problem;
+    const signer = { user: session.user, deviceId };
     const records = prepare(drafts, signer, now).stored;
     const signatures: EntryInput[] = [];
     for (const r of records) signatures.push(buildEntry(await sign(r), signer.user.id, signer.deviceId, now));

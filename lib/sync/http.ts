@@ -1,5 +1,6 @@
 // The browser transport: the sync protocol over fetch (same origin, JSON, never cached), with
 // HTTP failures mapped to the few kinds the sync loop acts on.
+import type { DeviceRegistered, DeviceRegistration } from "@/lib/schemas/device";
 import type { EntryInput } from "@/lib/schemas/entry";
 import type { PullReply, PushReply, UploadReply } from "./protocol";
 import { type Transport, TransportError } from "./transport";
@@ -67,6 +68,13 @@ export const httpTransport: Transport = {
     const q = new URLSearchParams({ since: String(since) });
     if (refHash !== null) q.set("ref", refHash);
     return call<PullReply>(`/api/sync/pull?${q}`, { method: "GET" });
+  },
+  register(r: DeviceRegistration) {
+    return call<DeviceRegistered>("/api/devices", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify(r),
+    });
   },
   upload(a) {
     return call<UploadReply>("/api/attachments", {

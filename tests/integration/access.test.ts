@@ -60,6 +60,9 @@ const ACCESS: Record<string, Access> = {
   "GET /api/chain": OFFICE,
   "POST /api/chain": OFFICE,
   "GET /api/cryostats": "signed-in",
+  "GET /api/devices": ["facility_admin"],
+  "POST /api/devices": "signed-in",
+  "POST /api/devices/[id]/revoke": ["facility_admin"],
   "GET /api/cryostats/[id]/entries": "signed-in",
   "GET /api/cryostats/[id]/series": "signed-in",
   "GET /api/exports/report": OFFICE,
@@ -203,6 +206,7 @@ describe("every API route × method × role answers as declared", () => {
 describe("role-restricted routes", () => {
   const cases: { file: string; method: Method; allowed: string[] }[] = [
     { file: "app/api/users/route.ts", method: "GET", allowed: ["u-ines"] },
+    { file: "app/api/devices/route.ts", method: "GET", allowed: ["u-ines"] },
   ];
   for (const c of cases) {
     it(`${c.method} ${c.file}: only ${c.allowed.join(", ")}`, async () => {

@@ -16,6 +16,7 @@ import { applyPush } from "@/server/sync/apply";
 import { testDirs } from "../support/dirs";
 import { entryBuilder, note } from "../support/entries";
 import { passwordSignature } from "../support/signing";
+import { registeredDeviceId } from "../support/tablet";
 import { grace, ines, priya, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
@@ -256,6 +257,7 @@ describe("time, place and text", () => {
     const bad1 = note("before\u0000after");
     const bad2 = note("half \ud83d a smile");
     const good = note("fine");
+    await registeredDeviceId(db, [tomasz]);
     const reply = await applyPush(db, tomasz, { entries: [bad1, good, bad2] });
     expect(reply.rejected.map((r) => [r.id, r.code])).toEqual([
       [bad1.id, "bad_request:text"],

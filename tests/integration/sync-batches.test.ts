@@ -9,10 +9,11 @@ import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { beforeEach, describe, expect, it } from "vitest";
 import type { Db } from "@/db/client";
 import { toStoredRow } from "@/db/queries/stored";
-import { entries } from "@/db/schema";
+import { devices, entries } from "@/db/schema";
 import { SCHEMA_VERSIONS } from "@/lib/local/db";
 import { queryEntries, queryEntry } from "@/lib/local/queries";
-import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
+import type { EntryDraft } from "@/lib/local/store";
+import { recordEntriesIn } from "@/lib/local/store";
 import type { EntryInput } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
 import { syncOnce } from "@/lib/sync/client";
@@ -20,7 +21,7 @@ import { applyPushReply, toInput } from "@/lib/sync/push";
 import { type Transport, TransportError } from "@/lib/sync/transport";
 import { applyPush, pullPage } from "@/server/sync/apply";
 import { localEntry, note, readingDraft } from "../support/entries";
-import { fakeTablet } from "../support/tablet";
+import { fakeTablet, inProcessRegister, signInOnline } from "../support/tablet";
 import { priya, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
@@ -32,6 +33,8 @@ beforeEach(async () => {
 });
 
 const tablet = (name = "t") => fakeTablet(name, factory);
+/** `user` signs in on the tablet online (it registers with the server, as the real one does). */
+const signIn = (t: ReturnType<typeof tablet>, user: SessionUser) => signInOnline(t, db, user);
 
 function readings(n: number, tag: string): EntryDraft[] {
   return Array.from({ length: n }, (_, i) =>
@@ -53,6 +56,7 @@ function server(
   /** With encodeAhead: for each push, whether it came with a body made ahead, and the body's entries. */
   const bodies: { ahead: boolean; ids: string[] }[] = [];
   const transport: Transport = {
+    register: inProcessRegister(() => db, who),
     ...(opts.encodeAhead ? { encodePush: (list: EntryInput[]) => JSON.stringify({ entries: list }) } : {}),
     async push(list, encoded) {
       if (opts.failOnPush !== undefined && sent.length === opts.failOnPush)
@@ -86,7 +90,7 @@ async function stored(ids: string[]) {
 describe("pushing a long outbox", () => {
   it("sends in order of writing, each once, halves the batch on a 413, and ends with the server's copy on the tablet", async () => {
     const t = tablet();
-    await confirmSession(t, tomasz);
+    await signIn(t, tomasz);
     for (let b = 0; b < 5; b++) await recordEntriesIn(t, readings(9, `b${b}`));
     const written = (await t.outbox.orderBy("n").toArray()).map((r) => r.entryId);
     const { transport, sent } = server(() => tomasz, { maxEntries: 7 });
@@ -107,7 +111,7 @@ describe("pushing a long outbox", () => {
 
   it("sends each batch with the body the transport made ahead for exactly that batch, also after a 413", async () => {
     const t = tablet();
-    await confirmSession(t, tomasz);
+    await signIn(t, tomasz);
     for (let b = 0; b < 4; b++) await recordEntriesIn(t, readings(9, `b${b}`));
     const written = (await t.outbox.orderBy("n").toArray()).map((r) => r.entryId);
     const { transport, sent, bodies } = server(() => tomasz, { maxEntries: 7, encodeAhead: true });
@@ -124,12 +128,12 @@ describe("pushing a long outbox", () => {
   it("leaves another person's queued rows alone, even between this person's", async () => {
     const t = tablet();
     let who = tomasz;
-    await confirmSession(t, tomasz);
+    await signIn(t, tomasz);
     const a = await recordEntriesIn(t, readings(3, "tomasz-1"));
     // Priya signs in on the same tablet (her session, her entries), then Tomasz again.
-    await confirmSession(t, priya);
+    await signIn(t, priya);
     const p = await recordEntriesIn(t, readings(2, "priya"));
-    await confirmSession(t, tomasz);
+    await signIn(t, tomasz);
     const b = await recordEntriesIn(t, readings(3, "tomasz-2"));
 
     const { transport, sent } = server(() => who);
@@ -141,7 +145,7 @@ describe("pushing a long outbox", () => {
 
     // Her turn: she signs in, and her rows go with her session.
     who = priya;
-    await confirmSession(t, priya);
+    await signIn(t, priya);
     await syncOnce(t, transport, { maxBatch: 50 });
     expect(await t.outbox.count()).toBe(0);
     expect((await stored(p.map((e) => e.id))).map((e) => e.authorId)).toEqual(["u-priya", "u-priya"]);
@@ -149,7 +153,7 @@ describe("pushing a long outbox", () => {
 
   it("keeps every unanswered row queued when the network fails half-way, and the next round finishes", async () => {
     const t = tablet();
-    await confirmSession(t, tomasz);
+    await signIn(t, tomasz);
     await recordEntriesIn(t, readings(40, "x"));
     const failing = server(() => tomasz, { failOnPush: 2 });
     await expect(syncOnce(t, failing.transport, { maxBatch: 10 })).rejects.toThrow("The network went away.");
@@ -167,7 +171,7 @@ describe("pushing a long outbox", () => {
 
   it("keeps an answer as a receipt until it is written into its entries; the next round writes one a crash left", async () => {
     const t = tablet("crash");
-    await confirmSession(t, tomasz);
+    await signIn(t, tomasz);
     const written = await recordEntriesIn(t, readings(5, "r"));
     // The answer arrives and its receipt commits with the outbox removal; then the tab dies.
     const rows = await t.outbox.orderBy("n").toArray();
@@ -208,6 +212,10 @@ describe("pushing a long outbox", () => {
     const old = new Dexie("upgrade", { indexedDB: factory, IDBKeyRange });
     for (const [version, stores] of SCHEMA_VERSIONS.filter(([v]) => v <= 2)) old.version(version).stores(stores);
     const e = note("written before the update", { deviceId: "tab-old" });
+    // Its device id reached the server with an earlier push, before tablets registered: the
+    // server holds it without a secret, and its user adopts it at the first round.
+    await db.insert(devices).values({ id: "tab-old", userId: tomasz.id });
+    await old.table("meta").put({ key: "deviceId", value: "tab-old" });
     await old.table("entries").add(localEntry(e));
     await old.table("outbox").add({ entryId: e.id, authorId: tomasz.id, queuedAt: e.recordedAt, bytes: 300 });
     await old.table("meta").put({ key: "session", value: { user: tomasz, confirmedAt: new Date().toISOString() } });

@@ -18,7 +18,7 @@ import { toInput } from "@/lib/sync/push";
 import { applyPush } from "@/server/sync/apply";
 import { testDirs } from "../support/dirs";
 import { readingDraft } from "../support/entries";
-import { inProcessServer, signedInTablet } from "../support/tablet";
+import { inProcessServer, registeredTablet } from "../support/tablet";
 import { tomasz } from "../support/users";
 
 const dirs = testDirs("rimelog-kill-");
@@ -30,10 +30,10 @@ describe("killed in the middle of a push", () => {
     const dir = dirs.dataDir;
     const seeded = await openDb(dir);
     await seedIfEmpty(seeded);
+    // The tablet, signed in online (registered with this server): 4 large batches of readings waiting in its outbox.
+    const tablet = await registeredTablet(seeded, tomasz, "kill-tablet");
     await seeded.$client.close();
 
-    // The tablet: 4 large batches of readings waiting in its outbox.
-    const tablet = await signedInTablet(tomasz, "kill-tablet");
     const size = 250;
     for (let b = 0; b < 4; b++) {
       const drafts: EntryDraft[] = Array.from({ length: size }, (_, i) =>

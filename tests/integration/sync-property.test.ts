@@ -16,7 +16,7 @@ import { toStoredRow } from "@/db/queries/stored";
 import { chainHeads, entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
 import type { RimelogDexie } from "@/lib/local/db";
-import { confirmSession, type EntryDraft, recordEntriesIn } from "@/lib/local/store";
+import { type EntryDraft, recordEntriesIn } from "@/lib/local/store";
 import type { SessionUser } from "@/lib/schemas/user";
 import { syncOnce } from "@/lib/sync/client";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
@@ -24,7 +24,7 @@ import { type Transport, TransportError } from "@/lib/sync/transport";
 import { applyPush, pullPage } from "@/server/sync/apply";
 import { type TestDirs, testDirs } from "../support/dirs";
 import { noteDraft, readingDraft } from "../support/entries";
-import { fakeTablet, wire } from "../support/tablet";
+import { fakeTablet, inProcessRegister, signInOnline, wire } from "../support/tablet";
 import { mateo, priya, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
@@ -47,7 +47,18 @@ const offline = () => new TransportError("offline", "simulated network loss");
 
 function transportFor(server: Server, d: Device, healthy: () => boolean): Transport {
   const nextFault = (): Fault => (healthy() ? "ok" : (d.faults[d.f++ % d.faults.length] ?? "ok"));
+  const register = inProcessRegister(
+    () => server.db,
+    () => d.user,
+  );
   return {
+    async register(r) {
+      const fault = nextFault();
+      if (fault === "lose-request") throw offline();
+      const reply = await register(r);
+      if (fault === "lose-reply") throw offline();
+      return reply;
+    },
     async push(list) {
       const body = wire({ entries: list });
       const fault = nextFault();
@@ -123,7 +134,7 @@ async function simulate(server: Server, plan: { faults: Fault[][]; cmds: Cmd[] }
       f: 0,
       written: [],
     };
-    await confirmSession(d.store, d.user);
+    await signInOnline(d.store, () => server.db, d.user);
     // A tablet set up now starts its pull cursor at the server's head (older entries are not its concern here).
     await d.store.setMeta("cursor", Number(startSeq));
     devices.push(d);

@@ -12,7 +12,7 @@ import { syncOnce } from "@/lib/sync/client";
 import { PUSH_LIMITS, type PullReply, type PushReply } from "@/lib/sync/protocol";
 import { type Transport, TransportError } from "@/lib/sync/transport";
 import { note, noteDraft } from "../support/entries";
-import { nothingNew, signedInTablet } from "../support/tablet";
+import { nothingNew, registeredDeviceId, signedInTablet } from "../support/tablet";
 import { grace, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
@@ -47,6 +47,8 @@ async function count() {
 beforeEach(async () => {
   state.db = await freshDb({ seeded: true });
   state.user = tomasz;
+  // The entries below come from tablet "tab-1", on which Tomasz and Grace have signed in online.
+  await registeredDeviceId(state.db, [tomasz, grace]);
 });
 
 describe("POST /api/sync/push", () => {

@@ -14,6 +14,7 @@ import { getCryostat } from "@/db/queries/cryostats";
 import { loadReference } from "@/db/queries/reference";
 import { getRules } from "@/db/queries/rules";
 import { cryostatSeries } from "@/db/queries/series";
+import { devices } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { RimelogDexie, SCHEMA_VERSIONS } from "@/lib/local/db";
 import { calibrationsOf, seriesOf } from "@/lib/local/queries";
@@ -27,6 +28,7 @@ import type { PullReply } from "@/lib/sync/protocol";
 import { applyPull } from "@/lib/sync/pull";
 import type { Transport } from "@/lib/sync/transport";
 import { applyPush } from "@/server/sync/apply";
+import { inProcessRegister } from "../support/tablet";
 import { freshDb } from "./fixture";
 
 const state: { db?: Db; user: SessionUser | null } = { user: null };
@@ -79,6 +81,10 @@ const tablet = (name = "t") => new RimelogDexie(name, { indexedDB: factory, IDBK
 function server(opts: { dropCalibrations?: boolean } = {}) {
   const pulls: PullReply[] = [];
   const transport: Transport = {
+    register: inProcessRegister(
+      () => state.db!,
+      () => state.user!,
+    ),
     async push(list) {
       return JSON.parse(JSON.stringify(await applyPush(state.db!, state.user!, { entries: list })));
     },
@@ -196,7 +202,11 @@ describe("reference data on the tablet", () => {
     await old
       .table("outbox")
       .add({ entryId: note.id, authorId: tomasz.id, queuedAt: note.recordedAt, bytes: 300, entry: note });
+    // Its device id reached the server with an earlier push, before tablets registered (kept
+    // without a secret); Tomasz adopts it at the first round.
+    await state.db!.insert(devices).values({ id: "tab-old", userId: tomasz.id });
     await old.table("meta").bulkPut([
+      { key: "deviceId", value: "tab-old" },
       { key: "session", value: { user: tomasz, confirmedAt: new Date().toISOString() } },
       { key: "rules", value: ref.rules },
       // A hash the v4 app could have kept: it must not stop the tables from coming.

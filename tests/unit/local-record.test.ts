@@ -11,18 +11,28 @@ import {
   recordEntriesIn,
 } from "@/lib/local/store";
 import { entryInput, localEntry, noteDraft } from "../support/entries";
-import { fakeTablet as tablet } from "../support/tablet";
+import { fakeTablet } from "../support/tablet";
 import { grace, priya, tomasz } from "../support/users";
+
+/** The id the server issued to this tablet at its online sign-in (lib/sync/register.ts keeps it). */
+const REGISTERED = "tab-issued-by-the-server";
+
+/** A tablet store that has registered with the server (as every tablet does before its first session). */
+async function tablet() {
+  const db = fakeTablet();
+  await db.setMeta("deviceId", REGISTERED);
+  return db;
+}
 
 describe("tablet store: recording", () => {
   it("writes the entry and its outbox row together, stamped with author, device and time", async () => {
-    const db = tablet();
+    const db = await tablet();
     await confirmSession(db, tomasz);
     const [e] = await recordEntriesIn(db, [
       { cryostatId: "wren", kind: "reading", payload: { quantity: "4 K plate", stage: "4k", value: 3.9, unit: "K" } },
     ]);
     expect(e?.authorId).toBe("u-tomasz");
-    expect(e?.deviceId).toMatch(/^tab-/);
+    expect(e?.deviceId).toBe(REGISTERED);
     expect(e?.sync).toBe("pending");
     expect(new Date(e!.recordedAt).toISOString()).toBe(e!.recordedAt);
     const out = await db.outbox.toArray();
@@ -32,7 +42,7 @@ describe("tablet store: recording", () => {
   });
 
   it("writes nothing when one of several drafts is invalid (all or none)", async () => {
-    const db = tablet();
+    const db = await tablet();
     await confirmSession(db, tomasz);
     const bad = recordEntriesIn(db, [
       noteDraft("fine"),
@@ -45,7 +55,7 @@ describe("tablet store: recording", () => {
   });
 
   it("refuses to record without a session, after the offline bound, or for a kind the role may not write", async () => {
-    const db = tablet();
+    const db = await tablet();
     await expect(recordEntriesIn(db, [noteDraft("x")])).rejects.toMatchObject({ code: "no_session" });
     await confirmSession(db, tomasz, new Date(Date.now() - OFFLINE_SESSION_MS - 60_000));
     await expect(recordEntriesIn(db, [noteDraft("x")])).rejects.toMatchObject({ code: "session_expired" });
@@ -62,9 +72,18 @@ describe("tablet store: recording", () => {
     expect(await db.entries.count()).toBe(0);
   });
 
+  it("refuses to record on a tablet that holds no registration, and writes nothing", async () => {
+    const db = fakeTablet();
+    await confirmSession(db, tomasz);
+    await expect(recordEntriesIn(db, [noteDraft("x")])).rejects.toMatchObject({ code: "no_device" });
+    expect(await db.entries.count()).toBe(0);
+    expect(await db.outbox.count()).toBe(0);
+    expect(await db.getMeta("deviceId")).toBeUndefined();
+  });
+
   it("stamps each write for whoever is signed in now, even right after someone else wrote", async () => {
     // A write goes out prepared for the previous writer and is checked inside its transaction.
-    const db = tablet();
+    const db = await tablet();
     const note = (text: string) => [noteDraft(text)];
     await confirmSession(db, tomasz);
     const [a] = await recordEntriesIn(db, note("tomasz"));
@@ -92,7 +111,7 @@ describe("tablet store: recording", () => {
   });
 
   it("keeps a photo for upload and refuses an empty one", async () => {
-    const db = tablet();
+    const db = await tablet();
     await confirmSession(db, tomasz);
     const id = await putAttachmentIn(db, new Blob([new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 1, 2, 3])]), {
       fileName: "gauge.jpg",
@@ -109,7 +128,7 @@ describe("tablet store: recording", () => {
 
 describe("tablet store: reading a cryostat's newest entries", () => {
   it("gives unsent entries first, then synced ones by server order, without the rest of the log", async () => {
-    const db = tablet();
+    const db = await tablet();
     await confirmSession(db, tomasz);
     const synced = Array.from({ length: 30 }, (_, i) =>
       localEntry(
@@ -138,7 +157,7 @@ describe("tablet store: reading a cryostat's newest entries", () => {
 
 describe("tablet store: reading entries of some kinds", () => {
   it("reads them by kind (per cryostat, across cryostats, or facility-wide), newest first", async () => {
-    const db = tablet();
+    const db = await tablet();
     await confirmSession(db, tomasz);
     const at = (i: number) => new Date(Date.UTC(2026, 10, 2, 0, i));
     const reading = { quantity: "Temperature", stage: "still", value: 0.8, unit: "K" };
