@@ -22,9 +22,11 @@ export interface SqlClient {
   /**
    * Several processes on one database (PostgreSQL server only): try to take, or confirm that
    * this process still holds, the session-level advisory lock `key` on a connection of its own.
-   * Absent on PGlite, whose one process always holds it.
+   * Absent on PGlite, whose one process always holds it. `onNudge` runs in the holder when
+   * another process calls `nudgeLease(key)`.
    */
-  holdLease?(key: number): Promise<boolean>;
+  holdLease?(key: number, onNudge?: () => void): Promise<boolean>;
+  nudgeLease?(key: number): Promise<void>;
 }
 
 /** Either driver's database: the queries use only what both have in common (pg-core). */

@@ -10,10 +10,17 @@ import { type Db, MIGRATIONS_DIR, type SqlClient } from "./client";
 import { LOCK_SPACE, LOCKS } from "./locks";
 import * as schema from "./schema";
 
+const leaseChannel = (key: number) => `rimelog_lease_${key}`;
+
 /** pg's Pool with the methods the app's code expects of any client (client.ts, SqlClient). */
 export class ServerPool extends pg.Pool implements SqlClient {
   private leases = new Map<number, pg.PoolClient>();
   private pending = new Map<number, Promise<boolean>>();
+  private nudged = new Map<number, () => void>();
+
+  async nudgeLease(key: number): Promise<void> {
+    await this.query("select pg_notify($1, '')", [leaseChannel(key)]);
+  }
 
   exec(text: string): Promise<unknown> {
     return this.query(text);
@@ -25,7 +32,8 @@ export class ServerPool extends pg.Pool implements SqlClient {
     if (!this.ended) await this.end();
   }
 
-  holdLease(key: number): Promise<boolean> {
+  holdLease(key: number, onNudge?: () => void): Promise<boolean> {
+    if (onNudge) this.nudged.set(key, onNudge);
     let p = this.pending.get(key);
     if (!p) {
       p = this.tryLease(key).finally(() => this.pending.delete(key));
@@ -58,6 +66,16 @@ export class ServerPool extends pg.Pool implements SqlClient {
       throw e;
     }
     c.on("error", () => this.drop(key, c));
+    // The holder listens on the lease's channel: another process that wants a round sooner nudges it.
+    c.on("notification", (n) => {
+      if (n.channel === leaseChannel(key)) this.nudged.get(key)?.();
+    });
+    try {
+      await c.query(`listen ${leaseChannel(key)}`);
+    } catch (e) {
+      c.release(true); // closing the connection frees the lock
+      throw e;
+    }
     this.leases.set(key, c);
     return true;
   }
