@@ -27,7 +27,12 @@ export class ServerPool extends pg.Pool implements SqlClient {
   }
 
   async close(): Promise<void> {
-    for (const c of this.leases.values()) c.release(true);
+    for (const [key, c] of this.leases) {
+      // Unlock before leaving, so the next process can take the lease at once (a closed
+      // connection frees it too, but only once the server has seen the connection end).
+      await c.query("select pg_advisory_unlock($1, $2)", [LOCK_SPACE, key]).catch(() => undefined);
+      c.release(true);
+    }
     this.leases.clear();
     if (!this.ended) await this.end();
   }
