@@ -2,11 +2,14 @@
 // `npm test`: the one command that checks everything on a fresh machine, in order, stopping at
 // the first failure. Installs dependencies when node_modules is missing or older than the lock
 // file, then: type-check (app, tests and bench; then the service worker), lint and format, import
-// direction and cycles, unit + integration tests, production build, browser tests.
+// direction and cycles, unit + integration tests, the integration suite again on a PostgreSQL
+// server (when RIMELOG_TEST_PG_URL names one; skipped with a clear line otherwise, never in CI),
+// production build, browser tests.
 // Ends with the line "N passed, N failed" (tests counted from both vitest runs; a stage that fails
 // without running tests counts as one failure) and a non-zero exit code on any failure.
 // Plain Node ESM with built-ins only: it must run before `npm ci`.
 import { accessSync, constants, existsSync, mkdirSync, readFileSync, rmSync, statSync } from "node:fs";
+import { connect } from "node:net";
 import { join } from "node:path";
 import { ROOT, run } from "./lib.mjs";
 
@@ -108,6 +111,29 @@ function dependenciesStale() {
   return null;
 }
 
+/** Why the PostgreSQL server at `url` cannot be reached (a TCP connect), or null when it can. */
+function unreachable(url) {
+  let host;
+  let port;
+  try {
+    const u = new URL(url);
+    host = decodeURIComponent(u.hostname) || "localhost";
+    port = Number(u.port) || 5432;
+  } catch {
+    return Promise.resolve(`RIMELOG_TEST_PG_URL is not a URL: ${url}`);
+  }
+  return new Promise((done) => {
+    const socket = connect({ host, port });
+    const end = (why) => {
+      socket.destroy();
+      done(why);
+    };
+    socket.setTimeout(3000, () => end(`nothing answered at ${host}:${port} within 3 s`));
+    socket.once("connect", () => end(null));
+    socket.once("error", (e) => end(`${host}:${port}: ${e.message}`));
+  });
+}
+
 const started = Date.now();
 
 // Fail before minutes of work if the browser tests cannot run at the end.
@@ -142,6 +168,38 @@ const unitReport = join(RESULTS_DIR, "unit.json");
 await stage("unit + integration tests (vitest)", bin("vitest"), ["run", ...vitestReporters(unitReport)], {
   report: unitReport,
 });
+// The integration suite and the sync property test a second time, on a PostgreSQL server
+// (tests/integration/fixture.ts makes a database per test on it: use a throw-away server).
+const pgUrl = process.env.RIMELOG_TEST_PG_URL;
+const noServer = pgUrl ? await unreachable(pgUrl) : "RIMELOG_TEST_PG_URL is not set";
+if (noServer) {
+  const name = "integration tests on PostgreSQL";
+  banner(`${process.env.CI ? "✘" : "○"} ${name}`);
+  console.log(`skipped: no PostgreSQL server (${noServer})`);
+  console.log(
+    "  To run them: start a throw-away PostgreSQL server and set RIMELOG_TEST_PG_URL=postgres://user@127.0.0.1:port/postgres (README, Tests on PostgreSQL).",
+  );
+  if (process.env.CI) {
+    // CI starts its own server (.ci/run): a missing one there is a failure, not a skip.
+    timings.push({ name, ms: 0, ok: false });
+    totals.failed += 1;
+    finish(name);
+  }
+  timings.push({ name: `${name}: skipped, no server`, ms: 0, ok: true });
+} else {
+  const pgReport = join(RESULTS_DIR, "postgres.json");
+  await stage(
+    "integration + sync property tests on PostgreSQL (vitest)",
+    bin("vitest"),
+    ["run", ...vitestReporters(pgReport)],
+    {
+      // The property test's first property takes a third of its 300 runs here (each run is a few
+      // hundred round trips to the server); the restart property keeps its own count.
+      env: { RIMELOG_TEST_DB: "postgres", SYNC_PROPERTY_RUNS: process.env.SYNC_PROPERTY_RUNS || "100" },
+      report: pgReport,
+    },
+  );
+}
 await stage(`production build (next build --webpack → ${E2E_DIST_DIR})`, bin("next"), ["build", "--webpack"], {
   env: { NEXT_DIST_DIR: E2E_DIST_DIR, NEXT_TELEMETRY_DISABLED: "1" },
 });

@@ -1,9 +1,13 @@
 // The server's periodic work for the audit side: sign chain heads that moved (signed checkpoints)
 // and run the mail checks and delivery. Started lazily by the audit queue, mail and sync routes and
 // nudged after a push or a finding (`kickServerTick`); each step is idempotent, so an extra run
-// costs nothing.
+// costs nothing. With several app processes on one PostgreSQL server, only the process holding the
+// tick lease (db/lease.ts: an advisory lock on a connection of its own) runs it; a kick in another
+// process nudges the holder instead. A holder that stops frees the lease with its connection, and
+// the next process whose round comes takes it over. On PGlite the one process always runs it.
 import "server-only";
-import { getDb } from "@/db";
+import { type Db, getDb } from "@/db";
+import { holdsLease, nudgeLease } from "@/db/lease";
 import { CHECKPOINT_INTERVAL_MS, signChainHeads } from "@/db/queries/chain";
 import { mailTick } from "@/db/queries/mail";
 import { checkpointKeys } from "@/server/audit/keys";
@@ -18,13 +22,25 @@ const g = globalThis as unknown as { __rimelogTick?: TickState };
 g.__rimelogTick ??= {};
 const state: TickState = g.__rimelogTick;
 
-export async function runServerTick(): Promise<void> {
+/**
+ * One round on `db`, if this process holds the tick lease: true when it ran. `nudge`: when it does
+ * not hold the lease, ask the holder for a round soon (a kick after a push or a finding).
+ */
+export async function tickRound(db: Db, { nudge = false }: { nudge?: boolean } = {}): Promise<boolean> {
+  if (!(await holdsLease(db, "tick", () => kickServerTick()))) {
+    if (nudge) await nudgeLease(db, "tick");
+    return false;
+  }
+  await signChainHeads(db, { keys: checkpointKeys(), minAgeMs: CHECKPOINT_INTERVAL_MS });
+  await mailTick(db, mailTransport());
+  return true;
+}
+
+export async function runServerTick({ nudge = false }: { nudge?: boolean } = {}): Promise<void> {
   if (state.running) return state.running;
   state.running = (async () => {
     try {
-      const db = await getDb();
-      await signChainHeads(db, { keys: checkpointKeys(), minAgeMs: CHECKPOINT_INTERVAL_MS });
-      await mailTick(db, mailTransport());
+      await tickRound(await getDb(), { nudge });
     } catch (e) {
       console.error("[rimelog] server tick failed", e);
     } finally {
@@ -50,7 +66,7 @@ export function kickServerTick(delayMs = 2_000): void {
   if (state.soon) clearTimeout(state.soon);
   state.soon = setTimeout(() => {
     state.soon = undefined;
-    void runServerTick();
+    void runServerTick({ nudge: true });
   }, delayMs);
   state.soon.unref?.();
 }

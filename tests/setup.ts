@@ -10,3 +10,7 @@ vi.mock("server-only", () => ({}));
 const dirs = testDirs("rimelog-vitest-");
 Object.assign(process.env, dirs.env);
 afterAll(() => dirs.remove());
+
+// A DATABASE_URL in the developer's shell (the app on a PostgreSQL server) never reaches the
+// tests: they choose their database through tests/integration/fixture.ts alone.
+delete process.env.DATABASE_URL;

@@ -3,6 +3,7 @@
 import { createHash } from "node:crypto";
 import { and, desc, eq, getTableColumns, gt, inArray, lt, notInArray, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
+import { LOCK_SPACE, LOCKS } from "@/db/locks";
 import { chainHeads, cryostats, devices, entries, users } from "@/db/schema";
 import { mayRead, maySign, readableKindsExcluded } from "@/lib/auth/permissions";
 import { placeRefusal, textRefusal, timeRefusal } from "@/lib/record/rules";
@@ -48,6 +49,8 @@ export async function appendEntries(
 ): Promise<PushResult> {
   return db.transaction(async (tx) => {
     const t = tx as unknown as Db;
+    // Appends wait for each other here until commit, across processes too (db/locks.ts): seq is global.
+    await t.execute(sql`select pg_advisory_xact_lock(${LOCK_SPACE}, ${LOCKS.append})`);
     const accepted: Accepted[] = [];
     const rejected: Rejected[] = [];
     if (batch.length === 0) return { accepted, rejected };

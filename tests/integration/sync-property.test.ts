@@ -2,7 +2,7 @@
 // and reordered pushes must end as one clean push would, and an outbox row may leave only once
 // answered. It throws at them offline writes, pushes that are lost before or after the server
 // applied them, delivered twice or late, pulls that fail, tablet reloads, and (second property)
-// server restarts on a data dir.
+// server restarts (PGlite re-opened on its data dir, or a new pool on the PostgreSQL server).
 // Afterwards every tablet and the server hold exactly the same entries, none lost, none
 // duplicated, each tablet's entries in the order it wrote them, every outbox empty, every pull
 // cursor at the server's last entry, and the hash chains are valid.
@@ -11,7 +11,7 @@ import { and, asc, eq, gt, sql } from "drizzle-orm";
 import { IDBFactory } from "fake-indexeddb";
 import fc from "fast-check";
 import { afterAll, describe, expect, it } from "vitest";
-import { type Db, openDb } from "@/db/client";
+import type { Db } from "@/db/client";
 import { toStoredRow } from "@/db/queries/stored";
 import { chainHeads, entries } from "@/db/schema";
 import { seedIfEmpty } from "@/db/seed";
@@ -22,11 +22,10 @@ import { syncOnce } from "@/lib/sync/client";
 import { genesisHash, linkHash } from "@/lib/sync/hash";
 import { type Transport, TransportError } from "@/lib/sync/transport";
 import { applyPush, pullPage } from "@/server/sync/apply";
-import { type TestDirs, testDirs } from "../support/dirs";
 import { noteDraft, readingDraft } from "../support/entries";
 import { fakeTablet, inProcessRegister, signInOnline, wire } from "../support/tablet";
 import { mateo, priya, tomasz } from "../support/users";
-import { freshDb } from "./fixture";
+import { durableDb, freshDb } from "./fixture";
 
 const USERS: SessionUser[] = [tomasz, priya, mateo];
 const CRYOSTATS = ["heron", "plover", "wren"] as const;
@@ -247,19 +246,19 @@ describe("sync under lost, duplicated and late pushes, reloads and restarts", ()
     await server.db.$client.close();
   }, 120_000);
 
-  const dirs: TestDirs[] = [];
+  const durable: { remove(): void }[] = [];
   afterAll(() => {
-    for (const d of dirs) d.remove();
+    for (const d of durable) d.remove();
   });
 
-  it("converges across server restarts (PGlite re-opened on the same data dir)", async () => {
-    const dir = testDirs("rimelog-prop-");
-    dirs.push(dir);
-    const server: Server = { db: await openDb(dir.dataDir), late: [] };
+  it("converges across server restarts (the server's database closed and re-opened)", async () => {
+    const store = await durableDb();
+    durable.push(store);
+    const server: Server = { db: await store.open(), late: [] };
     await seedIfEmpty(server.db);
     const restart = async () => {
       await server.db.$client.close();
-      server.db = await openDb(dir.dataDir);
+      server.db = await store.open();
     };
     await fc.assert(
       fc.asyncProperty(planArb(true), async (plan) => {
