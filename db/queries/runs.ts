@@ -9,6 +9,7 @@ import { type EntryInput, isKind, payloadOf, type StoredEntry } from "@/lib/sche
 import type { TemplateStep } from "@/lib/schemas/template";
 import { verifyConfirmation } from "@/lib/signing/proof";
 import { type Check, forKinds, type LogCheck, type Problem, type Projector } from "./log-check";
+import { recordRejectedPinProof } from "./pin-proofs";
 import { toStoredRow } from "./stored";
 
 async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Promise<EntryInput | undefined> {
@@ -99,6 +100,9 @@ const signatureConfirmation: Check<EntryInput<"signature">> = async (db, e, batc
     p.confirmProof,
     { pinRecord: signer.pinHash, passwordHash: signer.passwordHash },
   );
+  // A refused PIN proof is counted (a guessing tablet shows up in the count); the batch still commits.
+  if (!ok && p.confirmedBy === "pin")
+    await recordRejectedPinProof(db, { userId: e.authorId, entryId: e.id, now: new Date() });
   return ok
     ? null
     : {

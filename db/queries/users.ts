@@ -7,6 +7,8 @@ import { pinProofRejections, type Role, signInAttempts, type User, users } from 
 import type { AdminUser, PublicUser, SessionUser } from "@/lib/schemas/user";
 import { appendEntries } from "./entries";
 
+export { recordRejectedPinProof } from "./pin-proofs";
+
 export type { AdminUser, PublicUser };
 
 export async function findUserByEmail(db: Db, { email }: { email: string }): Promise<User | undefined> {
@@ -194,18 +196,6 @@ export async function changeUserAccess(
       },
     };
   });
-}
-
-/**
- * Count a PIN proof the server refused (a signature whose PIN confirmation does not check out).
- * To be called where the proof is verified (db/queries/runs.ts `signatureConfirmation`, and the
- * audit signature check in db/queries/audit.ts) — not wired yet; see the README's security notes.
- */
-export async function recordRejectedPinProof(
-  db: Db,
-  { userId, entryId, now }: { userId: string; entryId: string | null; now: Date },
-): Promise<void> {
-  await db.insert(pinProofRejections).values({ userId, entryId, at: now });
 }
 
 /** How many PIN proofs of this person were refused since `since`. */

@@ -7,6 +7,7 @@ import { auditQueue } from "@/db/queries/audit";
 import { appendEntries, getEntry } from "@/db/queries/entries";
 import { listRuns } from "@/db/queries/runs";
 import { latestTemplates } from "@/db/queries/templates";
+import { rejectedPinProofs } from "@/db/queries/users";
 import { recordsToCsv } from "@/lib/export/csv";
 import { toCsvRecord, toReportRecord } from "@/lib/export/records";
 import { FUTURE_BOUND_MS } from "@/lib/record/rules";
@@ -15,7 +16,7 @@ import { fileCheckpointKeys } from "@/server/audit/keys";
 import { applyPush } from "@/server/sync/apply";
 import { testDirs } from "../support/dirs";
 import { entryBuilder, note } from "../support/entries";
-import { passwordSignature } from "../support/signing";
+import { passwordSignature, setTestPin } from "../support/signing";
 import { registeredDeviceId } from "../support/tablet";
 import { grace, ines, priya, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
@@ -198,6 +199,24 @@ describe("signatures", () => {
     expect((await appendEntries(db, tomasz, [good])).rejected).toEqual([]);
     const again = await passwordSignature(db, q, tomasz, "verified");
     expect(codes(await appendEntries(db, tomasz, [again]))).toEqual(["conflict:signature"]);
+  });
+
+  it("counts a refused PIN proof on the server", async () => {
+    const db = await freshDb({ seeded: true });
+    const q = quench();
+    await appendEntries(db, tomasz, [q]);
+    await setTestPin(db, tomasz.id, "582914");
+    const good = await passwordSignature(db, q, tomasz, "verified");
+    const guessed = {
+      ...good,
+      payload: { ...good.payload, confirmedBy: "pin" as const, confirmProof: "ab".repeat(32) },
+    };
+    const since = new Date(Date.now() - 60_000);
+    expect(codes(await appendEntries(db, tomasz, [guessed]))).toEqual(["forbidden:signature"]);
+    expect(await rejectedPinProofs(db, { userId: tomasz.id, since })).toBe(1);
+    // Control: a password proof that checks out is not counted.
+    expect((await appendEntries(db, tomasz, [good])).rejected).toEqual([]);
+    expect(await rejectedPinProofs(db, { userId: tomasz.id, since })).toBe(1);
   });
 
   it("refuses a signature filed on another cryostat's chain than its record", async () => {
