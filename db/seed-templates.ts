@@ -143,7 +143,7 @@ const cooldownDry: TemplateDraft = {
       quantity: "Still pressure",
       unit: "mbar",
       ifOutOfRange: "",
-      text: "Read the still gauge once circulation is steady. The derived still temperature is shown beside the value.",
+      text: "Read the still gauge once circulation is steady. (No temperature is derived from it: the still's vapour is ³He from a dilute mixture.)",
     },
     {
       id: "flow",

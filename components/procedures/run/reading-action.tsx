@@ -68,7 +68,7 @@ export function ReadingAction({
             {step.ifOutOfRange}
           </Notice>
         )}
-        {/* Derived figure from the maths engineer's component (e.g. still pressure → temperature). */}
+        {/* Derived figure from the maths engineer's component (e.g. a ⁴He pot pressure → its temperature). */}
         {cryostat && (
           <DerivedValue
             id={`${id}-derived`}
