@@ -315,6 +315,7 @@ const pagePath = (file: string) =>
 const PAGES: Record<string, PageAccess> = {
   "/": "signed-in",
   "/account": "signed-in",
+  "/admin/devices": ["facility_admin"],
   "/admin/mail": ["facility_admin"],
   "/admin/rules": ["facility_admin"],
   "/admin/templates": ["facility_admin"],
@@ -366,7 +367,7 @@ describe("every page × role", () => {
     const { default: AdminLayout } = await import("@/app/(app)/admin/layout");
     const { RolePage } = await import("@/app/(app)/_components/role-page");
     const { NotAllowed } = await import("@/components/shell/not-allowed");
-    const gated = ["/admin/mail", "/admin/rules", "/admin/templates", "/admin/users", "/audit"];
+    const gated = ["/admin/devices", "/admin/mail", "/admin/rules", "/admin/templates", "/admin/users", "/audit"];
     for (const u of DEMO_USERS) {
       await signIn(u.id);
       const inLayout = await AdminLayout({ children: "admin screen" });
