@@ -140,6 +140,34 @@ describe("a shift without network", () => {
     expect(b.errors).toEqual([]);
   });
 
+  it("shows an entry the server refused beside it, with the reason, and sends the good one next to it", async () => {
+    const tag = Date.now().toString(36);
+    const ahead = `Written with the tablet's clock two hours fast (${tag})`;
+    const fine = `Written after the clock was set right (${tag})`;
+    const a = await tablet(DEMO_USERS.tomasz.email, { ready: true });
+    await a.page.getByRole("link", { name: "Open Wren" }).click();
+    await a.page.getByRole("heading", { level: 1, name: "Wren" }).waitFor();
+    await a.context.setOffline(true);
+    // The tablet's clock runs two hours fast (timers keep running): its entry is dated ahead.
+    const realNow = Date.now();
+    await a.page.clock.setFixedTime(new Date(realNow + 2 * 3_600_000));
+    await recordNote(a.page, ahead);
+    await a.page.clock.setFixedTime(new Date(realNow + 60_000));
+    await recordNote(a.page, fine);
+    await waitPending(a.page, 2);
+    await a.context.setOffline(false);
+    // The good entry is stored; the one dated ahead is refused on its own, and shown with why.
+    await waitPending(a.page, 0);
+    const refused = logbook(a.page).locator('li[data-sync="rejected"]').filter({ hasText: ahead });
+    await refused.waitFor({ timeout: 30_000 });
+    expect(await refused.innerText()).toMatch(
+      /The server refused this entry: .*ahead of the server's clock.*Set the tablet's date and time/s,
+    );
+    await logbook(a.page).locator('li[data-sync="synced"]').filter({ hasText: fine }).waitFor({ timeout: 30_000 });
+    await screenshot(a.page, "offline-refused-entry");
+    expect(a.errors).toEqual([]);
+  });
+
   it("refuses to sign out while entries are unsent, then signs out and clears the tablet", async () => {
     const c = await tablet(DEMO_USERS.mateo.email, { ready: true });
     await c.context.setOffline(true);
