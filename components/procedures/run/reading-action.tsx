@@ -3,6 +3,8 @@
 // the derived figure, a comment (required when out of range); and the correction of a reading.
 import { useState } from "react";
 import { DerivedValue } from "@/components/cryo/derived-value";
+import { SignDialog } from "@/components/signature/sign-dialog";
+import { recordAndSign } from "@/components/signature/write-signature";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/panel";
 import { useCryostat } from "@/lib/local/hooks";
@@ -10,7 +12,7 @@ import type { StoredLocalEntry } from "@/lib/local/record";
 import { describeRange, readingOutOfRange } from "@/lib/procedures/state";
 import type { TemplateStep } from "@/lib/schemas/template";
 import { Keypad, keypadNumber } from "../keypad";
-import { type Ctx, errorText, writeStep } from "./context";
+import { type Ctx, errorText, stepDraft, writeStep } from "./context";
 
 export function ReadingAction({
   step,
@@ -28,10 +30,29 @@ export function ReadingAction({
   const [comment, setComment] = useState("");
   const [reason, setReason] = useState("");
   const [busy, setBusy] = useState(false);
+  const [signing, setSigning] = useState(false);
+  // Someone else's reading is corrected only with the corrector's signature, written with it
+  // (lib/record/rules.ts correctionRefusal; the server refuses it otherwise).
+  const othersReading = Boolean(correcting && correcting.authorId !== ctx.me.id);
   const n = keypadNumber(value);
   const out = n === null ? null : readingOutOfRange(step, n);
   const needsComment = out !== null && !comment.trim();
   const id = `${step.id}-${correcting ? "fix" : "value"}`;
+  const payloadOf = (v: number) => ({
+    stepId: step.id,
+    kind: "reading" as const,
+    quantity: step.quantity,
+    value: v,
+    unit: step.unit,
+    outOfRange: out !== null,
+    ...(comment.trim() ? { comment: comment.trim() } : {}),
+  });
+  const done = () => {
+    setValue("");
+    setComment("");
+    setReason("");
+    onDone?.();
+  };
   return (
     <div className="grid gap-4 md:grid-cols-[1fr_minmax(16rem,22rem)]">
       <div className="flex flex-col gap-3">
@@ -103,25 +124,18 @@ export function ReadingAction({
           disabled={busy || n === null || needsComment || (Boolean(correcting) && !reason.trim())}
           onClick={async () => {
             if (n === null) return;
+            if (othersReading) {
+              setSigning(true);
+              return;
+            }
             setBusy(true);
             try {
               await writeStep(
                 ctx,
-                {
-                  stepId: step.id,
-                  kind: "reading",
-                  quantity: step.quantity,
-                  value: n,
-                  unit: step.unit,
-                  outOfRange: out !== null,
-                  ...(comment.trim() ? { comment: comment.trim() } : {}),
-                },
+                payloadOf(n),
                 correcting ? { supersedes: correcting.id, reason: reason.trim() } : {},
               );
-              setValue("");
-              setComment("");
-              setReason("");
-              onDone?.();
+              done();
             } catch (e) {
               ctx.onError(errorText(e));
             } finally {
@@ -129,8 +143,36 @@ export function ReadingAction({
             }
           }}
         >
-          {correcting ? "Record the correction" : out ? "Record flagged reading" : "Record reading"}
+          {othersReading
+            ? "Sign and record the correction"
+            : correcting
+              ? "Record the correction"
+              : out
+                ? "Record flagged reading"
+                : "Record reading"}
         </Button>
+        {signing && correcting && n !== null && (
+          <SignDialog
+            me={ctx.me}
+            meaning="verified"
+            title="Sign the correction"
+            onClose={() => setSigning(false)}
+            onSign={async (c) => {
+              await recordAndSign(
+                [stepDraft(ctx, payloadOf(n), { supersedes: correcting.id, reason: reason.trim() })],
+                ctx.me,
+                "verified",
+                c,
+              );
+              setSigning(false);
+              done();
+            }}
+          >
+            <p>
+              I correct a reading someone else recorded, to {n} {step.unit}, because: {reason.trim()}
+            </p>
+          </SignDialog>
+        )}
       </div>
       <Keypad value={value} onChange={setValue} label={`Keypad for ${step.quantity}`} />
     </div>
