@@ -35,6 +35,7 @@ export const fieldForm = fieldSettingPayload.extend({
   fieldT: num("Enter the field in tesla"),
   rampRateTPerMin: optNum().pipe(z.number().positive("A ramp rate is above zero").optional()),
   comment: optText(1000),
+  limitOverrideReason: optText(1000),
 });
 
 /** What a form's controls hold, and what its submit hands over. */

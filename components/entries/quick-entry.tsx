@@ -12,9 +12,11 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { Notice, Panel } from "@/components/ui/panel";
 import type { Role } from "@/lib/auth/permissions";
 import { mayWrite } from "@/lib/auth/permissions";
-import type { LocalCryostat } from "@/lib/local/hooks";
+import { type LocalCryostat, useFacilityRules } from "@/lib/local/hooks";
 import { type EntryDraft, LocalWriteError, recordEntry } from "@/lib/local/record";
+import { magnetLimitsExceeded } from "@/lib/record/magnet";
 import { UNITS } from "@/lib/schemas/units";
+import { typedNumber } from "@/lib/typed-number";
 import { fieldForm, heliumForm, noteForm, readingForm } from "./form-schemas";
 
 type Tab = "reading" | "note" | "helium.level" | "field.setting";
@@ -261,13 +263,44 @@ function HeliumForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save })
   );
 }
 
+const EMPTY_FIELD = {
+  currentA: "",
+  fieldT: "",
+  persistent: false,
+  rampRateTPerMin: "",
+  comment: "",
+  limitOverrideReason: "",
+};
+
 function FieldForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }) {
   const cryostatId = cryostat.id;
-  const f = useEntryForm(fieldForm, { currentA: "", fieldT: "", persistent: false, rampRateTPerMin: "", comment: "" });
+  const rules = useFacilityRules();
+  const f = useEntryForm(fieldForm, EMPTY_FIELD);
   const errors = f.formState.errors;
+  // The same limits the server enforces (lib/record/magnet.ts), shown before saving.
+  const [a, t, r] = f.watch(["currentA", "fieldT", "rampRateTPerMin"]);
+  const exceeded = cryostat.config.magnet
+    ? magnetLimitsExceeded(
+        { currentA: typedNumber(a) ?? 0, fieldT: typedNumber(t) ?? 0, rampRateTPerMin: typedNumber(r) },
+        cryostat.config.magnet,
+        rules?.values.maxRampTPerMin[cryostatId],
+      )
+    : [];
+  const [overrideProblem, setOverrideProblem] = useState<string | null>(null);
   const submit = f.handleSubmit(async (v) => {
-    if (await save({ cryostatId, kind: "field.setting", payload: v }))
-      f.reset({ currentA: "", fieldT: "", persistent: false, rampRateTPerMin: "", comment: "" });
+    if (exceeded.length && !v.limitOverrideReason) {
+      setOverrideProblem("Beyond the magnet's limits: give the reason for the override, or correct the values.");
+      return;
+    }
+    setOverrideProblem(null);
+    if (
+      await save({
+        cryostatId,
+        kind: "field.setting",
+        payload: exceeded.length ? v : { ...v, limitOverrideReason: undefined },
+      })
+    )
+      f.reset(EMPTY_FIELD);
   });
   return (
     <FormShell onSubmit={() => void submit()} busy={f.formState.isSubmitting} label="Save field setting">
@@ -315,6 +348,20 @@ function FieldForm({ cryostat, save }: { cryostat: LocalCryostat; save: Save }) 
         {...f.register("comment")}
         error={err(errors.comment)}
       />
+      {exceeded.length > 0 && (
+        <div className="flex flex-col gap-2 sm:col-span-2">
+          <Notice tone="danger" role="alert" title="Beyond the magnet's limits">
+            {exceeded.join("; ")}. Follow the maker's rating and the facility's magnet rules; only a setting the
+            facility has approved may be saved, with its reason (the safety officer sees it).
+          </Notice>
+          <TextField
+            label="Reason for the override (required beyond the limits)"
+            id="field-override"
+            {...f.register("limitOverrideReason")}
+            error={overrideProblem ?? err(errors.limitOverrideReason)}
+          />
+        </div>
+      )}
     </FormShell>
   );
 }

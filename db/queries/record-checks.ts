@@ -1,10 +1,11 @@
 // The server's side of the record rules (lib/record/rules.ts): each check looks up the facts a
 // rule needs — the corrected record, the signed record, the run so far, the signatures sent with
 // an entry — and lets the pure rule decide. The tablet runs the same rules on its own copy.
-import { and, eq, or } from "drizzle-orm";
+import { and, desc, eq, or } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { entries, procedureTemplates, signatures, users } from "@/db/schema";
+import { cryostats, entries, facilityRules, procedureTemplates, signatures, users } from "@/db/schema";
 import { deriveRun, type PinnedTemplate, type RunEntry } from "@/lib/procedures/state";
+import { magnetLimitRefusal } from "@/lib/record/magnet";
 import { completionRefusal, correctionRefusal, signatureRefusal } from "@/lib/record/rules";
 import { type EntryInput, isKind, type SignatureMeaning } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
@@ -121,7 +122,22 @@ const completionCheck: Check<EntryInput<"run.complete">> = async (db, e, batch, 
   return completionRefusal(state, { completionSigned });
 };
 
+/** A field setting within the magnet's rating and the ramp limit, or with a reason for the override. */
+const magnetLimitCheck: Check<EntryInput<"field.setting">> = async (db, e) => {
+  if (!e.cryostatId) return null;
+  const [c] = await db.select({ config: cryostats.config }).from(cryostats).where(eq(cryostats.id, e.cryostatId));
+  const magnet = c?.config.magnet;
+  if (!magnet) return null; // placeRefusal answers a cryostat without a magnet
+  const [rules] = await db
+    .select({ values: facilityRules.values })
+    .from(facilityRules)
+    .orderBy(desc(facilityRules.version))
+    .limit(1);
+  return magnetLimitRefusal(e.payload, magnet, rules?.values.maxRampTPerMin[e.cryostatId]);
+};
+
 export const recordChecks: LogCheck[] = [
+  forKinds(["field.setting"], magnetLimitCheck),
   forKinds(["signature"], signatureCheck),
   { when: (e) => e.supersedes !== null, check: correctionCheck },
   forKinds(["run.complete"], completionCheck),

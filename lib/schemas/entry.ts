@@ -31,6 +31,11 @@ export const fieldSettingPayload = z.object({
   persistent: z.boolean(),
   rampRateTPerMin: finite.positive().optional(),
   comment: z.string().max(1000).optional(),
+  /**
+   * Why a setting beyond the magnet's rating or the ramp limit was made anyway (lib/record/magnet.ts):
+   * without it such a setting is refused.
+   */
+  limitOverrideReason: z.string().trim().min(1).max(1000).optional(),
 });
 
 export const statePayload = z.object({ state: z.enum(CRYOSTAT_STATES), comment: z.string().max(1000).optional() });

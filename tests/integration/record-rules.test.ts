@@ -271,6 +271,30 @@ describe("time, place and text", () => {
     expect(res.accepted).toHaveLength(1);
   });
 
+  it("refuses a field setting beyond the magnet's rating or the ramp limit without a reason; accepts it with one, and one within the limits", async () => {
+    const db = await freshDb({ seeded: true });
+    // Heron's magnet (demo lab): 0.09 T/A × 100 A = 9 T rated; the facility's ramp limit 0.15 T/min.
+    const setting = (payload: Record<string, unknown>) =>
+      onHeron({ kind: "field.setting", payload: { persistent: false, ...payload } } as Parameters<typeof onHeron>[0]);
+    const beyond = setting({ fieldT: 12, currentA: 133, rampRateTPerMin: 0.5 });
+    const res = await appendEntries(db, tomasz, [beyond]);
+    expect(codes(res)).toEqual(["bad_request:magnet_limit"]);
+    expect(res.rejected[0]!.message).toMatch(
+      /133 A is above the magnet's rated 100 A.*12 T is above the rated 9 T.*0\.5 T\/min is above the facility's limit of 0\.15 T\/min/,
+    );
+    const rampOnly = setting({ fieldT: 4, currentA: 44.4, rampRateTPerMin: 0.2 });
+    expect(codes(await appendEntries(db, tomasz, [rampOnly]))).toEqual(["bad_request:magnet_limit"]);
+    // Controls: the same with a reason for the override, and a setting within every limit.
+    const approved = setting({
+      fieldT: 12,
+      currentA: 133,
+      rampRateTPerMin: 0.5,
+      limitOverrideReason: "Maker's test, approved by the facility",
+    });
+    const within = setting({ fieldT: 6, currentA: 66.7, rampRateTPerMin: 0.1 });
+    expect((await appendEntries(db, tomasz, [approved, within])).rejected).toEqual([]);
+  });
+
   it("refuses a NUL or a lone surrogate per entry, stores the good entries beside it, never a 500", async () => {
     const db = await freshDb({ seeded: true });
     const bad1 = note("before\u0000after");
