@@ -4,8 +4,16 @@
 import Link from "next/link";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { formatTemperature, formatWhen, kindLabel, stateLabel, trim } from "@/lib/format";
-import { type LocalCryostat, useCryostats, useEntries, useSyncSummary, useUserNames } from "@/lib/local/hooks";
+import {
+  type LocalCryostat,
+  useCryostats,
+  useEntries,
+  useFacilityRules,
+  useSyncSummary,
+  useUserNames,
+} from "@/lib/local/hooks";
 import { overviewOf } from "@/lib/local/overview";
+import { magnetLimitsExceeded } from "@/lib/record/magnet";
 
 const STATE_TONE = { cold: "ok", cooling: "accent", warming: "warn", warm: "neutral", maintenance: "neutral" } as const;
 
@@ -50,7 +58,14 @@ function CryostatCard({
     c.config.stages.map((s) => s.key),
   );
   const labelOf = new Map(c.config.stages.map((s) => [s.key, s.label]));
-  const minimum = c.config.reservoir?.minimumPercent;
+  const rules = useFacilityRules();
+  // The facility's rule is the source for the minimum level; the cryostat's own setting only
+  // stands in where the rules name none.
+  const minimum = rules?.values.minHeliumPercent[c.id] ?? c.config.reservoir?.minimumPercent;
+  const fieldBeyond =
+    o.field && c.config.magnet
+      ? magnetLimitsExceeded(o.field, c.config.magnet, rules?.values.maxRampTPerMin[c.id])
+      : [];
   return (
     <Panel className="flex h-full flex-col gap-3">
       <div className="flex items-start justify-between gap-2">
@@ -91,8 +106,13 @@ function CryostatCard({
           </Fact>
         )}
         {c.config.magnet && (
-          <Fact label="Field" figure>
+          <Fact label="Field" figure warn={fieldBeyond.length > 0}>
             {o.field ? `${trim(o.field.fieldT)} T` : "—"}
+            {fieldBeyond.length > 0 && (
+              <span className="block font-sans text-base font-semibold text-danger">
+                Beyond the magnet's limits: {fieldBeyond.join("; ")}
+              </span>
+            )}
             {o.field && (
               <span className="block font-sans text-base font-normal text-muted">
                 {o.field.persistent ? "persistent mode" : "driven by supply"}
