@@ -8,7 +8,7 @@ import { useMe } from "@/components/shell/use-me";
 import { PinPanel } from "@/components/signature/pin-panel";
 import { Button, buttonClass } from "@/components/ui/button";
 import { ProblemNotice } from "@/components/ui/form";
-import { Loading, Panel, Tag } from "@/components/ui/panel";
+import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
 import { formatDate } from "@/lib/format";
 import { type LocalTemplate, useCryostats, useEntries, useTemplates, useUserNames } from "@/lib/local/hooks";
 import { recordEntry } from "@/lib/local/record";
@@ -30,6 +30,10 @@ export function ProceduresHome() {
   const names = useUserNames();
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState<string | null>(null);
+  /** The procedure chosen but not yet started: one more tap confirms (a mis-tap starts nothing). */
+  const [confirming, setConfirming] = useState<{ t: LocalTemplate; cryostatId: string; cryostatName: string } | null>(
+    null,
+  );
 
   const runs = useMemo(() => {
     const ended = new Map(
@@ -124,13 +128,25 @@ export function ProceduresHome() {
                     key={t.id}
                     variant="secondary"
                     disabled={!mayStart || busy !== null}
-                    onClick={() => void start(t, c.id, c.name)}
+                    onClick={() => setConfirming({ t, cryostatId: c.id, cryostatName: c.name })}
                     className="justify-start text-left"
                     aria-label={`Start ${t.title} on ${c.name}`}
                   >
                     ▶ {t.title} <span className="num ml-auto text-sm text-muted">v{t.version}</span>
                   </Button>
                 ))}
+              {confirming?.cryostatId === c.id && (
+                <ConfirmStart
+                  title={confirming.t.title}
+                  cryostatName={c.name}
+                  duplicates={open.filter(
+                    (r) => r.entry.cryostatId === c.id && r.payload.templateKey === confirming.t.key,
+                  )}
+                  busy={busy !== null}
+                  onStart={() => void start(confirming.t, c.id, c.name)}
+                  onCancel={() => setConfirming(null)}
+                />
+              )}
               <Link
                 href={`/handover?cryostat=${encodeURIComponent(c.id)}`}
                 className={buttonClass("ghost", "justify-start text-accent")}
@@ -166,6 +182,52 @@ export function ProceduresHome() {
         </section>
       )}
       {me && <PinPanel me={me} />}
+    </div>
+  );
+}
+
+/** One more tap before a run starts, with a warning when the same procedure is already open on this cryostat. */
+function ConfirmStart({
+  title,
+  cryostatName,
+  duplicates,
+  busy,
+  onStart,
+  onCancel,
+}: {
+  title: string;
+  cryostatName: string;
+  duplicates: { entry: { id: string; recordedAt: string } }[];
+  busy: boolean;
+  onStart: () => void;
+  onCancel: () => void;
+}) {
+  return (
+    <div
+      role="dialog"
+      aria-label={`Start ${title}?`}
+      className="flex flex-col gap-2 rounded-xl border-2 border-accent p-3"
+    >
+      <p className="font-semibold">
+        Start “{title}” on {cryostatName} now?
+      </p>
+      {duplicates.length > 0 && (
+        <Notice tone="warn" title="Already running">
+          This procedure is already in progress on {cryostatName} (started {formatDate(duplicates[0]!.entry.recordedAt)}
+          ). Open that run instead, unless a second one is really meant.{" "}
+          <Link href={`/runs?id=${duplicates[0]!.entry.id}`} className="underline">
+            Open the running one
+          </Link>
+        </Notice>
+      )}
+      <div className="flex flex-wrap gap-2">
+        <Button variant="primary" className="min-h-14" disabled={busy} onClick={onStart}>
+          {duplicates.length ? "Start a second run" : "Yes, start"}
+        </Button>
+        <Button variant="ghost" className="min-h-14" onClick={onCancel}>
+          Cancel
+        </Button>
+      </div>
     </div>
   );
 }

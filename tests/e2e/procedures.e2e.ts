@@ -108,6 +108,11 @@ describe("procedures on a tablet with no network", () => {
     // No network from here to the end of the run.
     await t.context.setOffline(true);
     await page.getByRole("button", { name: "Start Cooldown — dry dilution refrigerator on Heron" }).click();
+    // One more tap confirms: a mis-tap starts nothing.
+    await page
+      .getByRole("dialog", { name: /Start Cooldown — dry dilution refrigerator\?/ })
+      .getByRole("button", { name: "Yes, start" })
+      .click();
     // Offline, Chromium reports the service worker's answer to a navigation as "aborted": wait for the page instead.
     await page
       .getByRole("heading", { level: 1, name: /Cooldown — dry dilution refrigerator — Heron/ })

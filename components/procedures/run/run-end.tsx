@@ -8,6 +8,7 @@ import { SignDialog } from "@/components/signature/sign-dialog";
 import { recordAndSign, writeSignature } from "@/components/signature/write-signature";
 import { Button } from "@/components/ui/button";
 import { Panel } from "@/components/ui/panel";
+import { mayWrite } from "@/lib/auth/permissions";
 import { trim } from "@/lib/format";
 import { useCryostat } from "@/lib/local/hooks";
 import { recordEntries, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
@@ -37,9 +38,11 @@ export function RunEnd({ ctx, state }: { ctx: Ctx; state: RunState<StoredLocalEn
         >
           ✍ Complete and sign
         </Button>
-        <Button variant="danger" className="min-h-16 text-xl" onClick={() => setAborting((a) => !a)}>
-          Abort run…
-        </Button>
+        {mayWrite(ctx.me.role, "run.abort") && (
+          <Button variant="danger" className="min-h-16 text-xl" onClick={() => setAborting((a) => !a)}>
+            Abort run…
+          </Button>
+        )}
       </div>
       {!state.canComplete && (
         <p className="text-muted">{completionRefusal(state, { completionSigned: true })?.message}</p>
