@@ -3,7 +3,6 @@
 // open issues, signed "handed over" by the outgoing person; the incoming person (technician or
 // researcher) accepts it with their own signature. Works offline through the tablet store.
 import Link from "next/link";
-import { useSearchParams } from "next/navigation";
 import { useMemo, useState } from "react";
 import { useMe } from "@/components/shell/use-me";
 import { SignatureManifestation } from "@/components/signature/manifestation";
@@ -12,6 +11,7 @@ import { writeSignature } from "@/components/signature/write-signature";
 import { Button, buttonClass } from "@/components/ui/button";
 import { ProblemNotice } from "@/components/ui/form";
 import { Loading, Notice, Panel, Tag } from "@/components/ui/panel";
+import { useQueryParams } from "@/components/ui/use-query-params";
 import { formatDate, formatTemperature, stateLabel, trim } from "@/lib/format";
 import { useCryostat, useEntries, useUserNames, useUsers } from "@/lib/local/hooks";
 import { LocalWriteError, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
@@ -24,7 +24,9 @@ function errorText(e: unknown): string {
 }
 
 export function HandoverPage() {
-  const id = useSearchParams().get("cryostat") ?? "";
+  const params = useQueryParams();
+  if (!params) return <Loading />;
+  const id = params.get("cryostat") ?? "";
   return id ? (
     <HandoverScreen cryostatId={id} />
   ) : (

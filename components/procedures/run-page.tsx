@@ -1,13 +1,14 @@
 "use client";
 // Reads ?id= (and ?view=) on the client, so one cached page serves every run offline.
 import Link from "next/link";
-import { useSearchParams } from "next/navigation";
 import { buttonClass } from "@/components/ui/button";
-import { Notice } from "@/components/ui/panel";
+import { Loading, Notice } from "@/components/ui/panel";
+import { useQueryParams } from "@/components/ui/use-query-params";
 import { RunScreen } from "./run-screen";
 
 export function RunPage() {
-  const params = useSearchParams();
+  const params = useQueryParams();
+  if (!params) return <Loading label="Opening the run…" />;
   const id = params.get("id");
   const view = params.get("view");
   if (!id || !/^[0-9a-f-]{36}$/i.test(id))

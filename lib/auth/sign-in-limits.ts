@@ -15,7 +15,8 @@ export const ADDRESS_FAILURES = 30;
 export function lockWaitMs(failureTimes: readonly number[], now: number, limit: number, windowMs = SIGN_IN_WINDOW_MS) {
   const recent = failureTimes.filter((t) => t > now - windowMs).sort((a, b) => a - b);
   if (recent.length < limit) return 0;
-  return Math.max(1000, recent[recent.length - limit]! + windowMs - now);
+  // Parallel attempts may be written just after `now` was read: never more than the window.
+  return Math.min(windowMs, Math.max(1000, recent[recent.length - limit]! + windowMs - now));
 }
 
 /** "Try again in 14 minutes." / "in 40 seconds." — the wait in plain words, rounded up. */
