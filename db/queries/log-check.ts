@@ -2,11 +2,22 @@
 // corrections, procedure runs, audit findings). Each check names the entries it looks at, so an
 // entry no check looks at (a reading, a note: most of a long push) is accepted without a query.
 // The checks live with their feature (runs.ts, audit.ts, projections.ts); here only their shape.
+import { eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
+import { entries } from "@/db/schema";
 import { type EntryInput, type EntryKind, isKindOf, type StoredEntry } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
+import { toStoredRow } from "./stored";
 
 export type Problem = { code: string; message: string };
+
+/** An entry a check names: from the batch if it came with it, else from the stored log. */
+export async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Promise<EntryInput | undefined> {
+  const inBatch = batch.get(id);
+  if (inBatch) return inBatch;
+  const [row] = await db.select().from(entries).where(eq(entries.id, id));
+  return row ? toStoredRow(row) : undefined;
+}
 
 /**
  * A check of the entries of some kinds: it is handed the entry typed by its kind, the entries of

@@ -9,17 +9,10 @@ import { magnetLimitRefusal } from "@/lib/record/magnet";
 import { completionRefusal, correctionRefusal, signatureRefusal } from "@/lib/record/rules";
 import { type EntryInput, isKind, type SignatureMeaning } from "@/lib/schemas/entry";
 import type { SessionUser } from "@/lib/schemas/user";
-import { verifyConfirmation } from "@/lib/signing/proof";
 import { recordHash } from "@/lib/sync/hash";
-import { type Check, forKinds, type LogCheck } from "./log-check";
+import { type Check, findEntry, forKinds, type LogCheck } from "./log-check";
+import { proofChecksOut } from "./pin-proofs";
 import { toStoredRow } from "./stored";
-
-async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Promise<EntryInput | undefined> {
-  const inBatch = batch.get(id);
-  if (inBatch) return inBatch;
-  const [row] = await db.select().from(entries).where(eq(entries.id, id));
-  return row ? toStoredRow(row) : undefined;
-}
 
 /** The signer's name and role as the facility's user record holds them (never the payload's). */
 async function actorOf(db: Db, user: SessionUser) {
@@ -48,19 +41,7 @@ async function signedWith(
       s.payload.signedHash === hash &&
       meanings.includes(s.payload.meaning),
   );
-  if (!sig || !isKind(sig, "signature") || !sig.payload.confirmedBy || !sig.payload.confirmProof) return false;
-  const [secrets] = await db
-    .select({ pinHash: users.pinHash, passwordHash: users.passwordHash })
-    .from(users)
-    .where(eq(users.id, signerId));
-  if (!secrets) return false;
-  const p = sig.payload;
-  return verifyConfirmation(
-    { signedEntryId: p.signedEntryId, signedHash: p.signedHash, meaning: p.meaning, signerId },
-    p.confirmedBy!,
-    p.confirmProof!,
-    { pinRecord: secrets.pinHash, passwordHash: secrets.passwordHash },
-  );
+  return Boolean(sig && isKind(sig, "signature") && (await proofChecksOut(db, signerId, sig.payload)));
 }
 
 const signatureCheck: Check<EntryInput<"signature">> = async (db, e, batch, user) => {

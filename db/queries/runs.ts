@@ -7,17 +7,9 @@ import { cryostats, entries, procedureTemplates, type Run, runs, users } from "@
 import { readingOutOfRange } from "@/lib/procedures/state";
 import { type EntryInput, isKind, payloadOf, type StoredEntry } from "@/lib/schemas/entry";
 import type { TemplateStep } from "@/lib/schemas/template";
-import { verifyConfirmation } from "@/lib/signing/proof";
-import { type Check, forKinds, type LogCheck, type Problem, type Projector } from "./log-check";
-import { recordRejectedPinProof } from "./pin-proofs";
+import { type Check, findEntry, forKinds, type LogCheck, type Problem, type Projector } from "./log-check";
+import { proofChecksOut, recordRejectedPinProof } from "./pin-proofs";
 import { toStoredRow } from "./stored";
-
-async function findEntry(db: Db, id: string, batch: Map<string, EntryInput>): Promise<EntryInput | undefined> {
-  const inBatch = batch.get(id);
-  if (inBatch) return inBatch;
-  const [row] = await db.select().from(entries).where(eq(entries.id, id));
-  return row ? toStoredRow(row) : undefined;
-}
 
 const bad = (message: string): Problem => ({ code: "bad_request:run", message });
 
@@ -77,29 +69,11 @@ const runEntryCheck: Check<EntryInput<"run.step" | "run.abort" | "run.complete">
  * procedure records must say it (a signature needs the signer's PIN or password). Older records
  * signed before PINs existed stay readable and are shown as "identity not confirmed".
  */
-const signatureConfirmation: Check<EntryInput<"signature">> = async (db, e, batch) => {
+const signatureConfirmation: Check<EntryInput<"signature">> = async (db, e) => {
   const p = e.payload;
-  const target = await findEntry(db, p.signedEntryId, batch);
-  const needsProof = Boolean(target?.kind.startsWith("run."));
-  if (!p.confirmedBy || !p.confirmProof) {
-    return needsProof
-      ? {
-          code: "forbidden:signature",
-          message: "A signature on a procedure record must be confirmed with the signer's PIN or password.",
-        }
-      : null;
-  }
-  const [signer] = await db
-    .select({ pinHash: users.pinHash, passwordHash: users.passwordHash })
-    .from(users)
-    .where(eq(users.id, e.authorId));
-  if (!signer) return { code: "forbidden:signature", message: "Unknown signer." };
-  const ok = verifyConfirmation(
-    { signedEntryId: p.signedEntryId, signedHash: p.signedHash, meaning: p.meaning, signerId: e.authorId },
-    p.confirmedBy,
-    p.confirmProof,
-    { pinRecord: signer.pinHash, passwordHash: signer.passwordHash },
-  );
+  // A signature without a proof is refused by the record rules (record-checks.ts) before this check.
+  if (!p.confirmedBy || !p.confirmProof) return null;
+  const ok = await proofChecksOut(db, e.authorId, p);
   // A refused PIN proof is counted (a guessing tablet shows up in the count); the batch still commits.
   if (!ok && p.confirmedBy === "pin")
     await recordRejectedPinProof(db, { userId: e.authorId, entryId: e.id, now: new Date() });

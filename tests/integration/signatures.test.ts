@@ -13,7 +13,6 @@ import type { EntryInput, SignatureMeaning, UncheckedEntry } from "@/lib/schemas
 import type { SessionUser } from "@/lib/schemas/user";
 import {
   derivePinKey,
-  formatPinRecord,
   hmacHex,
   PIN_ITERATIONS,
   passwordProofKey,
@@ -23,6 +22,7 @@ import {
 import { signatureEntry, signingSubject } from "@/lib/signing/sign";
 import { recordHash } from "@/lib/sync/hash";
 import { entryBuilder } from "../support/entries";
+import { setTestPin } from "../support/signing";
 import { grace, priya, tomasz } from "../support/users";
 import { freshDb } from "./fixture";
 
@@ -48,17 +48,6 @@ async function startRun(db: Db) {
   return { start, hold };
 }
 
-/** Sets a PIN the way POST /api/pin does, with fewer PBKDF2 rounds to keep the test quick. */
-async function setPin(db: Db, userId: string, pin: string) {
-  const salt = randomBytes(16).toString("base64");
-  const key = await derivePinKey(pin, salt, 1000);
-  await db
-    .update(users)
-    .set({ pinHash: formatPinRecord(1000, salt, key) })
-    .where(eq(users.id, userId));
-  return { key, salt };
-}
-
 async function pinSignature(
   db: Db,
   target: EntryInput,
@@ -66,7 +55,7 @@ async function pinSignature(
   meaning: SignatureMeaning,
   pin = "482916",
 ) {
-  const { key } = await setPin(db, signer.id, pin);
+  const { key } = await setTestPin(db, signer.id, pin);
   const subject = signingSubject(target, signer, meaning);
   return signatureEntry({
     target,
@@ -145,7 +134,7 @@ describe("signatures", () => {
     const res = await appendEntries(db, tomasz, [bare, reused]);
     expect(res.rejected.map((r) => r.code)).toEqual(["forbidden:signature", "forbidden:signature"]);
 
-    const { key } = await setPin(db, tomasz.id, "111111");
+    const { key } = await setTestPin(db, tomasz.id, "111111");
     const wrongKey = await derivePinKey("222222", "AAAAAAAAAAAAAAAAAAAAAA==", 1000);
     expect(wrongKey).not.toBe(key);
     const subject = signingSubject(hold, tomasz, "verified");

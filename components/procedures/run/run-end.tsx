@@ -11,7 +11,7 @@ import { Panel } from "@/components/ui/panel";
 import { mayWrite } from "@/lib/auth/permissions";
 import { trim } from "@/lib/format";
 import { useCryostat } from "@/lib/local/hooks";
-import { recordEntries, recordEntry, type StoredLocalEntry } from "@/lib/local/record";
+import { recordEntry, type StoredLocalEntry } from "@/lib/local/record";
 import type { RunState } from "@/lib/procedures/state";
 import { makesTransferRecord, transferFromRun } from "@/lib/procedures/transfer-record";
 import { completionRefusal } from "@/lib/record/rules";
